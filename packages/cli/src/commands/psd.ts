@@ -1,0 +1,4 @@
+import type { Command } from "commander";
+
+/** Registers `chirpsieve psd` (not implemented yet). */
+export function registerPsd(_program: Command): void {}

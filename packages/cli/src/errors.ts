@@ -1,0 +1,31 @@
+import { InputError } from "@chirpsieve/core";
+
+/** A mistake in how the command was called (a flag's value, a missing flag). Exit code 2. */
+export class UsageError extends InputError {
+  constructor(message: string) {
+    super(message);
+    this.name = "UsageError";
+  }
+}
+
+/** True for errors that are the caller's to fix: print one line and exit 2. */
+export function isInputError(err: unknown): err is Error {
+  if (err instanceof InputError) return true;
+  // Node's own errors for paths the user named (missing file, directory given, no permission).
+  const code = (err as { code?: unknown } | null)?.code;
+  return typeof code === "string" && ["ENOENT", "EISDIR", "ENOTDIR", "EACCES", "EPERM"].includes(code);
+}
+
+/** One line describing a file-system error with the path it concerns. */
+export function describeFsError(err: Error): string {
+  const e = err as Error & { code?: string; path?: string };
+  const what: Record<string, string> = {
+    ENOENT: "no such file or directory",
+    EISDIR: "is a directory, expected a file",
+    ENOTDIR: "a parent of this path is not a directory",
+    EACCES: "permission denied",
+    EPERM: "operation not permitted",
+  };
+  if (e.code && e.path && what[e.code]) return `${e.path}: ${what[e.code]}`;
+  return e.message.split("\n")[0];
+}
