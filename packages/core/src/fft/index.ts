@@ -1,2 +1,3 @@
 export * from "./types.js";
 export * from "./create.js";
+export * from "./backends.js";
