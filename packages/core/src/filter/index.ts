@@ -1,1 +1,5 @@
-export {};
+export * from "./segmentSpectrum.js";
+export * from "./snrSeries.js";
+export * from "./peaks.js";
+export * from "./chisq.js";
+export * from "./reweight.js";

@@ -1,1 +1,9 @@
-export {};
+export * from "./types.js";
+export * from "./segmentPlan.js";
+export * from "./cluster.js";
+export * from "./templateTiming.js";
+export * from "./segmentPsd.js";
+export * from "./segmentFilter.js";
+export * from "./scan.js";
+export * from "./arraySource.js";
+export * from "./snrAround.js";

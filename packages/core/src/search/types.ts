@@ -1,0 +1,90 @@
+import type { FftBackendName } from "../fft/types.js";
+import type { PsdModel } from "../noise/psdModel.js";
+
+/**
+ * What the search reads: a uniformly sampled series read in pieces (io's StrainSource fits).
+ * read(offset, count) returns samples [offset, offset + count).
+ */
+export interface SearchInput {
+  readonly file: string;
+  readonly sampleRate: number;
+  readonly startTime: number;
+  readonly length: number;
+  read(offset: number, count: number): Promise<Float64Array>;
+}
+
+/** A template the search filters with: component masses in solar masses. */
+export interface SearchTemplate {
+  readonly primaryMass: number;
+  readonly secondaryMass: number;
+}
+
+/** Where each segment's noise PSD comes from. */
+export type PsdSource =
+  | { readonly kind: "model"; readonly model: PsdModel }
+  | { readonly kind: "estimate"; readonly segmentSeconds: number; readonly average: "median" | "mean" };
+
+/** Everything the search needs besides the data. */
+export interface SearchOptions {
+  readonly templates: readonly SearchTemplate[];
+  /** Low-frequency cutoff of the templates and of the inner product (Hz). */
+  readonly fMinHz: number;
+  /** High-frequency cutoff of the inner product (Hz); default 0.95 × Nyquist. */
+  readonly fMaxHz?: number;
+  /** Peaks with |z| below this are not reported. */
+  readonly snrThreshold: number;
+  /** Number of frequency bands p of the chi-squared discriminator (0 turns it off). */
+  readonly chi2Bins: number;
+  /** Keep the loudest peak within ± this many seconds, across time and the bank. */
+  readonly clusterWindowSeconds: number;
+  readonly psd: PsdSource;
+  /** Length of the truncated inverse-PSD filter (s); default the PSD estimate's segment, or 2 s for a model. */
+  readonly truncationSeconds?: number;
+  /** Segment length (s), rounded up to a power of two samples; default chosen from the longest template. */
+  readonly segmentSeconds?: number;
+  readonly fftBackend?: FftBackendName;
+  /** Skip (and report) segments holding non-finite samples instead of failing. */
+  readonly skipNonFinite?: boolean;
+  /** Called after each segment with (segments done, segments in all). */
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+/** One reported peak. A candidate, not a detection. */
+export interface Candidate {
+  /** Time the template reaches its ISCO frequency (s, the file's time base). */
+  coalescenceTime: number;
+  snr: number;
+  /** Phase of the complex SNR at the peak (rad). */
+  phase: number;
+  chi2: number;
+  chi2Dof: number;
+  reweightedSnr: number;
+  primaryMass: number;
+  secondaryMass: number;
+  chirpMass: number;
+  /** Distance (Mpc) at which an optimally oriented source matching the template gives this SNR. */
+  effectiveDistanceMpc: number;
+  templateIndex: number;
+  file: string;
+}
+
+/** A stretch of data that was not searched, and why. */
+export interface SkippedStretch {
+  startTime: number;
+  endTime: number;
+  reason: string;
+}
+
+/** What a scan of one input covered. */
+export interface SearchSummary {
+  file: string;
+  templates: number;
+  segments: number;
+  segmentSamples: number;
+  sampleRate: number;
+  analysedSeconds: number;
+  skippedSeconds: number;
+  skipped: SkippedStretch[];
+  fftBackend: FftBackendName;
+  wallSeconds: number;
+}

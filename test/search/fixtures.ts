@@ -1,0 +1,71 @@
+// Shared set-up for search tests: seeded noise with TaylorT4 injections, and a plain template grid.
+import {
+  SITE_A,
+  colouredNoise,
+  injectInto,
+  optimalSnr,
+  siderealAngle,
+  timeDelayFromEarthCenter,
+  type Injection,
+  type PsdModel,
+  type SearchTemplate,
+} from "@chirpsieve/core";
+
+/** An injection with fixed angles (overhead-ish, face-on) at 100 Mpc; distance set later by SNR. */
+export function injectionAt(m1: number, m2: number, coalescenceTime: number, extra: Partial<Injection> = {}): Injection {
+  return {
+    primaryMass: m1,
+    secondaryMass: m2,
+    coalescenceTime,
+    distance: 100,
+    inclination: 0.3,
+    rightAscension: 1.1,
+    declination: 0.4,
+    polarization: 0.2,
+    phase: 0.7,
+    ...extra,
+  };
+}
+
+/** Rescales the injection's distance so its optimal SNR in `psd` is `snr` (SNR ∝ 1/distance). */
+export function atSnr(inj: Injection, snr: number, psd: PsdModel, fs: number, fMin: number): Injection {
+  const rho = optimalSnr(inj, psd, fs, fMin, SITE_A);
+  return { ...inj, distance: (inj.distance * rho) / snr, optimalSnr: snr };
+}
+
+/** When the injected signal reaches its ISCO at SITE_A (Earth-centre time plus the plane-wave delay). */
+export function arrivalTime(inj: Injection): number {
+  return inj.coalescenceTime + timeDelayFromEarthCenter(SITE_A, inj.rightAscension, inj.declination, siderealAngle(inj.coalescenceTime));
+}
+
+/** Seeded coloured noise (or none) plus the injections projected on SITE_A. */
+export function simulatedData(options: {
+  psd: PsdModel;
+  fs: number;
+  seconds: number;
+  seed: string;
+  fMin: number;
+  injections?: Injection[];
+  noise?: boolean;
+}): Float64Array {
+  const n = Math.round(options.seconds * options.fs);
+  const data = options.noise === false ? new Float64Array(n) : colouredNoise(options.psd, n, options.fs, options.seed);
+  for (const inj of options.injections ?? []) injectInto(data, options.fs, 0, inj, SITE_A, options.fMin);
+  return data;
+}
+
+/**
+ * A plain grid of templates: chirp masses from mcMin to mcMax in relative steps `step`, at the
+ * given mass ratios q = m2/m1 (a stand-in bank for engine tests; the lattice bank has its own).
+ */
+export function chirpMassGrid(mcMin: number, mcMax: number, step: number, ratios: number[]): SearchTemplate[] {
+  const out: SearchTemplate[] = [];
+  for (const q of ratios) {
+    const eta = q / (1 + q) ** 2;
+    for (let mc = mcMin; mc <= mcMax; mc *= 1 + step) {
+      const m = mc / eta ** 0.6;
+      out.push({ primaryMass: m / (1 + q), secondaryMass: (m * q) / (1 + q) });
+    }
+  }
+  return out;
+}
