@@ -1,6 +1,8 @@
 // Shared set-up for search tests: seeded noise with TaylorT4 injections, and a plain template grid.
 import {
   SITE_A,
+  createComplexFft,
+  taylorF2Into,
   colouredNoise,
   injectInto,
   optimalSnr,
@@ -68,4 +70,32 @@ export function chirpMassGrid(mcMin: number, mcMax: number, step: number, ratios
     }
   }
   return out;
+}
+
+/**
+ * A TaylorF2 chirp (the search's own waveform family) coalescing at t0 in a series of n samples,
+ * optimally oriented at 1 Mpc: the inverse FFT of h̃(f) e^{−2πift0} (the project's convention).
+ */
+export function taylorF2Chirp(m1: number, m2: number, t0: number, n: number, fs: number, fMin: number): Float64Array {
+  const df = fs / n;
+  const h = new Float64Array(2 * n);
+  taylorF2Into(h, n / 2 + 1, df, fMin, m1, m2, 1);
+  for (let k = 0; k <= n / 2; k++) {
+    const a = -2 * Math.PI * k * df * t0;
+    const c = Math.cos(a);
+    const s = Math.sin(a);
+    const re = h[2 * k];
+    const im = h[2 * k + 1];
+    h[2 * k] = re * c - im * s;
+    h[2 * k + 1] = re * s + im * c;
+    if (k > 0 && k < n / 2) {
+      h[2 * (n - k)] = h[2 * k];
+      h[2 * (n - k) + 1] = -h[2 * k + 1];
+    }
+  }
+  const out = new Float64Array(2 * n);
+  createComplexFft(n).inverse(h, out);
+  const x = new Float64Array(n);
+  for (let i = 0; i < n; i++) x[i] = out[2 * i] * df;
+  return x;
 }

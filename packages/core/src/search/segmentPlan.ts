@@ -45,9 +45,10 @@ export function planSegments(length: number, size: number, invalidStart: number,
     );
   }
   const segments: Segment[] = [];
-  const lastSearchable = length - (length >= size ? invalidEnd : 0);
+  // The end of the data is an edge like a segment's end: the inverse-PSD filter reaches past it.
+  const lastSearchable = length - invalidEnd;
   if (length <= size) {
-    const end = length < size ? length : size - invalidEnd;
+    const end = lastSearchable;
     if (end > invalidStart) segments.push({ start: 0, dataLength: length, searchStart: invalidStart, searchEnd: end });
     return { size, invalidStart, invalidEnd, segments };
   }
