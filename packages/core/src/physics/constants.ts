@@ -32,3 +32,6 @@ export const LIGHT_YEAR = C * JULIAN_YEAR;
 
 /** Day, s. */
 export const DAY = 86_400;
+
+/** Nominal solar luminosity, W (IAU 2015 Resolution B3). */
+export const L_SUN = 3.828e26;
