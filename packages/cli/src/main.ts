@@ -8,6 +8,7 @@ import { registerSimulate } from "./commands/simulate.js";
 import { registerScan } from "./commands/scan.js";
 import { registerBank } from "./commands/bank.js";
 import { registerRecover } from "./commands/recover.js";
+import { registerSites } from "./commands/sites.js";
 import { VERSION } from "./version.js";
 
 /** Builds the command tree. Each subcommand lives in commands/<name>.ts. */
@@ -30,6 +31,7 @@ export function buildProgram(): Command {
   registerScan(program);
   registerBank(program);
   registerRecover(program);
+  registerSites(program);
   for (const sub of program.commands) {
     sub.exitOverride().configureOutput({ outputError: () => {} });
     for (const subsub of sub.commands) subsub.exitOverride().configureOutput({ outputError: () => {} });

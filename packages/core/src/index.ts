@@ -9,3 +9,4 @@ export * from "./filter/index.js";
 export * from "./bank/index.js";
 export * from "./search/index.js";
 export * from "./inject/index.js";
+export * from "./coinc/index.js";

@@ -1,0 +1,152 @@
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import seedrandom from "seedrandom";
+import {
+  BUILTIN_SITES,
+  C,
+  InputError,
+  SITE_A,
+  SITE_B,
+  antennaPattern,
+  detectorFromGeodetic,
+  injectionAtSites,
+  lightTravelTime,
+  pairwiseLightTravelTimes,
+  parseSites,
+  readSitesFile,
+  siderealAngle,
+  siteByName,
+  siteCatalogue,
+  timeDelayFromEarthCenter,
+  type Injection,
+} from "@chirpsieve/core";
+
+const GOOD = { name: "my-site", latitude: 10, longitude: 20, xArmAzimuth: 0, yArmAzimuth: 90 };
+
+function errorOf(text: string): string {
+  try {
+    parseSites(text, "sites.json");
+  } catch (err) {
+    expect(err).toBeInstanceOf(InputError);
+    return (err as Error).message;
+  }
+  throw new Error("expected an InputError");
+}
+
+describe("built-in invented sites", () => {
+  it("reuses the antenna module's site-a and site-b and adds site-c", () => {
+    expect(BUILTIN_SITES.map((s) => s.name)).toEqual(["site-a", "site-b", "site-c"]);
+    expect(siteByName("site-a").detector).toBe(SITE_A);
+    expect(siteByName("site-b").detector).toBe(SITE_B);
+    // The restated geodetic numbers rebuild exactly the antenna module's detectors.
+    for (const s of BUILTIN_SITES) {
+      const d = detectorFromGeodetic({ ...s, name: s.name });
+      for (let i = 0; i < 3; i++) expect(d.vertex[i]).toBeCloseTo(s.detector.vertex[i], 6);
+      for (let i = 0; i < 9; i++) expect(d.tensor[i]).toBeCloseTo(s.detector.tensor[i], 14);
+    }
+    expect(() => siteByName("nowhere")).toThrow(/unknown site "nowhere" \(known: site-a, site-b, site-c\)/);
+  });
+});
+
+describe("light-travel time", () => {
+  it("equals |r1 − r2| / c (common practice, no source)", () => {
+    const [a, b, c] = BUILTIN_SITES.map((s) => s.detector);
+    const direct = (p: typeof a, q: typeof a) =>
+      Math.sqrt((p.vertex[0] - q.vertex[0]) ** 2 + (p.vertex[1] - q.vertex[1]) ** 2 + (p.vertex[2] - q.vertex[2]) ** 2) / C;
+    expect(lightTravelTime(a, b)).toBeCloseTo(direct(a, b), 15);
+    expect(lightTravelTime(b, a)).toBe(lightTravelTime(a, b));
+    expect(lightTravelTime(a, a)).toBe(0);
+    const pairs = pairwiseLightTravelTimes([a, b, c]);
+    expect(pairs.map((p) => p.sites)).toEqual([["site-a", "site-b"], ["site-a", "site-c"], ["site-b", "site-c"]]);
+    expect(pairs[2].seconds).toBe(lightTravelTime(b, c));
+    // Spherical-Earth cross-check (R = 6371 km; chord 2R sin(θ/2) from the great-circle angle θ;
+    // common practice, no source): within 0.5 % of the WGS-84 value.
+    const deg = Math.PI / 180;
+    const cosTheta = Math.sin(52 * deg) * Math.sin(-20 * deg) + Math.cos(52 * deg) * Math.cos(-20 * deg) * Math.cos(190 * deg);
+    const chord = 2 * 6_371_000 * Math.sin(Math.acos(cosTheta) / 2);
+    expect(lightTravelTime(a, b) / (chord / C)).toBeCloseTo(1, 2);
+  });
+
+  it("bounds the arrival-time difference of the antenna module's plane-wave delays, with equality along the baseline", () => {
+    const a = SITE_A;
+    const b = SITE_B;
+    const ltt = lightTravelTime(a, b);
+    const rng = seedrandom("sky");
+    for (let i = 0; i < 500; i++) {
+      const ra = 2 * Math.PI * rng();
+      const dec = Math.asin(2 * rng() - 1);
+      const g = 2 * Math.PI * rng();
+      const dt = timeDelayFromEarthCenter(a, ra, dec, g) - timeDelayFromEarthCenter(b, ra, dec, g);
+      expect(Math.abs(dt)).toBeLessThanOrEqual(ltt * (1 + 1e-12));
+    }
+    // A source in the direction of r_a − r_b (at sidereal angle 0) reaches site-a first by exactly |r_a − r_b| / c.
+    const d = [0, 1, 2].map((i) => a.vertex[i] - b.vertex[i]);
+    const norm = Math.hypot(d[0], d[1], d[2]);
+    const dt = timeDelayFromEarthCenter(a, Math.atan2(d[1], d[0]), Math.asin(d[2] / norm), 0) - timeDelayFromEarthCenter(b, Math.atan2(d[1], d[0]), Math.asin(d[2] / norm), 0);
+    expect(dt).toBeCloseTo(-ltt, 12);
+  });
+});
+
+describe("injectionAtSites", () => {
+  it("takes antenna factors and delays from the shared antenna code", () => {
+    const inj: Injection = {
+      primaryMass: 1.4, secondaryMass: 1.3, coalescenceTime: 12_345.6, distance: 50, inclination: 0.4,
+      rightAscension: 2.1, declination: -0.3, polarization: 0.8, phase: 0.1,
+    };
+    const dets = BUILTIN_SITES.map((s) => s.detector);
+    const out = injectionAtSites(inj, dets);
+    const g = siderealAngle(inj.coalescenceTime);
+    out.forEach((r, i) => {
+      const f = antennaPattern(dets[i], inj.rightAscension, inj.declination, inj.polarization, g);
+      expect(r.site).toBe(dets[i].name);
+      expect(r.plus).toBe(f.plus);
+      expect(r.cross).toBe(f.cross);
+      expect(r.delaySeconds).toBe(timeDelayFromEarthCenter(dets[i], inj.rightAscension, inj.declination, g));
+      expect(r.arrivalTime).toBe(inj.coalescenceTime + r.delaySeconds);
+      expect(r.relativeAmplitude).toBeGreaterThanOrEqual(0);
+      expect(r.relativeAmplitude).toBeLessThanOrEqual(1);
+    });
+    expect(Math.abs(out[0].arrivalTime - out[1].arrivalTime)).toBeLessThanOrEqual(lightTravelTime(dets[0], dets[1]));
+  });
+});
+
+describe("sites files", () => {
+  it("parses user sites (elevation optional) and appends them to the built-in ones", () => {
+    const [s] = parseSites(JSON.stringify([GOOD]), "sites.json");
+    expect(s).toMatchObject({ name: "my-site", latitudeDeg: 10, longitudeDeg: 20, elevationM: 0, origin: "sites.json" });
+    expect(s.detector.name).toBe("my-site");
+    const dot = s.detector.armX[0] * s.detector.armY[0] + s.detector.armX[1] * s.detector.armY[1] + s.detector.armX[2] * s.detector.armY[2];
+    expect(dot).toBeCloseTo(0, 14);
+    const dir = mkdtempSync(join(tmpdir(), "chirpsieve-sites-"));
+    const file = join(dir, "sites.json");
+    writeFileSync(file, JSON.stringify([GOOD, { ...GOOD, name: "high", elevation: 2500, description: "synthetic" }]));
+    expect(readSitesFile(file).map((x) => x.elevationM)).toEqual([0, 2500]);
+    expect(siteCatalogue(file).map((x) => x.name)).toEqual(["site-a", "site-b", "site-c", "my-site", "high"]);
+    expect(siteCatalogue().length).toBe(3);
+  });
+
+  it("names the file, the entry and the field in each error", () => {
+    expect(errorOf("[{")).toMatch(/^sites\.json: not valid JSON/);
+    expect(errorOf("{}")).toMatch(/^sites\.json: expected a JSON array of sites/);
+    expect(errorOf("[]")).toBe("sites.json: the array lists no sites");
+    expect(errorOf("[3]")).toMatch(/^sites\.json: entry 0: must be an object/);
+    expect(errorOf(JSON.stringify([GOOD, { ...GOOD, name: "x", latitude: 95 }]))).toBe(
+      "sites.json: entry 1: latitude must be a number in [-90, 90] degrees (got 95)",
+    );
+    const { longitude: _l, ...noLon } = GOOD;
+    expect(errorOf(JSON.stringify([noLon]))).toBe("sites.json: entry 0: longitude must be a number in [-180, 360] degrees (got nothing)");
+    expect(errorOf(JSON.stringify([{ ...GOOD, xArmAzimuth: "north" }]))).toBe(
+      'sites.json: entry 0: xArmAzimuth must be a number in [-360, 360] degrees (got "north")',
+    );
+    expect(errorOf(JSON.stringify([{ ...GOOD, elevation: 1e6 }]))).toMatch(/entry 0: elevation must be a number in \[-11000, 10000\] metres/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, lat: 3 }]))).toMatch(/entry 0: unknown field "lat"/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, name: "" }]))).toMatch(/entry 0: name must be a non-empty string/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, name: "a=b" }]))).toMatch(/entry 0: name must be/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, name: "site-a" }]))).toBe('sites.json: entry 0: name "site-a" is already used by the built-in site');
+    expect(errorOf(JSON.stringify([GOOD, GOOD]))).toBe('sites.json: entry 1: name "my-site" is already used by entry 0');
+    expect(errorOf(JSON.stringify([{ ...GOOD, xArmAzimuth: 10, yArmAzimuth: 190 }]))).toMatch(/entry 0: xArmAzimuth and yArmAzimuth must not point along one line/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, description: 5 }]))).toMatch(/entry 0: description must be a string/);
+  });
+});
