@@ -1,4 +1,304 @@
 import type { Command } from "commander";
+import { existsSync, mkdirSync, statSync } from "node:fs";
+import { dirname, join, resolve } from "node:path";
+import {
+  InputError,
+  appendCampaignBatch,
+  buildBank,
+  campaignFingerprint,
+  detectorByName,
+  evaluateRequirements,
+  loadFftBackends,
+  openStrain,
+  parseRequirement,
+  psdModelFromSpec,
+  readBankFile,
+  readCampaignState,
+  resolveFftBackend,
+  runCampaign,
+  startCampaignState,
+  summarizeCampaign,
+  writeFileAtomic,
+  type BatchResult,
+  type CampaignOptions,
+  type FftBackendChoice,
+  type PsdModel,
+  type PsdSource,
+  type Requirement,
+  type SearchTemplate,
+  type StrainSource,
+} from "@chirpsieve/core";
+import { UsageError } from "../errors.js";
+import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { createProgress } from "../progress.js";
+import { campaignDocument, formatCampaignText, type CampaignDocument } from "../reportData.js";
+import { renderCampaignReport } from "../report.js";
+import { VERSION } from "../version.js";
 
-/** Registers `chirpsieve recover` (not implemented yet). */
-export function registerRecover(_program: Command): void {}
+interface RecoverFlags {
+  noiseCurve?: string;
+  strain?: string[];
+  count: string;
+  massRange: string;
+  snrRange?: string;
+  distanceRange?: string;
+  distanceDistribution: string;
+  seed: string;
+  fmin: string;
+  rate: string;
+  bank?: string;
+  matchFloor: string;
+  bankNoiseCurve: string;
+  minSnr: string;
+  chi2Bands: string;
+  clusterWindow: string;
+  psdSegment: string;
+  psdAverage: string;
+  modelPsd?: boolean;
+  segment?: string;
+  fft: string;
+  matchWindow: string;
+  perBatch?: string;
+  detector: string;
+  start?: string;
+  dataset?: string;
+  report?: string;
+  json?: boolean;
+  out?: string;
+  require: string[];
+  resume?: boolean;
+  state?: string;
+  quiet?: boolean;
+}
+
+function collect(value: string, previous: string[]): string[] {
+  return [...previous, value];
+}
+
+/** Registers `chirpsieve recover`: an injection-recovery campaign. */
+export function registerRecover(program: Command): void {
+  program
+    .command("recover")
+    .description(
+      "Run an injection-recovery campaign: inject a seeded population of TaylorT4 inspirals into simulated noise " +
+        "(or your strain files), search it exactly as `scan` does, and measure which are found, how well, and how far " +
+        "the search sees. Recovered injections are simulated signals, not detections of real sources.",
+    )
+    .option("--noise-curve <name|file>", "noise to simulate (dis2001, ajith2011, flat, flat:LEVEL or a two-column table); with --strain, filter with this curve instead of estimating the PSD")
+    .option("--strain <file...>", "inject into these strain files instead of simulated noise")
+    .option("--count <N>", "number of injections", "100")
+    .option("--mass-range <min:max>", "component masses of the injections (and of a bank built on the fly), M_sun", "1:3")
+    .option("--snr-range <min:max>", "optimal SNR range of the injections (distance scaled to hit it)")
+    .option("--distance-range <min:max>", "distance range of the injections, Mpc")
+    .option("--distance-distribution <kind>", "with --distance-range: volume (p ∝ D²) or uniform (in distance)", "volume")
+    .option("--seed <text>", "seed of every random draw (injections and simulated noise)", "0")
+    .option("--fmin <Hz>", "low-frequency cutoff of templates and filter, and where injected chirps start (Hz); longer chirps from lower frequencies cost more", "30")
+    .option("--rate <Hz>", "sample rate of simulated data (with --strain: for one-column text files)", "2048")
+    .option("--bank <file>", "template bank file written by `chirpsieve bank`")
+    .option("--match-floor <mm>", "minimal match of a bank built on the fly over --mass-range", "0.97")
+    .option("--bank-noise-curve <name|file>", "noise curve used to place a bank built on the fly (default: --noise-curve, else ajith2011)", "")
+    .option("--min-snr <rho>", "search threshold: candidates need SNR at or above this", "6")
+    .option("--chi2-bands <p>", "frequency bands of the chi-squared discriminator (0 = off)", "16")
+    .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
+    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
+    .option("--psd-average <kind>", "Welch average: median or mean", "median")
+    .option("--model-psd", "filter simulated data with the noise curve itself instead of a Welch estimate")
+    .option("--segment <s>", "length of each batch's stretch of data (s, rounded up to a power of two samples); default: room for about 8 injections")
+    .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
+    .option("--match-window <s>", "a candidate within ± this many seconds of an injection's arrival finds it", "0.1")
+    .option("--per-batch <N>", "injections per batch (default: as many as fit in one stretch)")
+    .option("--detector <name>", "invented detector the injections are projected onto: site-a or site-b", "site-a")
+    .option("--start <s>", "with --strain: start time for one-column text files or HDF5 files without one")
+    .option("--dataset <path>", "with --strain: HDF5 dataset holding the strain")
+    .option("--report <file>", "write a self-contained HTML report with plots")
+    .option("--json", "print the results as JSON on stdout")
+    .option("--out <file>", "write the results as JSON to this file")
+    .option("--require <rule>", "fail (exit 1) unless the rule holds; repeatable: efficiency>=X@snr>=Y, efficiency>=X@distance<=D, chirp-mass-error<=E, time-error<=T, false-candidates<=N", collect, [])
+    .option("--resume", "continue an interrupted campaign from its state file (same arguments)")
+    .option("--state <dir>", "directory of the state file (default <out>.state or <report>.state)")
+    .option("--quiet", "no progress on stderr")
+    .action(async (flags: RecoverFlags, cmd: Command) => {
+      await runRecover(flags, cmd);
+    });
+}
+
+function checkWritable(flag: string, path: string): void {
+  const dir = dirname(resolve(path));
+  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
+  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
+}
+
+function asUsage<T>(flag: string, f: () => T): T {
+  try {
+    return f();
+  } catch (err) {
+    if (err instanceof InputError && !(err instanceof UsageError)) throw new UsageError(`${flag}: ${err.message}`);
+    throw err;
+  }
+}
+
+async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
+  const wallStart = performance.now();
+  // Parse and check everything before any work.
+  const requirements: Requirement[] = flags.require.map((r) => asUsage("--require", () => parseRequirement(r)));
+  const count = parseNumberFlag("--count", flags.count, { min: 1, integer: true });
+  const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange);
+  if (flags.snrRange !== undefined && flags.distanceRange !== undefined) throw new UsageError("--snr-range and --distance-range: give one, not both");
+  if (flags.snrRange === undefined && flags.distanceRange === undefined) throw new UsageError("--snr-range or --distance-range: one is needed to place the injections");
+  const snrRange = flags.snrRange === undefined ? undefined : parseRangeFlag("--snr-range", flags.snrRange);
+  const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
+  const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
+  if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
+  const fMinHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
+  const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const snrThreshold = parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true });
+  const chi2Bins = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
+  if (chi2Bins === 1) throw new UsageError("--chi2-bands: must be 0 (off) or at least 2 (got 1)");
+  const clusterWindowSeconds = parseNumberFlag("--cluster-window", flags.clusterWindow, { min: 0, minExclusive: true });
+  const psdSegmentSeconds = parseNumberFlag("--psd-segment", flags.psdSegment, { min: 0, minExclusive: true });
+  const psdAverage = parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const);
+  const segmentSeconds = flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
+  const fftChoice = parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const) as FftBackendChoice;
+  const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
+  const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
+  const detector = asUsage("--detector", () => detectorByName(flags.detector));
+  const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
+  const strainFiles = flags.strain ?? [];
+  if (strainFiles.length === 0 && flags.noiseCurve === undefined) throw new UsageError("--noise-curve: needed to simulate noise (or give --strain FILE...)");
+  if (strainFiles.length > 0 && flags.modelPsd) throw new UsageError("--model-psd: only applies to simulated noise (with --strain, --noise-curve sets the filter's PSD)");
+  if (flags.bank && cmd.getOptionValueSource("matchFloor") === "cli") throw new UsageError("--match-floor: only applies to a bank built on the fly, not with --bank");
+  const noiseModel: PsdModel | undefined = flags.noiseCurve === undefined ? undefined : asUsage("--noise-curve", () => psdModelFromSpec(flags.noiseCurve!));
+  if (strainFiles.length === 0 && fMinHz >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
+  if (flags.out) checkWritable("--out", flags.out);
+  if (flags.report) checkWritable("--report", flags.report);
+  const stateDir = flags.state ?? (flags.out ? `${flags.out}.state` : flags.report ? `${flags.report}.state` : undefined);
+  if (flags.resume && stateDir === undefined) throw new UsageError("--resume: needs --state DIR, --out or --report to know where the state file is");
+
+  // The PSD the search filters with: scan's rule (a named curve, else a Welch estimate).
+  const useModel = strainFiles.length > 0 ? noiseModel !== undefined : !!flags.modelPsd;
+  const psd: PsdSource = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
+
+  let templates: SearchTemplate[];
+  let bankDescription: string;
+  if (flags.bank) {
+    templates = readBankFile(flags.bank).templates;
+    bankDescription = flags.bank;
+  } else {
+    const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
+    const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
+    const bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
+    templates = bank.templates;
+    bankDescription = `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`;
+  }
+
+  await loadFftBackends();
+  const fftBackend = resolveFftBackend(fftChoice);
+  const sources: StrainSource[] = [];
+  try {
+    for (const f of strainFiles) sources.push(await openStrain(f, { rate: cmd.getOptionValueSource("rate") === "cli" ? rate : undefined, start, dataset: flags.dataset }));
+
+    // What determines the results: hashed into the state file so a resume with other arguments is refused.
+    const args = {
+      noise: strainFiles.length ? "strain" : "simulated",
+      noiseCurve: noiseModel?.name ?? null,
+      strain: sources.map((s) => ({ file: s.file, sampleRate: s.sampleRate, startTime: s.startTime, samples: s.length })),
+      count,
+      massRangeSolar,
+      snrRange: snrRange ?? null,
+      distanceRangeMpc: distanceMpc ?? null,
+      distanceDistribution: distanceMpc ? distanceDistribution : null,
+      seed: flags.seed,
+      fMinHz,
+      sampleRate: strainFiles.length ? sources[0].sampleRate : rate,
+      detector: detector.name,
+      bank: bankDescription,
+      templates: templates.length,
+      templatesFingerprint: campaignFingerprint(templates.map((t) => [t.primaryMass, t.secondaryMass])),
+      minSnr: snrThreshold,
+      chi2Bands: chi2Bins,
+      clusterWindowSeconds,
+      psd: psd.kind === "model" ? `model ${psd.model.name}` : `welch-${psd.average}-${psdSegmentSeconds}s`,
+      segmentSeconds: segmentSeconds ?? null,
+      fftBackend,
+      matchWindowSeconds,
+      perBatch: perBatch ?? null,
+    };
+    const fingerprint = campaignFingerprint(args);
+
+    const options: CampaignOptions = {
+      population: { count, massRangeSolar, snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
+      data: strainFiles.length ? { kind: "strain", sources } : { kind: "simulated", psd: noiseModel!, sampleRate: rate },
+      search: { templates, fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psd, segmentSeconds, fftBackend },
+      detector,
+      matchWindowSeconds,
+      injectionsPerBatch: perBatch,
+    };
+
+    let completed: BatchResult[] = [];
+    let statePath: string | undefined;
+    if (stateDir !== undefined) {
+      mkdirSync(stateDir, { recursive: true });
+      statePath = join(stateDir, "campaign.jsonl");
+      const previous = flags.resume ? readCampaignState(statePath, fingerprint) : null;
+      if (previous === null) startCampaignState(statePath, fingerprint, args);
+      else completed = previous;
+    }
+
+    const progress = createProgress(!flags.quiet, "recover");
+    const lines = !flags.quiet && !process.stderr.isTTY;
+    if (lines && completed.length) process.stderr.write(`chirpsieve: resuming: ${completed.length} batch(es) already finished in ${statePath}\n`);
+    let result;
+    try {
+      result = await runCampaign(options, {
+        completed,
+        onBatch: (r) => {
+          if (statePath) appendCampaignBatch(statePath, r);
+        },
+        onProgress: (done, total) => {
+          progress.update(0, 1, done, total);
+          if (lines && done > completed.length) process.stderr.write(`chirpsieve: batch ${done}/${total} finished\n`);
+        },
+      });
+    } finally {
+      progress.stop();
+    }
+
+    const outcomes = result.batches.flatMap((b) => b.injections);
+    const falseCandidates = result.batches.flatMap((b) => b.falseCandidates);
+    const analysed = result.batches.reduce((a, b) => a + b.analysedSeconds, 0);
+    const summary = summarizeCampaign(outcomes, falseCandidates, options.population, analysed);
+    const checks = evaluateRequirements(requirements, outcomes, summary);
+    const doc: CampaignDocument = campaignDocument({
+      version: VERSION,
+      args,
+      population: {
+        count,
+        massRangeSolar,
+        snrRange: snrRange ?? null,
+        distanceRangeMpc: distanceMpc ?? null,
+        distanceDistribution: distanceMpc ? distanceDistribution : null,
+        seed: flags.seed,
+        detector: detector.name,
+        fMinHz,
+        noise: strainFiles.length ? `strain files: ${strainFiles.join(", ")}` : `simulated Gaussian noise, ${noiseModel!.name} (synthetic)`,
+        synthetic: strainFiles.length === 0,
+      },
+      layout: result.layout,
+      summary,
+      outcomes,
+      falseCandidates,
+      requirements: checks,
+      run: { wallSeconds: (performance.now() - wallStart) / 1000, resumedBatches: completed.length, stateFile: statePath ?? null },
+    });
+
+    const json = `${JSON.stringify(doc, null, 2)}\n`;
+    if (flags.out) writeFileAtomic(flags.out, json);
+    if (flags.report) writeFileAtomic(flags.report, renderCampaignReport(doc));
+    if (flags.json) process.stdout.write(json);
+    else process.stdout.write(formatCampaignText(doc));
+    for (const c of checks.filter((c) => !c.met)) process.stderr.write(`chirpsieve: requirement not met: ${c.rule}: ${c.detail}\n`);
+    if (checks.some((c) => !c.met)) process.exitCode = 1;
+  } finally {
+    for (const s of sources) await s.close();
+  }
+}
