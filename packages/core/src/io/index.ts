@@ -1,1 +1,5 @@
 export * from "./atomicWrite.js";
+export * from "./strainTypes.js";
+export * from "./strainFormat.js";
+export * from "./strainFile.js";
+export * from "./memoryStrain.js";
