@@ -1,4 +1,210 @@
 import type { Command } from "commander";
+import { mkdirSync } from "node:fs";
+import { extname } from "node:path";
+import {
+  buildBank,
+  loadFftBackends,
+  openStrain,
+  psdModelFromSpec,
+  readBankFile,
+  resolveFftBackend,
+  searchSource,
+  writeFileAtomic,
+  type Candidate,
+  type FftBackendChoice,
+  type PsdSource,
+  type SearchSummary,
+  type SearchTemplate,
+} from "@chirpsieve/core";
+import { UsageError } from "../errors.js";
+import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { createProgress } from "../progress.js";
+import { formatCandidatesCsv, formatCandidatesTable, candidateRecord, CANDIDATE_CAUTION } from "../candidateFormat.js";
+import { writeScanPlots } from "../scanPlots.js";
 
-/** Registers `chirpsieve scan` (not implemented yet). */
-export function registerScan(_program: Command): void {}
+interface ScanFlags {
+  massRange?: string;
+  bank?: string;
+  matchFloor: string;
+  fmin: string;
+  minSnr: string;
+  chi2Bands: string;
+  clusterWindow: string;
+  noiseCurve?: string;
+  bankNoiseCurve: string;
+  psdSegment: string;
+  psdAverage: string;
+  segment?: string;
+  out?: string;
+  format?: string;
+  json?: boolean;
+  plot?: string;
+  fft: string;
+  quiet?: boolean;
+  skipBadData?: boolean;
+  rate?: string;
+  start?: string;
+  dataset?: string;
+}
+
+/** Registers `chirpsieve scan <strain-file>...`: the matched-filter search. */
+export function registerScan(program: Command): void {
+  program
+    .command("scan")
+    .description(
+      "Search strain files for inspiral chirps with a TaylorF2 template bank and report SNR peaks with " +
+        "chirp mass and coalescence time. Reported peaks are candidates, not detections.",
+    )
+    .argument("<strain-file...>", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)")
+    .option("--mass-range <min:max>", "component-mass range of a bank built on the fly (solar masses)")
+    .option("--bank <file>", "template bank file written by `chirpsieve bank`")
+    .option("--match-floor <mm>", "minimal match of a bank built on the fly", "0.97")
+    .option("--fmin <Hz>", "low-frequency cutoff of templates and filter (Hz)", "20")
+    .option("--min-snr <rho>", "report peaks with SNR at or above this", "6")
+    .option("--chi2-bands <p>", "frequency bands of the chi-squared discriminator (0 = off)", "16")
+    .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
+    .option("--noise-curve <name|file>", "use a known noise curve (dis2001, ajith2011, flat, or a two-column table) instead of estimating the PSD")
+    .option("--bank-noise-curve <name|file>", "noise curve used to place a bank built on the fly (default: --noise-curve, else ajith2011)", "")
+    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
+    .option("--psd-average <kind>", "Welch average: median or mean", "median")
+    .option("--segment <s>", "analysis segment length (s, rounded up to a power of two samples); default from the longest template")
+    .option("--out <file>", "write candidates to this file (format from --format or the extension: .jsonl, .csv, .txt)")
+    .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
+    .option("--json", "same as --format jsonl to stdout")
+    .option("--plot <dir>", "write SVG plots of the SNR around the loudest candidates and of the PSD into this directory")
+    .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
+    .option("--skip-bad-data", "skip (and report) segments with non-finite samples instead of stopping")
+    .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
+    .option("--start <s>", "start time for one-column text files or HDF5 files without one")
+    .option("--dataset <path>", "HDF5 dataset holding the strain")
+    .option("--quiet", "no progress bar")
+    .action(async (files: string[], flags: ScanFlags) => {
+      await runScan(files, flags);
+    });
+}
+
+async function runScan(files: string[], flags: ScanFlags): Promise<void> {
+  const fMinHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
+  const snrThreshold = parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true });
+  const chi2Bins = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
+  if (chi2Bins === 1) throw new UsageError("--chi2-bands: must be 0 (off) or at least 2 (got 1)");
+  const clusterWindowSeconds = parseNumberFlag("--cluster-window", flags.clusterWindow, { min: 0, minExclusive: true });
+  const psdSegmentSeconds = parseNumberFlag("--psd-segment", flags.psdSegment, { min: 0, minExclusive: true });
+  const psdAverage = parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const);
+  const segmentSeconds = flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
+  const fftChoice = parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const) as FftBackendChoice;
+  const format = chooseFormat(flags);
+  const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
+  if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
+  if (!flags.bank && !flags.massRange) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
+
+  const psd: PsdSource = flags.noiseCurve
+    ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
+    : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
+
+  let templates: SearchTemplate[];
+  let bankDescription: string;
+  if (flags.bank) {
+    const bank = readBankFile(flags.bank);
+    templates = bank.templates;
+    bankDescription = flags.bank;
+  } else {
+    const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange!);
+    const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
+    const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
+    const bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
+    templates = bank.templates;
+    bankDescription = `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`;
+  }
+
+  await loadFftBackends();
+  const fftBackend = resolveFftBackend(fftChoice);
+  const sources = [];
+  for (const f of files) {
+    sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }));
+  }
+  const progress = createProgress(!flags.quiet, "scan");
+  const candidates: Candidate[] = [];
+  const summaries: SearchSummary[] = [];
+  const wallStart = performance.now();
+  try {
+    for (const [i, source] of sources.entries()) {
+      const r = await searchSource(source, {
+        templates,
+        fMinHz,
+        snrThreshold,
+        chi2Bins,
+        clusterWindowSeconds,
+        psd,
+        segmentSeconds,
+        fftBackend,
+        skipNonFinite: !!flags.skipBadData,
+        onProgress: (done, total) => progress.update(i, sources.length, done, total),
+      });
+      candidates.push(...r.candidates);
+      summaries.push(r.summary);
+    }
+  } finally {
+    progress.stop();
+    for (const s of sources) await s.close();
+  }
+  const summary = {
+    type: "summary",
+    files: files.length,
+    templates: templates.length,
+    bank: bankDescription,
+    segments: summaries.reduce((a, s) => a + s.segments, 0),
+    segmentSamples: summaries[0]?.segmentSamples ?? 0,
+    sampleRate: summaries[0]?.sampleRate ?? 0,
+    analysedSeconds: summaries.reduce((a, s) => a + s.analysedSeconds, 0),
+    skippedSeconds: summaries.reduce((a, s) => a + s.skippedSeconds, 0),
+    skipped: summaries.flatMap((s) => s.skipped.map((k) => ({ file: s.file, ...k }))),
+    candidates: candidates.length,
+    minSnr: snrThreshold,
+    fmin: fMinHz,
+    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psdSegmentSeconds}s`,
+    fftBackend,
+    threads: 1,
+    wallSeconds: (performance.now() - wallStart) / 1000,
+    caution: CANDIDATE_CAUTION,
+  };
+
+  const text = render(format, candidates, summary);
+  if (flags.out) writeFileAtomic(flags.out, text);
+  else process.stdout.write(text);
+  if (flags.out && !flags.quiet) {
+    process.stderr.write(`chirpsieve: ${candidates.length} candidate(s) written to ${flags.out}\n`);
+  }
+  if (flags.plot) {
+    mkdirSync(flags.plot, { recursive: true });
+    await writeScanPlots(flags.plot, sources.length ? files : [], candidates, {
+      templates, fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
+      open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }),
+    });
+  }
+}
+
+type Format = "table" | "jsonl" | "csv";
+
+function chooseFormat(flags: ScanFlags): Format {
+  if (flags.json && flags.format && flags.format !== "jsonl") throw new UsageError("--json and --format: --json means --format jsonl");
+  if (flags.json) return "jsonl";
+  if (flags.format) return parseChoiceFlag("--format", flags.format, ["table", "jsonl", "csv"] as const);
+  if (flags.out) {
+    const ext = extname(flags.out).toLowerCase();
+    if (ext === ".csv") return "csv";
+    if (ext === ".txt") return "table";
+    return "jsonl";
+  }
+  return process.stdout.isTTY ? "table" : "jsonl";
+}
+
+function render(format: Format, candidates: Candidate[], summary: Record<string, unknown>): string {
+  if (format === "jsonl") {
+    return candidates.map((c) => JSON.stringify(candidateRecord(c))).join("\n") + (candidates.length ? "\n" : "") + JSON.stringify(summary) + "\n";
+  }
+  if (format === "csv") return formatCandidatesCsv(candidates);
+  return formatCandidatesTable(candidates, summary);
+}
+

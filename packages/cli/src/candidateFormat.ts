@@ -1,0 +1,80 @@
+import type { Candidate } from "@chirpsieve/core";
+
+/** Said wherever candidates are reported. */
+export const CANDIDATE_CAUTION =
+  "A candidate is not a detection: its significance needs a background estimate (e.g. time slides " +
+  "between detectors) and data-quality checks that this scan does not provide.";
+
+/** The JSON record of one candidate (field order fixed; documented in the README). */
+export function candidateRecord(c: Candidate): Record<string, unknown> {
+  return {
+    type: "candidate",
+    coalescenceTime: round(c.coalescenceTime, 6),
+    snr: round(c.snr, 4),
+    reweightedSnr: round(c.reweightedSnr, 4),
+    chi2: round(c.chi2, 3),
+    chi2Dof: c.chi2Dof,
+    phase: round(c.phase, 4),
+    chirpMass: round(c.chirpMass, 5),
+    primaryMass: round(c.primaryMass, 5),
+    secondaryMass: round(c.secondaryMass, 5),
+    effectiveDistanceMpc: round(c.effectiveDistanceMpc, 3),
+    templateIndex: c.templateIndex,
+    file: c.file,
+  };
+}
+
+function round(x: number, digits: number): number {
+  if (!Number.isFinite(x)) return x;
+  const p = 10 ** digits;
+  return Math.round(x * p) / p;
+}
+
+const CSV_FIELDS = [
+  "coalescenceTime", "snr", "reweightedSnr", "chi2", "chi2Dof", "phase", "chirpMass",
+  "primaryMass", "secondaryMass", "effectiveDistanceMpc", "templateIndex", "file",
+] as const;
+
+/** CSV with a header row; the file name is quoted. */
+export function formatCandidatesCsv(candidates: Candidate[]): string {
+  const rows = [CSV_FIELDS.join(",")];
+  for (const c of candidates) {
+    const r = candidateRecord(c);
+    rows.push(CSV_FIELDS.map((f) => (f === "file" ? JSON.stringify(String(r[f])) : String(r[f]))).join(","));
+  }
+  return rows.join("\n") + "\n";
+}
+
+/** A table for people, loudest (reweighted) first, with the summary and the caution under it. */
+export function formatCandidatesTable(candidates: Candidate[], summary: Record<string, unknown>): string {
+  const head = ["coalescence time (s)", "SNR", "rw SNR", "chi2/dof", "chirp mass", "m1", "m2", "D_eff (Mpc)", "file"];
+  const sorted = [...candidates].sort((a, b) => b.reweightedSnr - a.reweightedSnr);
+  const rows = sorted.map((c) => [
+    c.coalescenceTime.toFixed(4),
+    c.snr.toFixed(2),
+    c.reweightedSnr.toFixed(2),
+    c.chi2Dof > 0 ? `${(c.chi2 / c.chi2Dof).toFixed(2)}` : "-",
+    c.chirpMass.toFixed(4),
+    c.primaryMass.toFixed(3),
+    c.secondaryMass.toFixed(3),
+    c.effectiveDistanceMpc.toFixed(1),
+    c.file,
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
+  const out: string[] = [];
+  out.push(`${candidates.length} candidate(s) with SNR ≥ ${summary.minSnr} (masses in M_sun; chi2/dof of the time-frequency discriminator)`);
+  if (rows.length) {
+    out.push(line(head));
+    for (const r of rows) out.push(line(r));
+  }
+  out.push("");
+  out.push(
+    `searched ${Number(summary.analysedSeconds).toFixed(1)} s of data in ${summary.files} file(s) with ${summary.templates} templates ` +
+      `(${summary.segments} segments of ${summary.segmentSamples} samples at ${summary.sampleRate} Hz; PSD ${summary.psd}; ` +
+      `FFT ${summary.fftBackend}) in ${Number(summary.wallSeconds).toFixed(1)} s`,
+  );
+  if (Number(summary.skippedSeconds) > 0) out.push(`skipped ${Number(summary.skippedSeconds).toFixed(1)} s of data (non-finite samples)`);
+  out.push(CANDIDATE_CAUTION);
+  return out.join("\n") + "\n";
+}

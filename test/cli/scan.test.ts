@@ -1,0 +1,98 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { ajith2011, writeStrain } from "@chirpsieve/core";
+import { arrivalTime, atSnr, injectionAt, simulatedData } from "../search/fixtures.js";
+import { runCli } from "./helpers.js";
+
+const FS = 2048;
+let dir: string;
+let file: string;
+const inj = atSnr(injectionAt(10, 9, 40.3), 14, ajith2011, FS, 30);
+
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), "chirpsieve-scan-"));
+  file = join(dir, "site.f32");
+  const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 64, seed: "cli-scan", fMin: 30, injections: [inj] });
+  await writeStrain(file, { data, sampleRate: FS, startTime: 0 });
+});
+
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const base = ["--mass-range", "8:12", "--fmin", "30", "--quiet"];
+
+describe("chirpsieve scan", () => {
+  it("finds the injected chirp and prints JSON lines: candidates, then a summary", () => {
+    const r = runCli(["scan", file, ...base, "--json"]);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    const lines = r.stdout.trim().split("\n").map((l) => JSON.parse(l));
+    const summary = lines.at(-1);
+    expect(summary.type).toBe("summary");
+    for (const key of ["files", "templates", "segments", "segmentSamples", "sampleRate", "analysedSeconds", "skippedSeconds", "wallSeconds", "fftBackend"]) {
+      expect(summary).toHaveProperty(key);
+    }
+    const cands = lines.filter((l) => l.type === "candidate");
+    const best = cands.reduce((a, b) => (b.snr > a.snr ? b : a));
+    for (const key of ["coalescenceTime", "snr", "chi2", "chi2Dof", "reweightedSnr", "chirpMass", "primaryMass", "secondaryMass", "effectiveDistanceMpc", "phase", "templateIndex", "file"]) {
+      expect(best).toHaveProperty(key);
+    }
+    expect(Math.abs(best.coalescenceTime - arrivalTime(inj))).toBeLessThan(0.01);
+    expect(best.snr).toBeGreaterThan(10);
+    expect(best.file).toBe(file);
+  });
+
+  it("writes CSV and table formats, and an --out file atomically", () => {
+    const out = join(dir, "cands.csv");
+    const r = runCli(["scan", file, ...base, "--out", out]);
+    expect(r.code).toBe(0);
+    const csv = readFileSync(out, "utf8").trim().split("\n");
+    expect(csv[0]).toBe("coalescenceTime,snr,reweightedSnr,chi2,chi2Dof,phase,chirpMass,primaryMass,secondaryMass,effectiveDistanceMpc,templateIndex,file");
+    expect(csv.length).toBeGreaterThan(1);
+    expect(readdirSync(dir).filter((f) => f.includes(".partial"))).toEqual([]);
+    const t = runCli(["scan", file, ...base, "--format", "table"]);
+    expect(t.code).toBe(0);
+    expect(t.stdout).toContain("candidate");
+    expect(t.stdout).toContain("not a detection");
+  });
+
+  describe("bad input: one line on stderr, exit code 2, no output file", () => {
+    const expectBad = (args: string[], mention: string) => {
+      const out = join(dir, `bad-${Math.random().toString(36).slice(2)}.jsonl`);
+      const r = runCli(["scan", ...args, "--out", out]);
+      expect(r.code).toBe(2);
+      const lines = r.stderr.trim().split("\n");
+      expect(lines).toHaveLength(1);
+      expect(r.stderr).toContain(mention);
+      expect(r.stderr).not.toMatch(/\n\s+at /);
+      expect(existsSync(out)).toBe(false);
+    };
+
+    it("NaN samples", async () => {
+      const f = join(dir, "nan.f64");
+      const data = new Float64Array(64 * FS);
+      data[1000] = NaN;
+      await writeStrain(f, { data, sampleRate: FS, startTime: 0 }, { nonFinite: "allow" });
+      expectBad([f, ...base], "nan.f64");
+    });
+
+    it("an empty file", () => {
+      const f = join(dir, "empty.f32");
+      writeFileSync(f, "");
+      writeFileSync(`${f}.json`, JSON.stringify({ sampleRate: FS, startTime: 0 }));
+      expectBad([f, ...base], "empty.f32");
+    });
+
+    it("a sidecar with a wrong sample rate", () => {
+      const f = join(dir, "badrate.f32");
+      writeFileSync(f, Buffer.alloc(4 * 1024));
+      writeFileSync(`${f}.json`, JSON.stringify({ sampleRate: "4k", startTime: 0 }));
+      expectBad([f, ...base], "sampleRate");
+    });
+
+    it("an unknown option", () => expectBad([file, ...base, "--no-such-option"], "--no-such-option"));
+    it("a malformed mass range", () => expectBad([file, "--mass-range", "3:1", "--quiet"], "--mass-range"));
+    it("a missing file", () => expectBad([join(dir, "nope.f32"), ...base], "nope.f32"));
+  });
+});
