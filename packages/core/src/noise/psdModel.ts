@@ -6,6 +6,11 @@ export interface PsdModel {
   readonly name: string;
   /** The lowest frequency (Hz) at which the curve is meant to be used. */
   readonly fMinHz: number;
+  /**
+   * The highest frequency (Hz) the curve covers, when it has one (a table or a sampled estimate);
+   * `evaluate` returns +Infinity above it. Absent for analytic fits, which extend to any frequency.
+   */
+  readonly fMaxHz?: number;
   /** Where the formula comes from. */
   readonly source: string;
   /** S_n(f) in 1/Hz for f > 0. */

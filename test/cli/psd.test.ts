@@ -1,0 +1,78 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { ajith2011, colouredNoise, horizonDistance, readPsdTable, writeStrain } from "@chirpsieve/core";
+import { runCli } from "./helpers.js";
+
+// Synthetic data: 32 s of seeded ajith2011-coloured Gaussian noise at 2048 Hz (no real event).
+const fs = 2048;
+const dir = mkdtempSync(join(tmpdir(), "chirpsieve-psd-cli-"));
+const strainFile = join(dir, "synthetic-noise.f64");
+
+beforeAll(async () => {
+  await writeStrain(strainFile, { data: colouredNoise(ajith2011, 32 * fs, fs, "psd-cli"), sampleRate: fs, startTime: 100 });
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+function expectUsageError(args: string[], mention: string): void {
+  const r = runCli(args);
+  expect(r.code).toBe(2);
+  expect(r.stderr.trim().split("\n")).toHaveLength(1);
+  expect(r.stderr).toContain(mention);
+}
+
+describe("chirpsieve psd", () => {
+  it("--json gives the Welch estimate, close to the model, and the 1.4+1.4 horizon", () => {
+    const r = runCli(["psd", strainFile, "--json", "--average", "mean", "--segment", "2"]);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.file).toBe(strainFile);
+    expect(j.sampleRate).toBe(fs);
+    expect(j.segmentSeconds).toBe(2);
+    expect(j.average).toBe("mean");
+    expect(j.segments).toBe(31);
+    expect(j.frequency).toHaveLength(2049);
+    expect(j.psd).toHaveLength(2049);
+    expect(j.frequency[2]).toBe(1);
+    let ratio = 0;
+    for (let k = 50; k < 900; k++) ratio += j.psd[k] / ajith2011.evaluate(j.frequency[k]);
+    expect(Math.abs(ratio / 850 - 1)).toBeLessThan(0.02);
+    // Nyquist 1024 Hz is below the ISCO frequency, so the integral stops there. Estimating S from
+    // the data raises 1/S on average (Jensen), so allow a few % above the model's horizon.
+    const model = horizonDistance({ massSolar1: 1.4, massSolar2: 1.4, psd: ajith2011, fLowHz: 20, fHighHz: 1024 });
+    expect(j.horizonMpc1p4 / model.horizonMpc).toBeGreaterThan(0.97);
+    expect(j.horizonMpc1p4 / model.horizonMpc).toBeLessThan(1.08);
+    expect(j.rangeMpc1p4).toBeCloseTo(j.horizonMpc1p4 / 2.264, 10);
+  });
+
+  it("prints a readable summary and writes the CSV and the SVG plot", () => {
+    const csv = join(dir, "psd.csv");
+    const svg = join(dir, "asd.svg");
+    const r = runCli(["psd", strainFile, "--out", csv, "--plot", svg, "--fmin", "30"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/Welch median of 15 segments of 4 s/);
+    expect(r.stdout).toMatch(/horizon \d+\.\d Mpc/);
+    expect(r.stdout).toMatch(/averaged range \d+\.\d Mpc/);
+    expect(r.stdout).toContain("30.00–1024 Hz");
+    const text = readFileSync(csv, "utf8");
+    expect(text.startsWith("# frequency_hz,psd_per_hz\n")).toBe(true);
+    const table = readPsdTable(csv);
+    expect(table.fMinHz).toBe(0.25);
+    expect(table.fMaxHz).toBe(1024);
+    expect(Math.abs(table.evaluate(200) / ajith2011.evaluate(200) - 1)).toBeLessThan(0.5);
+    const plot = readFileSync(svg, "utf8");
+    expect(plot.startsWith("<svg")).toBe(true);
+    expect(plot).toContain('xmlns="http://www.w3.org/2000/svg"');
+    expect(plot).toContain("frequency (Hz)");
+    expect(plot).toContain("amplitude spectral density");
+  });
+
+  it("rejects bad flags with one line naming the flag and exit code 2", () => {
+    // Each run starts a node process (~2 s on a loaded machine), so only a few cases are run here.
+    expectUsageError(["psd", strainFile, "--segment", "64"], "--segment");
+    expectUsageError(["psd", strainFile, "--segment", "four"], "--segment");
+    expectUsageError(["psd", strainFile, "--out", join(dir, "no-such-dir", "p.csv")], "--out");
+  });
+});
