@@ -1,1 +1,12 @@
-export {};
+export * from "./injection.js";
+export * from "./optimalSnr.js";
+export * from "./drawInjections.js";
+export * from "./manifest.js";
+export * from "./synthesizeStrain.js";
+export * from "./efficiency.js";
+export * from "./detectionProbability.js";
+export * from "./matchInjections.js";
+export * from "./campaign.js";
+export * from "./campaignSummary.js";
+export * from "./campaignRequirements.js";
+export * from "./campaignState.js";

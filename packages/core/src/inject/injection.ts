@@ -1,0 +1,160 @@
+import { InputError } from "../errors.js";
+import { type Detector, antennaPattern, siderealAngle, timeDelayFromEarthCenter } from "../waveform/antenna.js";
+import { taylorT4 } from "../waveform/taylorT4.js";
+
+/**
+ * One simulated inspiral to add to strain. Masses in solar masses (detector frame), times in
+ * seconds of the strain file's time base, distance in Mpc, angles in radians.
+ */
+export interface Injection {
+  /** Heavier component mass, M_sun. */
+  primaryMass: number;
+  /** Lighter component mass, M_sun. */
+  secondaryMass: number;
+  /** Time the signal reaches the ISCO at the Earth's centre, s (file time base, sub-sample). */
+  coalescenceTime: number;
+  /** Luminosity distance, Mpc. */
+  distance: number;
+  /** Inclination ι in [0, π], rad. */
+  inclination: number;
+  /** Right ascension α, rad. */
+  rightAscension: number;
+  /** Declination δ in [−π/2, π/2], rad. */
+  declination: number;
+  /** Polarisation angle ψ, rad. */
+  polarization: number;
+  /** Orbital phase at coalescence, rad (the GW phase there is twice this). */
+  phase: number;
+  /** Optimal (noise-weighted) SNR in the detector, when known (drawInjections and `simulate` fill it in). */
+  optimalSnr?: number;
+}
+
+/** A strain segment on a uniform grid: `data[0]` sits at grid index `startIndex`. */
+export interface StrainSegment {
+  startIndex: number;
+  data: Float64Array;
+}
+
+/** Options for {@link projectInjection}. */
+export interface ProjectionOptions {
+  sampleRate: number;
+  /** Time (s) of grid sample 0 in the file time base (default 0). */
+  gridStartTime?: number;
+  /** GW frequency (Hz) at which the injected chirp starts. */
+  fMinHz: number;
+  /** GW frequency (Hz) at which it ends (default: ISCO or 0.9 × Nyquist, whichever is lower). */
+  fMaxHz?: number;
+}
+
+/**
+ * The detector response h(t) = F+ h+(t) + F× h×(t) to an injection, sampled on a grid
+ * (TaylorT4 polarisations from {@link taylorT4}; antenna factors from {@link antennaPattern}).
+ * The coalescence time refers to the Earth's centre; at the detector the signal is shifted by the
+ * plane-wave delay {@link timeDelayFromEarthCenter}. F+, F× and the delay are evaluated once, at the
+ * coalescence time (the Earth's rotation during the chirp is neglected), with the sidereal angle of
+ * {@link siderealAngle}.
+ */
+export function projectInjection(injection: Injection, detector: Detector, options: ProjectionOptions): StrainSegment {
+  const inj = checkInjection(injection, "injection");
+  const gmst = siderealAngle(inj.coalescenceTime);
+  const { plus, cross } = antennaPattern(detector, inj.rightAscension, inj.declination, inj.polarization, gmst);
+  const delay = timeDelayFromEarthCenter(detector, inj.rightAscension, inj.declination, gmst);
+  const gridStart = options.gridStartTime ?? 0;
+  const wf = taylorT4({
+    massSolar1: inj.primaryMass,
+    massSolar2: inj.secondaryMass,
+    distanceMpc: inj.distance,
+    inclination: inj.inclination,
+    coalescencePhase: inj.phase,
+    // Subtract the grid start first so sub-sample precision survives a ~1e9 s time base.
+    coalescenceTime: inj.coalescenceTime - gridStart + delay,
+    sampleRate: options.sampleRate,
+    gridStartTime: 0,
+    fStartHz: options.fMinHz,
+    fEndHz: options.fMaxHz,
+  });
+  const data = wf.hPlus;
+  const hc = wf.hCross;
+  for (let i = 0; i < data.length; i++) data[i] = plus * data[i] + cross * hc[i];
+  return { startIndex: wf.startIndex, data };
+}
+
+/**
+ * Adds `segment` into `series`, whose first sample is at grid index `seriesStartIndex` of the same
+ * grid; only the overlapping samples are touched. Returns how many samples were added.
+ */
+export function addSegment(series: Float64Array | Float32Array, seriesStartIndex: number, segment: StrainSegment): number {
+  const from = Math.max(seriesStartIndex, segment.startIndex);
+  const to = Math.min(seriesStartIndex + series.length, segment.startIndex + segment.data.length);
+  const d = segment.data;
+  for (let k = from; k < to; k++) series[k - seriesStartIndex] += d[k - segment.startIndex];
+  return Math.max(0, to - from);
+}
+
+/**
+ * Adds the projected TaylorT4 signal of `injection` in place to `series` (sample i at
+ * startTime + i / sampleRate), starting at GW frequency fMinHz. Only the overlapping samples are
+ * changed, so an injection partly (or wholly) outside the series is fine. Returns the number of
+ * samples changed.
+ */
+export function injectInto(
+  series: Float64Array | Float32Array,
+  sampleRate: number,
+  startTime: number,
+  injection: Injection,
+  detector: Detector,
+  fMinHz: number,
+): number {
+  if (!Number.isFinite(startTime)) throw new InputError(`startTime must be a finite number (got ${startTime})`);
+  const segment = projectInjection(injection, detector, { sampleRate, gridStartTime: startTime, fMinHz });
+  return addSegment(series, 0, segment);
+}
+
+/** Fields of an {@link Injection} that must be finite numbers. */
+export const INJECTION_FIELDS = [
+  "primaryMass",
+  "secondaryMass",
+  "coalescenceTime",
+  "distance",
+  "inclination",
+  "rightAscension",
+  "declination",
+  "polarization",
+  "phase",
+] as const;
+
+/**
+ * Validates an injection record (e.g. read from a file); `where` prefixes each message (such as
+ * `injections.json: injection 3`). Returns a clean copy (extra fields dropped, optimalSnr kept if
+ * it is a finite number).
+ */
+export function checkInjection(value: unknown, where: string): Injection {
+  if (value === null || typeof value !== "object" || Array.isArray(value)) {
+    throw new InputError(`${where}: must be an object with fields ${INJECTION_FIELDS.join(", ")}`);
+  }
+  const rec = value as Record<string, unknown>;
+  const out: Record<string, number> = {};
+  for (const key of INJECTION_FIELDS) {
+    const x = rec[key];
+    if (typeof x !== "number" || !Number.isFinite(x)) {
+      throw new InputError(`${where}: ${key} must be a finite number (got ${x === undefined ? "nothing" : JSON.stringify(x)})`);
+    }
+    out[key] = x;
+  }
+  const inj = out as unknown as Injection;
+  if (!(inj.primaryMass > 0)) throw new InputError(`${where}: primaryMass must be positive (got ${inj.primaryMass})`);
+  if (!(inj.secondaryMass > 0)) throw new InputError(`${where}: secondaryMass must be positive (got ${inj.secondaryMass})`);
+  if (inj.secondaryMass > inj.primaryMass) {
+    throw new InputError(`${where}: primaryMass must be at least secondaryMass (got ${inj.primaryMass} < ${inj.secondaryMass})`);
+  }
+  if (!(inj.distance > 0)) throw new InputError(`${where}: distance must be a positive number of Mpc (got ${inj.distance})`);
+  if (inj.inclination < 0 || inj.inclination > Math.PI) {
+    throw new InputError(`${where}: inclination must be in [0, π] rad (got ${inj.inclination})`);
+  }
+  if (Math.abs(inj.declination) > Math.PI / 2) {
+    throw new InputError(`${where}: declination must be in [−π/2, π/2] rad (got ${inj.declination})`);
+  }
+  const snr = rec.optimalSnr;
+  if (typeof snr === "number" && Number.isFinite(snr)) inj.optimalSnr = snr;
+  return inj;
+}

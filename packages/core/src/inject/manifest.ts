@@ -1,0 +1,100 @@
+import { readFileSync } from "node:fs";
+import { InputError } from "../errors.js";
+import { writeFileAtomic } from "../io/atomicWrite.js";
+import { chirpMass } from "../physics/masses.js";
+import { type Injection, checkInjection } from "./injection.js";
+
+/** One injection as listed in a manifest: the record plus its chirp mass and optimal SNR. */
+export interface ManifestInjection extends Injection {
+  chirpMass: number;
+  optimalSnr: number;
+}
+
+/**
+ * The JSON description of a simulated series and what was injected into it (chirpsieve's own
+ * format). `synthetic` is always true: these files describe simulated data only.
+ */
+export interface InjectionManifest {
+  synthetic: true;
+  /** Name of the noise curve the noise was drawn from (and the SNRs computed with). */
+  noiseCurve: string;
+  /** False when the series holds the injections only (no noise added). */
+  noise: boolean;
+  sampleRate: number;
+  startTime: number;
+  duration: number;
+  /** Lowest GW frequency (Hz) of the injected chirps and of the SNR integral. */
+  fMinHz: number;
+  seed: string | number;
+  /** Name of the (invented) detector the signals were projected onto. */
+  detector: string;
+  injections: ManifestInjection[];
+}
+
+/** Builds a manifest; every injection needs its optimalSnr (NaN is written as null otherwise). */
+export function injectionManifest(meta: Omit<InjectionManifest, "synthetic" | "injections">, injections: Injection[]): InjectionManifest {
+  return {
+    synthetic: true,
+    noiseCurve: meta.noiseCurve,
+    noise: meta.noise,
+    sampleRate: meta.sampleRate,
+    startTime: meta.startTime,
+    duration: meta.duration,
+    fMinHz: meta.fMinHz,
+    seed: meta.seed,
+    detector: meta.detector,
+    injections: injections.map((inj) => ({
+      primaryMass: inj.primaryMass,
+      secondaryMass: inj.secondaryMass,
+      chirpMass: chirpMass(inj.primaryMass, inj.secondaryMass),
+      coalescenceTime: inj.coalescenceTime,
+      distance: inj.distance,
+      inclination: inj.inclination,
+      rightAscension: inj.rightAscension,
+      declination: inj.declination,
+      polarization: inj.polarization,
+      phase: inj.phase,
+      optimalSnr: inj.optimalSnr ?? Number.NaN,
+    })),
+  };
+}
+
+/** The manifest as pretty-printed JSON text (one injection per line), ending in a newline. */
+export function formatInjectionManifest(manifest: InjectionManifest): string {
+  const { injections, ...head } = manifest;
+  const headText = JSON.stringify(head, null, 2).replace(/\n}$/, "");
+  const lines = injections.map((inj) => `    ${JSON.stringify(inj)}`);
+  const list = lines.length === 0 ? "[]" : `[\n${lines.join(",\n")}\n  ]`;
+  return `${headText},\n  "injections": ${list}\n}\n`;
+}
+
+/** Writes a manifest atomically (temporary file, then rename). */
+export function writeInjectionManifest(path: string, manifest: InjectionManifest): void {
+  writeFileAtomic(path, formatInjectionManifest(manifest));
+}
+
+/**
+ * Parses injections from JSON text: either an array of injection records or an object with an
+ * "injections" array (such as a manifest). Every record is validated; errors name `fileName` and
+ * the entry index. Extra fields (chirpMass, optimalSnr, …) are accepted; optimalSnr is kept.
+ */
+export function parseInjections(text: string, fileName: string): Injection[] {
+  let value: unknown;
+  try {
+    value = JSON.parse(text);
+  } catch (err) {
+    throw new InputError(`${fileName}: not valid JSON (${(err as Error).message.split("\n")[0]})`);
+  }
+  const list = Array.isArray(value)
+    ? value
+    : value !== null && typeof value === "object" && Array.isArray((value as { injections?: unknown }).injections)
+      ? ((value as { injections: unknown[] }).injections)
+      : undefined;
+  if (!list) throw new InputError(`${fileName}: expected an array of injections or an object with an "injections" array`);
+  return list.map((entry, i) => checkInjection(entry, `${fileName}: injection ${i}`));
+}
+
+/** Reads and validates an injection file (see {@link parseInjections}). */
+export function readInjectionFile(path: string): Injection[] {
+  return parseInjections(readFileSync(path, "utf8"), path);
+}
