@@ -9,6 +9,7 @@ import { registerScan } from "./commands/scan.js";
 import { registerBank } from "./commands/bank.js";
 import { registerRecover } from "./commands/recover.js";
 import { registerSites } from "./commands/sites.js";
+import { registerMerge } from "./commands/merge.js";
 import { VERSION } from "./version.js";
 
 /** Builds the command tree. Each subcommand lives in commands/<name>.ts. */
@@ -32,6 +33,7 @@ export function buildProgram(): Command {
   registerBank(program);
   registerRecover(program);
   registerSites(program);
+  registerMerge(program);
   for (const sub of program.commands) {
     sub.exitOverride().configureOutput({ outputError: () => {} });
     for (const subsub of sub.commands) subsub.exitOverride().configureOutput({ outputError: () => {} });
@@ -61,5 +63,11 @@ async function main(argv: string[]): Promise<void> {
     fail(`unexpected error: ${(err as Error)?.message ?? String(err)} (set CHIRPSIEVE_DEBUG=1 for details)`, 1);
   }
 }
+
+// A reader that closes the pipe early (`chirpsieve scan … | head`) is not an error.
+process.stdout.on("error", (err: NodeJS.ErrnoException) => {
+  if (err.code === "EPIPE") process.exit(0);
+  throw err;
+});
 
 await main(process.argv);
