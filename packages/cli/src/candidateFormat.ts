@@ -1,4 +1,4 @@
-import type { Candidate } from "@chirpsieve/core";
+import type { Candidate, Coincidence } from "@chirpsieve/core";
 
 /** Said wherever candidates are reported. */
 export const CANDIDATE_CAUTION =
@@ -75,6 +75,53 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
       `FFT ${summary.fftBackend}) in ${Number(summary.wallSeconds).toFixed(1)} s`,
   );
   if (Number(summary.skippedSeconds) > 0) out.push(`skipped ${Number(summary.skippedSeconds).toFixed(1)} s of data (non-finite samples)`);
+  out.push(CANDIDATE_CAUTION);
+  return out.join("\n") + "\n";
+}
+
+/** CSV of coincidences: one row each, per-site SNRs in `SITE:snr` columns. */
+export function formatCoincidencesCsv(coincidences: Coincidence[]): string {
+  const sites = [...new Set(coincidences.flatMap((c) => Object.keys(c.sites)))];
+  const head = ["coalescenceTime", "rankingStatistic", "falseAlarmRatePerYear", "falseAlarmRateIsUpperLimit", "falseAlarmProbability", "chirpMass", "templateIndex", "slides", ...sites.flatMap((s) => [`${s}:snr`, `${s}:reweightedSnr`, `${s}:coalescenceTime`])];
+  const rows = [head.join(",")];
+  for (const c of coincidences) {
+    rows.push([
+      c.coalescenceTime.toFixed(6), c.rankingStatistic.toFixed(4), String(c.falseAlarmRatePerYear), String(c.falseAlarmRateIsUpperLimit),
+      String(c.falseAlarmProbability), c.chirpMass.toFixed(5), String(c.templateIndex), String(c.slides),
+      ...sites.flatMap((s) => {
+        const m = c.sites[s];
+        return m ? [m.snr.toFixed(4), m.reweightedSnr.toFixed(4), m.coalescenceTime.toFixed(6)] : ["", "", ""];
+      }),
+    ].join(","));
+  }
+  return rows.join("\n") + "\n";
+}
+
+/** A table of coincidences for people, most significant first, with the background livetime. */
+export function formatCoincidencesTable(coincidences: Coincidence[], singles: number, summary: Record<string, unknown>): string {
+  const bg = summary.background as { slides: number; backgroundSeconds: number; foregroundSeconds: number; falseAlarmRateLimitPerYear: number };
+  const sorted = [...coincidences].sort((a, b) => a.falseAlarmRatePerYear - b.falseAlarmRatePerYear || b.rankingStatistic - a.rankingStatistic);
+  const head = ["coalescence time (s)", "network rw SNR", "FAR (1/yr)", "FAP", "chirp mass", "site SNRs"];
+  const rows = sorted.map((c) => [
+    c.coalescenceTime.toFixed(4),
+    c.rankingStatistic.toFixed(2),
+    `${c.falseAlarmRateIsUpperLimit ? "< " : ""}${c.falseAlarmRatePerYear.toPrecision(3)}`,
+    c.falseAlarmProbability.toPrecision(3),
+    c.chirpMass.toFixed(4),
+    Object.entries(c.sites).map(([n, m]) => `${n} ${m.snr.toFixed(1)}`).join(", "),
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
+  const out = [`${coincidences.length} coincidence(s) between sites; ${singles} single-site candidate(s) not in any coincidence (in --json output)`];
+  if (rows.length) {
+    out.push(line(head));
+    for (const r of rows) out.push(line(r));
+  }
+  out.push("");
+  out.push(
+    `background: ${bg.slides} time slides, ${bg.backgroundSeconds.toFixed(0)} s of background livetime over ${bg.foregroundSeconds.toFixed(1)} s of coincident data ` +
+      `(rates below ${bg.falseAlarmRateLimitPerYear.toPrecision(3)} per year cannot be resolved)`,
+  );
   out.push(CANDIDATE_CAUTION);
   return out.join("\n") + "\n";
 }

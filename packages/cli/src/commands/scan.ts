@@ -2,7 +2,14 @@ import type { Command } from "commander";
 import { mkdirSync } from "node:fs";
 import { extname } from "node:path";
 import {
+  analyseCoincidences,
   buildBank,
+  siteByName,
+  siteCatalogue,
+  type Coincidence,
+  type Detector,
+  type SingleSiteCandidate,
+  type StrainSource,
   loadFftBackends,
   openStrain,
   psdModelFromSpec,
@@ -19,7 +26,14 @@ import {
 import { UsageError } from "../errors.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
-import { formatCandidatesCsv, formatCandidatesTable, candidateRecord, CANDIDATE_CAUTION } from "../candidateFormat.js";
+import {
+  CANDIDATE_CAUTION,
+  candidateRecord,
+  formatCandidatesCsv,
+  formatCandidatesTable,
+  formatCoincidencesCsv,
+  formatCoincidencesTable,
+} from "../candidateFormat.js";
 import { writeScanPlots } from "../scanPlots.js";
 
 interface ScanFlags {
@@ -45,6 +59,15 @@ interface ScanFlags {
   rate?: string;
   start?: string;
   dataset?: string;
+  site: string[];
+  sites?: string;
+  timingTolerance: string;
+  slideStep: string;
+  slides: string;
+}
+
+function collect(value: string, previous: string[]): string[] {
+  return [...previous, value];
 }
 
 /** Registers `chirpsieve scan <strain-file>...`: the matched-filter search. */
@@ -55,7 +78,7 @@ export function registerScan(program: Command): void {
       "Search strain files for inspiral chirps with a TaylorF2 template bank and report SNR peaks with " +
         "chirp mass and coalescence time. Reported peaks are candidates, not detections.",
     )
-    .argument("<strain-file...>", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)")
+    .argument("[strain-file...]", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)")
     .option("--mass-range <min:max>", "component-mass range of a bank built on the fly (solar masses)")
     .option("--bank <file>", "template bank file written by `chirpsieve bank`")
     .option("--match-floor <mm>", "minimal match of a bank built on the fly", "0.97")
@@ -77,13 +100,29 @@ export function registerScan(program: Command): void {
     .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
     .option("--start <s>", "start time for one-column text files or HDF5 files without one")
     .option("--dataset <path>", "HDF5 dataset holding the strain")
+    .option("--site <name=file>", "strain of one detector site (repeat for each site): coincidences and time-slide false-alarm rates", collect, [])
+    .option("--sites <file>", "JSON file of extra site definitions (see `chirpsieve sites`)")
+    .option("--timing-tolerance <s>", "added to the light-travel time between sites for a coincidence", "0.005")
+    .option("--slide-step <s>", "time-slide step for the background", "7")
+    .option("--slides <n>", "time slides on each side of zero (capped by the data length)", "100")
     .option("--quiet", "no progress bar")
     .action(async (files: string[], flags: ScanFlags) => {
       await runScan(files, flags);
     });
 }
 
-async function runScan(files: string[], flags: ScanFlags): Promise<void> {
+async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
+  const network = parseSiteFlags(flags);
+  if (network.length > 0 && positional.length > 0) {
+    throw new UsageError("give strain files either as arguments or with --site NAME=FILE, not both");
+  }
+  const files = network.length > 0 ? network.map((s) => s.file) : positional;
+  if (files.length === 0) throw new UsageError("no strain file given (pass files, or --site NAME=FILE for each site)");
+  const coincidenceOptions = network.length > 0 ? {
+    timingToleranceSeconds: parseNumberFlag("--timing-tolerance", flags.timingTolerance, { min: 0 }),
+    slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
+    slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
+  } : undefined;
   const fMinHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   const snrThreshold = parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true });
   const chi2Bins = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
@@ -120,7 +159,7 @@ async function runScan(files: string[], flags: ScanFlags): Promise<void> {
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
-  const sources = [];
+  const sources: StrainSource[] = [];
   for (const f of files) {
     sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }));
   }
@@ -149,7 +188,7 @@ async function runScan(files: string[], flags: ScanFlags): Promise<void> {
     progress.stop();
     for (const s of sources) await s.close();
   }
-  const summary = {
+  const summary: Record<string, unknown> = {
     type: "summary",
     files: files.length,
     templates: templates.length,
@@ -170,7 +209,29 @@ async function runScan(files: string[], flags: ScanFlags): Promise<void> {
     caution: CANDIDATE_CAUTION,
   };
 
-  const text = render(format, candidates, summary);
+  let text: string;
+  if (network.length > 0) {
+    const byFile = new Map(summaries.map((sm) => [sm.file, sm]));
+    const result = analyseCoincidences(
+      network.map((site, i) => {
+        const src = sources[i];
+        return {
+          detector: site.detector,
+          candidates: candidates.filter((c) => c.file === site.file),
+          analysedSeconds: byFile.get(site.file)?.analysedSeconds ?? 0,
+          startTime: src.startTime,
+          endTime: src.startTime + src.length / src.sampleRate,
+        };
+      }),
+      { ...coincidenceOptions, clusterWindowSeconds },
+    );
+    summary.sites = network.map((s) => ({ name: s.name, file: s.file }));
+    summary.coincidences = result.coincidences.length;
+    summary.background = result.summary;
+    text = renderNetwork(format, result.coincidences, result.singles, summary);
+  } else {
+    text = render(format, candidates, summary);
+  }
   if (flags.out) writeFileAtomic(flags.out, text);
   else process.stdout.write(text);
   if (flags.out && !flags.quiet) {
@@ -198,6 +259,55 @@ function chooseFormat(flags: ScanFlags): Format {
     return "jsonl";
   }
   return process.stdout.isTTY ? "table" : "jsonl";
+}
+
+interface NetworkSite {
+  name: string;
+  file: string;
+  detector: Detector;
+}
+
+/** `--site NAME=FILE` flags resolved against the built-in and --sites catalogue. */
+function parseSiteFlags(flags: ScanFlags): NetworkSite[] {
+  if (flags.site.length === 0) {
+    if (flags.sites) throw new UsageError("--sites: only used with --site NAME=FILE");
+    return [];
+  }
+  const catalogue = siteCatalogue(flags.sites);
+  const out: NetworkSite[] = [];
+  for (const spec of flags.site) {
+    const eq = spec.indexOf("=");
+    if (eq <= 0 || eq === spec.length - 1) throw new UsageError(`--site: expected NAME=FILE (got "${spec}")`);
+    const name = spec.slice(0, eq);
+    if (out.some((s) => s.name === name)) throw new UsageError(`--site: site "${name}" given twice`);
+    let site;
+    try {
+      site = siteByName(name, catalogue);
+    } catch (err) {
+      throw new UsageError(`--site: ${(err as Error).message}`);
+    }
+    out.push({ name, file: spec.slice(eq + 1), detector: site.detector });
+  }
+  if (out.length < 2) throw new UsageError("--site: coincidence needs at least two sites");
+  return out;
+}
+
+function renderNetwork(
+  format: Format,
+  coincidences: Coincidence[],
+  singles: SingleSiteCandidate[],
+  summary: Record<string, unknown>,
+): string {
+  if (format === "jsonl") {
+    const lines = [
+      ...coincidences.map((c) => JSON.stringify({ type: "coincidence", ...c })),
+      ...singles.map((c) => JSON.stringify({ ...candidateRecord(c), type: "single", falseAlarmRatePerYear: c.falseAlarmRatePerYear, falseAlarmRateIsUpperLimit: c.falseAlarmRateIsUpperLimit, falseAlarmProbability: c.falseAlarmProbability, falseAlarmRateSource: c.falseAlarmRateSource })),
+      JSON.stringify(summary),
+    ];
+    return lines.join("\n") + "\n";
+  }
+  if (format === "csv") return formatCoincidencesCsv(coincidences);
+  return formatCoincidencesTable(coincidences, singles.length, summary);
 }
 
 function render(format: Format, candidates: Candidate[], summary: Record<string, unknown>): string {

@@ -5,7 +5,9 @@ import {
   type Injection,
   InputError,
   chirpMass,
-  detectorByName,
+  siteByName,
+  siteCatalogue,
+  type Detector,
   drawInjections,
   injectionManifest,
   optimalSnr,
@@ -36,6 +38,7 @@ interface SimulateFlags {
   noise: boolean;
   label?: string;
   manifest?: string;
+  sites?: string;
 }
 
 /** Registers `chirpsieve simulate`: seeded coloured noise plus TaylorT4 inspiral injections. */
@@ -58,7 +61,8 @@ export function registerSimulate(program: Command): void {
     .option("--mass-range <min:max>", "component masses of random injections, M_sun", "1:3")
     .option("--snr-range <min:max>", "optimal SNR range of random injections (distance scaled to hit it)")
     .option("--distance-range <min:max>", "distance range of random injections, Mpc (uniform in volume)")
-    .option("--detector <name>", "invented detector the signals are projected onto: site-a or site-b", "site-a")
+    .option("--detector <names>", "site(s) the signals are projected onto: one name, or a comma-separated list for one file per site (built-in invented sites, or from --sites)", "site-a")
+    .option("--sites <file>", "JSON file of extra site definitions (see `chirpsieve sites`)")
     .option("--no-noise", "write the injected signals alone, without noise")
     .option("--label <text>", "label stored with the strain")
     .option("--manifest <file>", "where to write the injection manifest (default <out>.injections.json)")
@@ -100,13 +104,22 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     if (err instanceof InputError) throw new UsageError(`--noise-curve: ${err.message}`);
     throw err;
   }
-  let detector;
+  const names = flags.detector.split(",").map((n) => n.trim());
+  if (names.some((n) => n === "") || new Set(names).size !== names.length) {
+    throw new UsageError(`--detector: expected a name or a comma-separated list of distinct names (got "${flags.detector}")`);
+  }
+  let detectors: Detector[];
   try {
-    detector = detectorByName(flags.detector);
+    const catalogue = siteCatalogue(flags.sites);
+    detectors = names.map((n) => siteByName(n, catalogue).detector);
   } catch (err) {
     if (err instanceof InputError) throw new UsageError(`--detector: ${err.message}`);
     throw err;
   }
+  // With several sites, each gets its own file: sim.f32 -> sim.site-a.f32 (and its own manifest).
+  const multi = detectors.length > 1;
+  if (multi && flags.manifest !== undefined) throw new UsageError("--manifest: with several sites each file gets <file>.injections.json");
+  const detector = detectors[0];
   let format;
   try {
     format = strainFormatOf(flags.out);
@@ -114,9 +127,14 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     if (err instanceof InputError) throw new UsageError(`--out: ${err.message}`);
     throw err;
   }
-  checkWritable("--out", flags.out);
-  const manifestPath = flags.manifest ?? `${flags.out}.injections.json`;
-  checkWritable("--manifest", manifestPath);
+  const outputs = detectors.map((d) => {
+    const out = multi ? siteFileName(flags.out!, d.name) : flags.out!;
+    return { detector: d, out, manifest: multi ? `${out}.injections.json` : (flags.manifest ?? `${out}.injections.json`) };
+  });
+  for (const o of outputs) {
+    checkWritable("--out", o.out);
+    checkWritable("--manifest", o.manifest);
+  }
 
   const random = flags.injectRandom !== undefined;
   if (random && flags.inject !== undefined) throw new UsageError("--inject-random: cannot be combined with --inject");
@@ -169,43 +187,54 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     }
   }
 
-  // Generated in chunks; held once, as float32 when the file is float32, to keep memory down.
-  const data = format === "f32" ? new Float32Array(samples) : new Float64Array(samples);
-  let offset = 0;
-  for (const chunk of synthesizeStrain({
-    psd,
-    sampleRate: rate,
-    startTime: start,
-    duration,
-    seed: `${seed}:noise`,
-    fMinHz: fmin,
-    injections,
-    detector,
-    noise: flags.noise,
-  })) {
-    data.set(chunk, offset);
-    offset += chunk.length;
-  }
-  await writeStrain(flags.out, { data, sampleRate: rate, startTime: start, label: flags.label ?? "synthetic", units: "strain" });
-  writeInjectionManifest(
-    manifestPath,
-    injectionManifest(
-      { noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, detector: detector.name },
-      injections,
-    ),
-  );
-
-  const lines = [
-    `wrote ${flags.out}: ${duration} s at ${rate} Hz, ${flags.noise ? `${psd.name} noise` : "no noise"}, ` +
-      `${injections.length} injection${injections.length === 1 ? "" : "s"} on ${detector.name} (synthetic data)`,
-    `manifest ${manifestPath}`,
-  ];
-  for (const inj of injections) {
-    lines.push(
-      `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
-        `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
-        `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}`,
+  const lines: string[] = [];
+  for (const o of outputs) {
+    // Per-site SNRs; the noise of each site is independent (its own seed), one site keeps `SEED:noise`.
+    const siteInjections = injections.map((inj) => ({ ...inj, optimalSnr: multi || inj.optimalSnr === undefined ? optimalSnr(inj, psd, rate, fmin, o.detector) : inj.optimalSnr }));
+    const noiseSeed = multi ? `${seed}:noise:${o.detector.name}` : `${seed}:noise`;
+    // Generated in chunks; held once, as float32 when the file is float32, to keep memory down.
+    const data = format === "f32" ? new Float32Array(samples) : new Float64Array(samples);
+    let offset = 0;
+    for (const chunk of synthesizeStrain({
+      psd,
+      sampleRate: rate,
+      startTime: start,
+      duration,
+      seed: noiseSeed,
+      fMinHz: fmin,
+      injections: siteInjections,
+      detector: o.detector,
+      noise: flags.noise,
+    })) {
+      data.set(chunk, offset);
+      offset += chunk.length;
+    }
+    await writeStrain(o.out, { data, sampleRate: rate, startTime: start, label: flags.label ?? `synthetic ${o.detector.name}`, units: "strain" });
+    writeInjectionManifest(
+      o.manifest,
+      injectionManifest(
+        { noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, detector: o.detector.name },
+        siteInjections,
+      ),
     );
+    lines.push(
+      `wrote ${o.out}: ${duration} s at ${rate} Hz, ${flags.noise ? `${psd.name} noise` : "no noise"}, ` +
+        `${siteInjections.length} injection${siteInjections.length === 1 ? "" : "s"} on ${o.detector.name} (synthetic data)`,
+      `manifest ${o.manifest}`,
+    );
+    for (const inj of siteInjections) {
+      lines.push(
+        `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
+          `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
+          `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}`,
+      );
+    }
   }
   process.stdout.write(`${lines.join("\n")}\n`);
+}
+
+/** `sim.f32` + `site-a` → `sim.site-a.f32` (the site name goes before the extension). */
+function siteFileName(path: string, site: string): string {
+  const m = path.match(/^(.*?)(\.[^./\\]+)$/);
+  return m ? `${m[1]}.${site}${m[2]}` : `${path}.${site}`;
 }
