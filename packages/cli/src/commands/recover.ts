@@ -4,7 +4,6 @@ import { dirname, join, resolve } from "node:path";
 import {
   InputError,
   appendCampaignBatch,
-  buildBank,
   campaignFingerprint,
   detectorByName,
   evaluateRequirements,
@@ -12,7 +11,6 @@ import {
   openStrain,
   parseRequirement,
   psdModelFromSpec,
-  readBankFile,
   readCampaignState,
   resolveFftBackend,
   runCampaign,
@@ -21,22 +19,20 @@ import {
   writeFileAtomic,
   type BatchResult,
   type CampaignOptions,
-  type FftBackendChoice,
   type PsdModel,
   type PsdSource,
   type Requirement,
-  type SearchTemplate,
   type StrainSource,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
+import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import { campaignDocument, formatCampaignText, type CampaignDocument } from "../reportData.js";
 import { renderCampaignReport } from "../report.js";
 import { VERSION } from "../version.js";
 
-interface RecoverFlags {
-  noiseCurve?: string;
+interface RecoverFlags extends SearchFlags {
   strain?: string[];
   count: string;
   massRange: string;
@@ -44,19 +40,8 @@ interface RecoverFlags {
   distanceRange?: string;
   distanceDistribution: string;
   seed: string;
-  fmin: string;
   rate: string;
-  bank?: string;
-  matchFloor: string;
-  bankNoiseCurve: string;
-  minSnr: string;
-  chi2Bands: string;
-  clusterWindow: string;
-  psdSegment: string;
-  psdAverage: string;
   modelPsd?: boolean;
-  segment?: string;
-  fft: string;
   matchWindow: string;
   perBatch?: string;
   detector: string;
@@ -77,13 +62,14 @@ function collect(value: string, previous: string[]): string[] {
 
 /** Registers `chirpsieve recover`: an injection-recovery campaign. */
 export function registerRecover(program: Command): void {
-  program
+  const cmd = program
     .command("recover")
     .description(
       "Run an injection-recovery campaign: inject a seeded population of TaylorT4 inspirals into simulated noise " +
         "(or your strain files), search it exactly as `scan` does, and measure which are found, how well, and how far " +
         "the search sees. Recovered injections are simulated signals, not detections of real sources.",
-    )
+    );
+  addSearchOptions(cmd, { fmin: "30" })
     .option("--noise-curve <name|file>", "noise to simulate (dis2001, ajith2011, flat, flat:LEVEL or a two-column table); with --strain, filter with this curve instead of estimating the PSD")
     .option("--strain <file...>", "inject into these strain files instead of simulated noise")
     .option("--count <N>", "number of injections", "100")
@@ -92,19 +78,9 @@ export function registerRecover(program: Command): void {
     .option("--distance-range <min:max>", "distance range of the injections, Mpc")
     .option("--distance-distribution <kind>", "with --distance-range: volume (p ∝ D²) or uniform (in distance)", "volume")
     .option("--seed <text>", "seed of every random draw (injections and simulated noise)", "0")
-    .option("--fmin <Hz>", "low-frequency cutoff of templates and filter, and where injected chirps start (Hz); longer chirps from lower frequencies cost more", "30")
     .option("--rate <Hz>", "sample rate of simulated data (with --strain: for one-column text files)", "2048")
-    .option("--bank <file>", "template bank file written by `chirpsieve bank`")
-    .option("--match-floor <mm>", "minimal match of a bank built on the fly over --mass-range", "0.97")
-    .option("--bank-noise-curve <name|file>", "noise curve used to place a bank built on the fly (default: --noise-curve, else ajith2011)", "")
-    .option("--min-snr <rho>", "search threshold: candidates need SNR at or above this", "6")
-    .option("--chi2-bands <p>", "frequency bands of the chi-squared discriminator (0 = off)", "16")
-    .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
-    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
-    .option("--psd-average <kind>", "Welch average: median or mean", "median")
     .option("--model-psd", "filter simulated data with the noise curve itself instead of a Welch estimate")
     .option("--segment <s>", "length of each batch's stretch of data (s, rounded up to a power of two samples); default: room for about 8 injections")
-    .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
     .option("--match-window <s>", "a candidate within ± this many seconds of an injection's arrival finds it", "0.1")
     .option("--per-batch <N>", "injections per batch (default: as many as fit in one stretch)")
     .option("--detector <name>", "invented detector the injections are projected onto: site-a or site-b", "site-a")
@@ -149,16 +125,8 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
-  const fMinHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
+  const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice } = parseSearchFlags(flags);
   const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
-  const snrThreshold = parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true });
-  const chi2Bins = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
-  if (chi2Bins === 1) throw new UsageError("--chi2-bands: must be 0 (off) or at least 2 (got 1)");
-  const clusterWindowSeconds = parseNumberFlag("--cluster-window", flags.clusterWindow, { min: 0, minExclusive: true });
-  const psdSegmentSeconds = parseNumberFlag("--psd-segment", flags.psdSegment, { min: 0, minExclusive: true });
-  const psdAverage = parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const);
-  const segmentSeconds = flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
-  const fftChoice = parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const) as FftBackendChoice;
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
   const detector = asUsage("--detector", () => detectorByName(flags.detector));
@@ -178,18 +146,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const useModel = strainFiles.length > 0 ? noiseModel !== undefined : !!flags.modelPsd;
   const psd: PsdSource = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
 
-  let templates: SearchTemplate[];
-  let bankDescription: string;
-  if (flags.bank) {
-    templates = readBankFile(flags.bank).templates;
-    bankDescription = flags.bank;
-  } else {
-    const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
-    const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
-    const bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
-    templates = bank.templates;
-    bankDescription = `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`;
-  }
+  const { templates, description: bankDescription } = resolveTemplates(flags, massRangeSolar, fMinHz);
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);

@@ -3,7 +3,6 @@ import { mkdirSync } from "node:fs";
 import { extname } from "node:path";
 import {
   analyseCoincidences,
-  buildBank,
   siteByName,
   siteCatalogue,
   type Coincidence,
@@ -13,19 +12,17 @@ import {
   loadFftBackends,
   openStrain,
   psdModelFromSpec,
-  readBankFile,
   resolveFftBackend,
   searchSource,
   writeFileAtomic,
   type Candidate,
-  type FftBackendChoice,
   type PsdSource,
   type SearchSummary,
-  type SearchTemplate,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
+import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import {
   CANDIDATE_CAUTION,
   candidateRecord,
@@ -36,24 +33,12 @@ import {
 } from "../candidateFormat.js";
 import { writeScanPlots } from "../scanPlots.js";
 
-interface ScanFlags {
+interface ScanFlags extends SearchFlags {
   massRange?: string;
-  bank?: string;
-  matchFloor: string;
-  fmin: string;
-  minSnr: string;
-  chi2Bands: string;
-  clusterWindow: string;
-  noiseCurve?: string;
-  bankNoiseCurve: string;
-  psdSegment: string;
-  psdAverage: string;
-  segment?: string;
   out?: string;
   format?: string;
   json?: boolean;
   plot?: string;
-  fft: string;
   quiet?: boolean;
   skipBadData?: boolean;
   rate?: string;
@@ -72,30 +57,21 @@ function collect(value: string, previous: string[]): string[] {
 
 /** Registers `chirpsieve scan <strain-file>...`: the matched-filter search. */
 export function registerScan(program: Command): void {
-  program
+  const cmd = program
     .command("scan")
     .description(
       "Search strain files for inspiral chirps with a TaylorF2 template bank and report SNR peaks with " +
         "chirp mass and coalescence time. Reported peaks are candidates, not detections.",
     )
-    .argument("[strain-file...]", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)")
+    .argument("[strain-file...]", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)");
+  addSearchOptions(cmd, { fmin: "20" })
     .option("--mass-range <min:max>", "component-mass range of a bank built on the fly (solar masses)")
-    .option("--bank <file>", "template bank file written by `chirpsieve bank`")
-    .option("--match-floor <mm>", "minimal match of a bank built on the fly", "0.97")
-    .option("--fmin <Hz>", "low-frequency cutoff of templates and filter (Hz)", "20")
-    .option("--min-snr <rho>", "report peaks with SNR at or above this", "6")
-    .option("--chi2-bands <p>", "frequency bands of the chi-squared discriminator (0 = off)", "16")
-    .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
     .option("--noise-curve <name|file>", "use a known noise curve (dis2001, ajith2011, flat, or a two-column table) instead of estimating the PSD")
-    .option("--bank-noise-curve <name|file>", "noise curve used to place a bank built on the fly (default: --noise-curve, else ajith2011)", "")
-    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
-    .option("--psd-average <kind>", "Welch average: median or mean", "median")
     .option("--segment <s>", "analysis segment length (s, rounded up to a power of two samples); default from the longest template")
     .option("--out <file>", "write candidates to this file (format from --format or the extension: .jsonl, .csv, .txt)")
     .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
     .option("--json", "same as --format jsonl to stdout")
     .option("--plot <dir>", "write SVG plots of the SNR around the loudest candidates and of the PSD into this directory")
-    .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
     .option("--skip-bad-data", "skip (and report) segments with non-finite samples instead of stopping")
     .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
     .option("--start <s>", "start time for one-column text files or HDF5 files without one")
@@ -123,15 +99,7 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const fMinHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
-  const snrThreshold = parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true });
-  const chi2Bins = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
-  if (chi2Bins === 1) throw new UsageError("--chi2-bands: must be 0 (off) or at least 2 (got 1)");
-  const clusterWindowSeconds = parseNumberFlag("--cluster-window", flags.clusterWindow, { min: 0, minExclusive: true });
-  const psdSegmentSeconds = parseNumberFlag("--psd-segment", flags.psdSegment, { min: 0, minExclusive: true });
-  const psdAverage = parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const);
-  const segmentSeconds = flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
-  const fftChoice = parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const) as FftBackendChoice;
+  const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice } = parseSearchFlags(flags);
   const format = chooseFormat(flags);
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
@@ -142,20 +110,8 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
     : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
 
-  let templates: SearchTemplate[];
-  let bankDescription: string;
-  if (flags.bank) {
-    const bank = readBankFile(flags.bank);
-    templates = bank.templates;
-    bankDescription = flags.bank;
-  } else {
-    const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange!);
-    const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
-    const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
-    const bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
-    templates = bank.templates;
-    bankDescription = `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`;
-  }
+  const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
+  const { templates, description: bankDescription } = resolveTemplates(flags, massRangeSolar, fMinHz);
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
