@@ -1,4 +1,391 @@
 import type { Command } from "commander";
+import { existsSync, statSync } from "node:fs";
+import { dirname, resolve } from "node:path";
+import * as Plot from "@observablehq/plot";
+import cliProgress from "cli-progress";
+import {
+  buildBankWithReport,
+  iscoFrequencyHz,
+  parseMatchFloorRange,
+  psdModelFromSpec,
+  readBankFile,
+  sweepMatchFloors,
+  verifyBank,
+  writeBankFile,
+  writeFileAtomic,
+  type BankPlacementReport,
+  type CoverageReport,
+  type PsdModel,
+  type SweepResult,
+  type TemplateBank,
+} from "@chirpsieve/core";
+import { UsageError } from "../errors.js";
+import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { renderSvg } from "../plot.js";
+import { VERSION } from "../version.js";
 
-/** Registers `chirpsieve bank` (not implemented yet). */
-export function registerBank(_program: Command): void {}
+interface RegionFlags {
+  massRange?: string;
+  fmin?: string;
+  noiseCurve: string;
+  maxTotalMass?: string;
+  maxMassRatio?: string;
+  fmax?: string;
+}
+
+interface BuildFlags extends RegionFlags {
+  matchFloor: string;
+  out?: string;
+  plot?: string;
+  json?: boolean;
+}
+
+interface VerifyFlags {
+  draws: string;
+  signal: string;
+  drawSpace: string;
+  seed: string;
+  json?: boolean;
+  require?: string;
+}
+
+interface SweepFlags extends RegionFlags {
+  matchFloor: string;
+  draws: string;
+  signal: string;
+  drawSpace: string;
+  seed: string;
+  json?: boolean;
+  plot?: string;
+}
+
+/** Registers `chirpsieve bank` with the subcommands build (the default), verify and sweep. */
+export function registerBank(program: Command): void {
+  const bank = program
+    .command("bank")
+    .description(
+      "Build a template bank (hexagonal lattice under the match metric), verify its coverage with fitting factors, " +
+        "or sweep the minimal match to trade templates against lost detections. `chirpsieve bank --mass-range ...` " +
+        "is `chirpsieve bank build --mass-range ...`.",
+    );
+
+  const withRegion = (cmd: Command): Command =>
+    cmd
+      .option("--mass-range <min:max>", "component masses, solar masses, e.g. 1:3")
+      .option("--fmin <Hz>", "low-frequency cutoff of the match (Hz), also the reference of the chirp times")
+      .option("--noise-curve <name|file>", "ajith2011, dis2001, flat, flat:LEVEL, or a two-column PSD table file", "ajith2011")
+      .option("--max-total-mass <M>", "largest total mass, solar masses")
+      .option("--max-mass-ratio <q>", "largest mass ratio m1/m2 (> 1)")
+      .option("--fmax <Hz>", "fixed upper cutoff of the match (Hz); default: each template's ISCO frequency");
+
+  withRegion(
+    bank
+      .command("build", { isDefault: true })
+      .description("Place templates on a hexagonal lattice so every binary in the region has a template within the minimal match."),
+  )
+    .option("--match-floor <MM>", "minimal match, strictly between 0 and 1", "0.97")
+    .option("--out <file>", "bank file to write (JSON)")
+    .option("--plot <file>", "SVG of the templates in the (τ0, τ3) and component-mass planes")
+    .option("--json", "print the placement summary as JSON")
+    .action((flags: BuildFlags) => runBuild(flags, process.argv.slice(2)));
+
+  bank
+    .command("verify")
+    .description("Fitting factors of random signals against a bank: the fraction reaching its minimal match, percentiles, rate loss, worst points.")
+    .argument("<bank-file>", "bank file written by `chirpsieve bank build`")
+    .option("--draws <n>", "number of random signals", "1000")
+    .option("--signal <model>", "taylorf2 (the bank's own model: coverage) or pn-time (TaylorT4: cost of the approximant)", "taylorf2")
+    .option("--draw-space <space>", "draw uniformly in component masses (masses) or in chirp times (chirp-times)", "masses")
+    .option("--seed <seed>", "seed of the draws", "1")
+    .option("--json", "print the report as JSON")
+    .option("--require <fraction>", "exit with code 1 when fewer than this fraction of draws reach the minimal match")
+    .action((file: string, flags: VerifyFlags) => runVerify(file, flags));
+
+  withRegion(
+    bank
+      .command("sweep")
+      .description(
+        "For each minimal match: template count, verified coverage, mean fitting factor, expected rate loss 1 − ⟨FF³⟩ " +
+          "and an estimated scan cost per hour of data measured on this machine.",
+      ),
+  )
+    .option("--match-floor <range>", "minimal matches MIN:MAX:STEP (or one value)", "0.90:0.99:0.01")
+    .option("--draws <n>", "random signals per bank", "200")
+    .option("--signal <model>", "taylorf2 or pn-time", "taylorf2")
+    .option("--draw-space <space>", "masses or chirp-times", "masses")
+    .option("--seed <seed>", "seed of the draws", "1")
+    .option("--json", "print the table as JSON")
+    .option("--plot <file>", "SVG of the trade-off: scan cost (or template count) against rate loss")
+    .action((flags: SweepFlags) => runSweep(flags));
+}
+
+/** Fails early, naming the flag, when a file cannot be written into its directory. */
+function checkWritable(flag: string, path: string): void {
+  const dir = dirname(resolve(path));
+  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
+  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
+}
+
+interface RegionSettings {
+  massRangeSolar: [number, number];
+  fminHz: number;
+  psd: PsdModel;
+  noiseCurve: string;
+  maxTotalMassSolar?: number;
+  maxMassRatio?: number;
+  fmaxHz?: number;
+}
+
+/** Parses and checks the region flags; every error names its flag. */
+function parseRegion(flags: RegionFlags): RegionSettings {
+  if (flags.massRange === undefined) throw new UsageError(`--mass-range: required, e.g. --mass-range 1:3`);
+  if (flags.fmin === undefined) throw new UsageError(`--fmin: required, e.g. --fmin 30`);
+  const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange, { strict: true });
+  const fminHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
+  const maxTotalMassSolar =
+    flags.maxTotalMass === undefined ? undefined : parseNumberFlag("--max-total-mass", flags.maxTotalMass, { min: 0, minExclusive: true });
+  if (maxTotalMassSolar !== undefined && !(maxTotalMassSolar > 2 * massRangeSolar[0])) {
+    throw new UsageError(`--max-total-mass: must exceed twice the smallest component mass, ${2 * massRangeSolar[0]} (got ${flags.maxTotalMass})`);
+  }
+  const maxMassRatio =
+    flags.maxMassRatio === undefined ? undefined : parseNumberFlag("--max-mass-ratio", flags.maxMassRatio, { min: 1, minExclusive: true });
+  const fmaxHz = flags.fmax === undefined ? undefined : parseNumberFlag("--fmax", flags.fmax, { min: fminHz, minExclusive: true });
+  let psd: PsdModel;
+  try {
+    psd = psdModelFromSpec(flags.noiseCurve);
+  } catch (err) {
+    throw new UsageError(`--noise-curve: ${(err as Error).message}`);
+  }
+  if (fminHz < psd.fMinHz) {
+    throw new UsageError(`--fmin: ${fminHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
+  }
+  const heaviest = Math.min(2 * massRangeSolar[1], maxTotalMassSolar ?? Infinity);
+  const fIsco = iscoFrequencyHz(heaviest);
+  if (!(fminHz < fIsco)) {
+    throw new UsageError(
+      `--fmin: ${fminHz} Hz must be below ${fIsco.toFixed(1)} Hz, the ISCO frequency of the heaviest binary in range (${heaviest} M_sun)`,
+    );
+  }
+  return { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz };
+}
+
+function fmt(x: number, digits = 4): string {
+  return Number.isFinite(x) ? x.toPrecision(digits) : String(x);
+}
+
+function pct(x: number, digits = 1): string {
+  return `${(100 * x).toFixed(digits)}%`;
+}
+
+function runBuild(flags: BuildFlags, argv: string[]): void {
+  const region = parseRegion(flags);
+  const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
+  if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
+  checkWritable("--out", flags.out);
+  if (flags.plot) checkWritable("--plot", flags.plot);
+  const { bank, report } = buildBankWithReport({ ...region, matchFloor });
+  bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
+  writeBankFile(flags.out, bank);
+  if (flags.plot) writeFileAtomic(flags.plot, renderBankPlot(bank));
+  if (flags.json) {
+    process.stdout.write(JSON.stringify({ file: flags.out, ...report, countOverVolumeEstimate: report.templateCount / report.volumeEstimate }) + "\n");
+    return;
+  }
+  process.stdout.write(buildSummary(flags.out, bank, report) + "\n");
+  if (flags.plot) process.stdout.write(`plot written to ${flags.plot}\n`);
+}
+
+function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport): string {
+  const [a, b] = bank.massRangeSolar;
+  return (
+    `${file}: ${r.templateCount} templates for ${a}–${b} M_sun from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
+    `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}; ` +
+    `the excess is the boundary layer and the ISCO-cutoff narrowing), ${r.patchCount} lattice patch${r.patchCount === 1 ? "" : "es"}`
+  );
+}
+
+/** Two scatter plots side by side in one standalone SVG: (τ0, τ3) and (m1, m2). */
+function renderBankPlot(bank: TemplateBank): string {
+  const width = 520;
+  const height = 440;
+  const pts = bank.templates.map((t) => ({ tau0: t.tau0, tau3: t.tau3, m1: t.primaryMass, m2: t.secondaryMass }));
+  const r = pts.length > 5000 ? 0.6 : pts.length > 1000 ? 1 : 1.8;
+  const left = renderSvg({
+    width,
+    height,
+    marginLeft: 60,
+    marginBottom: 45,
+    x: { label: `τ0 (s) from ${bank.fminHz} Hz`, grid: true },
+    y: { label: "τ3 (s)", grid: true },
+    marks: [Plot.dot(pts, { x: "tau0", y: "tau3", r, fill: "steelblue", stroke: "none" })],
+  });
+  const right = renderSvg({
+    width,
+    height,
+    marginLeft: 60,
+    marginBottom: 45,
+    x: { label: "primary mass (M_sun)", grid: true },
+    y: { label: "secondary mass (M_sun)", grid: true },
+    marks: [Plot.dot(pts, { x: "m1", y: "m2", r, fill: "darkorange", stroke: "none" })],
+  });
+  const title = `${bank.templates.length} templates, ${bank.massRangeSolar[0]}–${bank.massRangeSolar[1]} M_sun, minimal match ${bank.matchFloor}, ${bank.noiseCurve} from ${bank.fminHz} Hz`;
+  const inner = (svg: string, x: number): string => svg.replace("<svg", `<svg x="${x}" y="24"`);
+  return (
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${2 * width}" height="${height + 24}" viewBox="0 0 ${2 * width} ${height + 24}">` +
+    `<text x="12" y="17" font-family="sans-serif" font-size="13">${escapeXml(title)}</text>` +
+    inner(left, 0) +
+    inner(right, width) +
+    `</svg>\n`
+  );
+}
+
+function escapeXml(s: string): string {
+  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;");
+}
+
+function progressBar(label: string): { update(done: number, total: number): void; stop(): void } {
+  if (!process.stderr.isTTY) return { update() {}, stop() {} };
+  const bar = new cliProgress.SingleBar(
+    { stream: process.stderr, format: `${label} [{bar}] {percentage}% | {value}/{total} | eta {eta_formatted}`, hideCursor: true, clearOnComplete: true },
+    cliProgress.Presets.shades_classic,
+  );
+  let started = false;
+  return {
+    update(done, total) {
+      if (!started) {
+        bar.start(total, 0);
+        started = true;
+      }
+      bar.update(done);
+    },
+    stop() {
+      if (started) bar.stop();
+    },
+  };
+}
+
+function runVerify(file: string, flags: VerifyFlags): void {
+  const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
+  const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
+  const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
+  const required = flags.require === undefined ? undefined : parseNumberFlag("--require", flags.require, { min: 0, max: 1 });
+  const bank = readBankFile(file);
+  let psd: PsdModel;
+  try {
+    psd = psdModelFromSpec(bank.noiseCurve);
+  } catch (err) {
+    throw new UsageError(`${file}: noiseCurve: ${(err as Error).message}`);
+  }
+  const bar = progressBar("verify");
+  let report: CoverageReport;
+  try {
+    report = verifyBank(bank, { draws, signal, drawSpace, seed: flags.seed, psd, onProgress: (d, t) => bar.update(d, t) });
+  } finally {
+    bar.stop();
+  }
+  if (flags.json) {
+    process.stdout.write(JSON.stringify({ file, ...report, required: required ?? null }) + "\n");
+  } else {
+    process.stdout.write(verifyText(file, bank, report) + "\n");
+  }
+  if (required !== undefined && report.fractionAboveMinimalMatch < required) {
+    const shortBy = required - report.fractionAboveMinimalMatch;
+    process.stderr.write(
+      `chirpsieve: coverage below --require: ${pct(report.fractionAboveMinimalMatch)} of draws reach the minimal match ` +
+        `${bank.matchFloor}, required ${pct(required)} (short by ${(100 * shortBy).toFixed(1)} percentage points)\n`,
+    );
+    process.exitCode = 1;
+  }
+}
+
+function verifyText(file: string, bank: TemplateBank, r: CoverageReport): string {
+  const space = r.drawSpace === "masses" ? "uniform in component masses" : "uniform in chirp times (τ0, τ3)";
+  const model = r.signal === "taylorf2" ? "TaylorF2 signals (the bank's own model: coverage)" : "TaylorT4 time-domain signals (the approximant's cost included)";
+  const mm = bank.matchFloor;
+  const lines = [
+    `${file}: ${r.templates} templates, minimal match ${mm}; ${r.draws} ${model}, ${space}, seed ${r.seed}`,
+    `fitting factor ≥ ${mm} for ${pct(r.fractionAboveMinimalMatch)} of draws; min ${r.min.toFixed(4)}, 1st percentile ${r.p01.toFixed(4)}, ` +
+      `median ${r.median.toFixed(4)}, mean ${r.mean.toFixed(4)}`,
+    `mean FF³ ${r.meanCube.toFixed(4)}: expected loss of detection rate ${pct(1 - r.meanCube)} ` +
+      `(bound for a bank that meets its minimal match: 1 − MM³ = ${pct(1 - mm ** 3)}; Owen 1996)`,
+    `worst draws:`,
+    ...r.worst.map((w) => {
+      const t = bank.templates[w.bestTemplate];
+      return `  ${fmt(w.m1)} + ${fmt(w.m2)} M_sun: FF ${w.fittingFactor.toFixed(4)}${t ? ` (best template ${fmt(t.primaryMass)} + ${fmt(t.secondaryMass)})` : ""}`;
+    }),
+    `matches on a ${r.grid.dfHz} Hz grid (${r.grid.fftSize}-point inverse FFTs), ${r.matchesPerDraw.toFixed(1)} templates per draw ` +
+      `(metric neighbours), ${(r.wallTimeMs / 1000).toFixed(1)} s`,
+  ];
+  return lines.join("\n");
+}
+
+function runSweep(flags: SweepFlags): void {
+  const region = parseRegion(flags);
+  let floors: number[];
+  try {
+    floors = parseMatchFloorRange(flags.matchFloor);
+  } catch (err) {
+    throw new UsageError(`--match-floor: ${(err as Error).message}`);
+  }
+  const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
+  const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
+  const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
+  if (flags.plot) checkWritable("--plot", flags.plot);
+  const bar = progressBar("sweep");
+  let result: SweepResult;
+  try {
+    result = sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) });
+  } finally {
+    bar.stop();
+  }
+  if (flags.plot) writeFileAtomic(flags.plot, renderSweepPlot(result, region));
+  if (flags.json) {
+    process.stdout.write(JSON.stringify({ ...result, costIsEstimate: true }) + "\n");
+    return;
+  }
+  const lines = [
+    `minimal-match sweep, ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fminHz} Hz (${region.noiseCurve}), ` +
+      `${result.draws} ${result.signal} draws per bank`,
+    `  match floor  templates  volume est.  coverage  min FF   mean FF  rate loss  est. CPU h per h of data`,
+  ];
+  for (const row of result.rows) {
+    lines.push(
+      `  ${row.matchFloor.toFixed(3).padStart(11)}  ${String(row.templateCount).padStart(9)}  ${row.volumeEstimate.toFixed(0).padStart(11)}  ` +
+        `${pct(row.coverage).padStart(8)}  ${row.minFittingFactor.toFixed(4)}  ${row.meanFittingFactor.toFixed(4)}  ${pct(row.rateLoss, 2).padStart(9)}  ` +
+        `${row.cpuSecondsPerHour === undefined ? "-" : fmt(row.cpuSecondsPerHour / 3600, 3).padStart(10)}`,
+    );
+  }
+  if (result.cost) {
+    lines.push(
+      `scan cost is an estimate: ${result.cost.method}; ${fmt(result.cost.secondsPerTemplateSegment * 1000, 3)} ms per template per segment, ` +
+        `${fmt(result.cost.segmentsPerHour, 3)} segments per hour`,
+    );
+  }
+  if (flags.plot) lines.push(`plot written to ${flags.plot}`);
+  process.stdout.write(lines.join("\n") + "\n");
+}
+
+/** Trade-off plot: estimated CPU hours per hour of data (or template count) against the rate loss. */
+function renderSweepPlot(result: SweepResult, region: RegionSettings): string {
+  const hasCost = result.rows.every((r) => r.cpuSecondsPerHour !== undefined);
+  const pts = result.rows.map((r) => ({
+    loss: 100 * r.rateLoss,
+    y: hasCost ? r.cpuSecondsPerHour! / 3600 : r.templateCount,
+    label: `MM ${r.matchFloor}`,
+  }));
+  return renderSvg({
+    width: 720,
+    height: 420,
+    marginLeft: 70,
+    marginRight: 80,
+    marginBottom: 45,
+    inset: 12,
+    x: { label: `expected loss of detection rate 1 − ⟨FF³⟩ (%), ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fminHz} Hz`, grid: true },
+    y: { type: "log", label: hasCost ? "estimated CPU hours per hour of data (measured here, scaled)" : "templates", grid: true, tickFormat: "~g" },
+    marks: [
+      Plot.line(pts, { x: "loss", y: "y", stroke: "steelblue" }),
+      Plot.dot(pts, { x: "loss", y: "y", fill: "steelblue" }),
+      Plot.text(pts, { x: "loss", y: "y", text: "label", dx: 8, textAnchor: "start", fontSize: 10 }),
+    ],
+  });
+}

@@ -1,1 +1,14 @@
-export {};
+export * from "./chirpTimeCoordinates.js";
+export * from "./metric.js";
+export * from "./effectiveMetric.js";
+export * from "./massRegion.js";
+export * from "./phaseChart.js";
+export * from "./lattice.js";
+export * from "./metricVolume.js";
+export * from "./templateBank.js";
+export * from "./bankFile.js";
+export * from "./match.js";
+export * from "./templateIndex.js";
+export * from "./verify.js";
+export * from "./scanCost.js";
+export * from "./sweep.js";

@@ -1,0 +1,131 @@
+// Reading and writing template-bank files (JSON).
+import { readFileSync } from "node:fs";
+import { InputError } from "../errors.js";
+import { writeFileAtomic } from "../io/atomicWrite.js";
+import { chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
+import type { BankGenerator, Template, TemplateBank } from "./templateBank.js";
+
+/**
+ * The bank as JSON text:
+ *   {"fmin", "matchFloor", "noiseCurve", "massRange": [min, max], optional "maxTotalMass",
+ *    "maxMassRatio", "fmax", "generator": {"tool", "version", "arguments"},
+ *    "templates": [{"primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"}, ...]}
+ * Masses in solar masses, frequencies in Hz, chirp times in seconds from fmin. One template per line.
+ */
+export function formatBankFile(bank: TemplateBank): string {
+  const head: Record<string, unknown> = {
+    fmin: bank.fminHz,
+    matchFloor: bank.matchFloor,
+    noiseCurve: bank.noiseCurve,
+    massRange: bank.massRangeSolar,
+  };
+  if (bank.maxTotalMassSolar !== undefined) head.maxTotalMass = bank.maxTotalMassSolar;
+  if (bank.maxMassRatio !== undefined) head.maxMassRatio = bank.maxMassRatio;
+  if (bank.fmaxHz !== undefined) head.fmax = bank.fmaxHz;
+  if (bank.generator) head.generator = bank.generator;
+  const lines = Object.entries(head).map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
+  const rows = bank.templates.map(
+    (t) =>
+      `    {"primaryMass": ${t.primaryMass}, "secondaryMass": ${t.secondaryMass}, "chirpMass": ${t.chirpMass}, "tau0": ${t.tau0}, "tau3": ${t.tau3}}`,
+  );
+  return `{\n${lines.join(",\n")},\n  "templates": [\n${rows.join(",\n")}\n  ]\n}\n`;
+}
+
+/** Writes the bank to `path` atomically (a reader never sees a partial file). */
+export function writeBankFile(path: string, bank: TemplateBank): void {
+  writeFileAtomic(path, formatBankFile(bank));
+}
+
+/** Reads and validates a bank file; errors name the file and the entry. */
+export function readBankFile(path: string): TemplateBank {
+  const text = readFileSync(path, "utf8");
+  return parseBankFile(text, path);
+}
+
+function shown(v: unknown): string {
+  return typeof v === "string" ? JSON.stringify(v) : (JSON.stringify(v) ?? String(v));
+}
+
+/**
+ * Parses bank JSON (see {@link formatBankFile}). Checks every field: positive finite numbers,
+ * 0 < matchFloor < 1, massRange min < max, primaryMass ≥ secondaryMass, and that each template's
+ * chirpMass, tau0 and tau3 agree with its masses (relative 1e-6; chirp times from fmin, Sathyaprakash,
+ * Phys. Rev. D 50, R7111 (1994)). Throws InputError "<label>: <what> ..." on the first problem.
+ */
+export function parseBankFile(text: string, label: string): TemplateBank {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (err) {
+    throw new InputError(`${label}: not valid JSON (${(err as Error).message.split("\n")[0]})`);
+  }
+  if (typeof raw !== "object" || raw === null || Array.isArray(raw)) throw new InputError(`${label}: expected a JSON object with "templates"`);
+  const o = raw as Record<string, unknown>;
+  const num = (key: string, v: unknown, where = key): number => {
+    if (typeof v !== "number" || !Number.isFinite(v)) throw new InputError(`${label}: ${where} must be a number (got ${shown(v)})`);
+    return v;
+  };
+  const positive = (key: string, v: unknown, where = key): number => {
+    const x = num(key, v, where);
+    if (!(x > 0)) throw new InputError(`${label}: ${where} must be positive (got ${x})`);
+    return x;
+  };
+  for (const key of ["fmin", "matchFloor", "noiseCurve", "massRange", "templates"]) {
+    if (!(key in o)) throw new InputError(`${label}: missing "${key}"`);
+  }
+  const fminHz = positive("fmin", o.fmin);
+  const matchFloor = num("matchFloor", o.matchFloor);
+  if (!(matchFloor > 0 && matchFloor < 1)) throw new InputError(`${label}: matchFloor must be strictly between 0 and 1 (got ${matchFloor})`);
+  if (typeof o.noiseCurve !== "string" || o.noiseCurve.trim() === "") {
+    throw new InputError(`${label}: noiseCurve must be a non-empty string (got ${shown(o.noiseCurve)})`);
+  }
+  const mr = o.massRange;
+  if (!Array.isArray(mr) || mr.length !== 2) throw new InputError(`${label}: massRange must be [min, max] (got ${shown(mr)})`);
+  const mMin = positive("massRange", mr[0], "massRange[0]");
+  const mMax = positive("massRange", mr[1], "massRange[1]");
+  if (!(mMin < mMax)) throw new InputError(`${label}: massRange minimum ${mMin} must be below the maximum ${mMax}`);
+  const bank: TemplateBank = { fminHz, matchFloor, noiseCurve: o.noiseCurve, massRangeSolar: [mMin, mMax], templates: [] };
+  if (o.maxTotalMass !== undefined) bank.maxTotalMassSolar = positive("maxTotalMass", o.maxTotalMass);
+  if (o.maxMassRatio !== undefined) {
+    const q = num("maxMassRatio", o.maxMassRatio);
+    if (!(q > 1)) throw new InputError(`${label}: maxMassRatio must be above 1 (got ${q})`);
+    bank.maxMassRatio = q;
+  }
+  if (o.fmax !== undefined) {
+    const f = positive("fmax", o.fmax);
+    if (!(f > fminHz)) throw new InputError(`${label}: fmax ${f} must be above fmin ${fminHz}`);
+    bank.fmaxHz = f;
+  }
+  if (o.generator !== undefined) {
+    const g = o.generator as Partial<BankGenerator> | null;
+    if (typeof g !== "object" || g === null || typeof g.tool !== "string" || typeof g.version !== "string" || !Array.isArray(g.arguments)) {
+      throw new InputError(`${label}: generator must be {"tool", "version", "arguments": [...]}`);
+    }
+    bank.generator = { tool: "chirpsieve", version: g.version, arguments: g.arguments.map(String) };
+  }
+  if (!Array.isArray(o.templates)) throw new InputError(`${label}: templates must be an array`);
+  if (o.templates.length === 0) throw new InputError(`${label}: templates is empty`);
+  const close = (a: number, b: number): boolean => Math.abs(a - b) <= 1e-6 * Math.abs(b);
+  o.templates.forEach((entry: unknown, i: number) => {
+    const where = `templates[${i}]`;
+    if (typeof entry !== "object" || entry === null) throw new InputError(`${label}: ${where} must be an object`);
+    const e = entry as Record<string, unknown>;
+    for (const key of ["primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"]) {
+      if (!(key in e)) throw new InputError(`${label}: ${where} is missing "${key}"`);
+    }
+    const m1 = positive("", e.primaryMass, `${where}.primaryMass`);
+    const m2 = positive("", e.secondaryMass, `${where}.secondaryMass`);
+    const mc = positive("", e.chirpMass, `${where}.chirpMass`);
+    const t0 = positive("", e.tau0, `${where}.tau0`);
+    const t3 = positive("", e.tau3, `${where}.tau3`);
+    if (m2 > m1 * (1 + 1e-12)) throw new InputError(`${label}: ${where}: secondaryMass ${m2} exceeds primaryMass ${m1}`);
+    const mcExpected = Math.pow(m1 * m2, 0.6) / Math.pow(m1 + m2, 0.2);
+    if (!close(mc, mcExpected)) throw new InputError(`${label}: ${where}.chirpMass ${mc} does not match the masses (expected ${mcExpected})`);
+    const ct = chirpTimesFromComponents(m1, m2, fminHz);
+    if (!close(t0, ct.tau0)) throw new InputError(`${label}: ${where}.tau0 ${t0} does not match the masses at fmin ${fminHz} Hz (expected ${ct.tau0})`);
+    if (!close(t3, ct.tau3)) throw new InputError(`${label}: ${where}.tau3 ${t3} does not match the masses at fmin ${fminHz} Hz (expected ${ct.tau3})`);
+    const t: Template = { primaryMass: m1, secondaryMass: m2, chirpMass: mc, tau0: t0, tau3: t3 };
+    bank.templates.push(t);
+  });
+  return bank;
+}

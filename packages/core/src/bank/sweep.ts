@@ -1,0 +1,109 @@
+// Spacing tuning: how the template count, coverage, rate loss and scan cost move with the minimal match.
+import { InputError } from "../errors.js";
+import { buildBankWithReport, checkBankOptions, type BuildBankOptions } from "./templateBank.js";
+import { verifyBank, type VerifyDrawSpace, type VerifySignal } from "./verify.js";
+import { measureTemplateCost, scanCpuSecondsPerHour, type TemplateCostMeasurement } from "./scanCost.js";
+import { iscoFrequencyHz } from "./chirpTimeCoordinates.js";
+
+export interface SweepOptions extends Omit<BuildBankOptions, "matchFloor"> {
+  /** Minimal matches to try, each in (0, 1). */
+  matchFloors: number[];
+  /** Fitting-factor draws per bank (default 200). */
+  draws?: number;
+  seed?: string | number;
+  signal?: VerifySignal;
+  drawSpace?: VerifyDrawSpace;
+  /** Measure the scan cost on this machine (default true). */
+  measureCost?: boolean;
+  /** Called after each match floor with (done, total). */
+  onProgress?: (done: number, total: number) => void;
+}
+
+/** One match floor's figures. */
+export interface SweepRow {
+  matchFloor: number;
+  templateCount: number;
+  /** Metric-volume estimate of the count (phase metric; Owen 1996). */
+  volumeEstimate: number;
+  /** Fraction of draws whose fitting factor reaches the match floor. */
+  coverage: number;
+  minFittingFactor: number;
+  meanFittingFactor: number;
+  /** ⟨FF³⟩ and the expected loss of detection rate 1 − ⟨FF³⟩ (Owen 1996). */
+  meanCube: number;
+  rateLoss: number;
+  /** Estimated CPU seconds to scan one hour of data (see `cost`), or undefined if not measured. */
+  cpuSecondsPerHour?: number;
+}
+
+export interface SweepResult {
+  rows: SweepRow[];
+  cost?: TemplateCostMeasurement;
+  draws: number;
+  signal: VerifySignal;
+}
+
+/** Parses "a:b:step" (inclusive, rounded to the step's decimals) or a single value into match floors. */
+export function parseMatchFloorRange(spec: string): number[] {
+  const parts = spec.split(":").map((s) => s.trim());
+  const nums = parts.map(Number);
+  if (parts.some((p) => p === "") || nums.some((x) => !Number.isFinite(x))) {
+    throw new InputError(`match floor range must be "MIN:MAX:STEP" or one value (got "${spec}")`);
+  }
+  let values: number[];
+  if (nums.length === 1) values = [nums[0]];
+  else if (nums.length === 3) {
+    const [lo, hi, step] = nums;
+    if (!(step > 0)) throw new InputError(`match floor range "${spec}": the step must be positive`);
+    if (!(lo <= hi)) throw new InputError(`match floor range "${spec}": the minimum must not exceed the maximum`);
+    const decimals = Math.min(12, Math.max(0, ...parts.map((p) => (p.includes(".") ? p.split(".")[1].length : 0))));
+    const n = Math.floor((hi - lo) / step + 1e-9);
+    if (n > 200) throw new InputError(`match floor range "${spec}" has more than 200 values`);
+    values = [];
+    for (let i = 0; i <= n; i++) values.push(Number((lo + i * step).toFixed(decimals)));
+  } else throw new InputError(`match floor range must be "MIN:MAX:STEP" or one value (got "${spec}")`);
+  for (const v of values) {
+    if (!(v > 0 && v < 1)) throw new InputError(`match floor ${v} in "${spec}" must be strictly between 0 and 1`);
+  }
+  return values;
+}
+
+/**
+ * For each minimal match: builds the bank (templateBank.ts), verifies it with seeded fitting-factor
+ * draws (verify.ts) and scales a once-measured per-template cost (scanCost.ts) to CPU seconds per hour
+ * of data. The rate loss 1 − ⟨FF³⟩ is the expected fraction of detectable sources lost to the
+ * bank's discreteness, for sources uniform in volume (Owen, Phys. Rev. D 53, 6749 (1996)).
+ */
+export function sweepMatchFloors(options: SweepOptions): SweepResult {
+  checkBankOptions(options);
+  if (!Array.isArray(options.matchFloors) || options.matchFloors.length === 0) throw new InputError(`matchFloors must list at least one value`);
+  for (const mm of options.matchFloors) {
+    if (!(mm > 0 && mm < 1)) throw new InputError(`match floor ${mm} must be strictly between 0 and 1`);
+  }
+  const draws = options.draws ?? 200;
+  const signal = options.signal ?? "taylorf2";
+  const rows: SweepRow[] = [];
+  let cost: TemplateCostMeasurement | undefined;
+  options.matchFloors.forEach((mm, k) => {
+    const { bank, report } = buildBankWithReport({ ...options, matchFloor: mm });
+    const v = verifyBank(bank, { draws, seed: options.seed, signal, drawSpace: options.drawSpace, psd: options.psd });
+    if (options.measureCost !== false && !cost) {
+      const longest = Math.max(...bank.templates.map((t) => t.tau0));
+      const top = Math.min(options.fmaxHz ?? Infinity, iscoFrequencyHz(2 * options.massRangeSolar[0]));
+      cost = measureTemplateCost({ longestTemplateSeconds: longest, highestFrequencyHz: top, fminHz: options.fminHz });
+    }
+    rows.push({
+      matchFloor: mm,
+      templateCount: report.templateCount,
+      volumeEstimate: report.volumeEstimate,
+      coverage: v.fractionAboveMinimalMatch,
+      minFittingFactor: v.min,
+      meanFittingFactor: v.mean,
+      meanCube: v.meanCube,
+      rateLoss: 1 - v.meanCube,
+      cpuSecondsPerHour: cost ? scanCpuSecondsPerHour(report.templateCount, cost) : undefined,
+    });
+    options.onProgress?.(k + 1, options.matchFloors.length);
+  });
+  return { rows, cost, draws, signal };
+}

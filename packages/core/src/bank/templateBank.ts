@@ -1,0 +1,176 @@
+// The template bank as the rest of chirpsieve sees it, and how one is built.
+import { InputError } from "../errors.js";
+import type { PsdModel } from "../noise/psdModel.js";
+import { createChirpTimeMetric } from "./metric.js";
+import { createMassRegion } from "./massRegion.js";
+import { placeA2Lattice } from "./lattice.js";
+import { boundaryLayerEstimate, hexagonCellArea, regionProperArea, regionProperPerimeter } from "./metricVolume.js";
+import { effectiveMetric } from "./effectiveMetric.js";
+import { createPhaseChart } from "./phaseChart.js";
+import { chirpMassFromMassEta, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
+
+/** One non-spinning inspiral template. Masses in solar masses, chirp times (from the bank's fmin) in s. */
+export interface Template {
+  primaryMass: number;
+  secondaryMass: number;
+  chirpMass: number;
+  tau0: number;
+  tau3: number;
+}
+
+/** Who made a bank file and how (provenance). */
+export interface BankGenerator {
+  tool: "chirpsieve";
+  version: string;
+  arguments: string[];
+}
+
+/** A template bank: the templates and the settings they were placed for. */
+export interface TemplateBank {
+  /** Low-frequency cutoff (Hz) of the match, and reference frequency of the chirp times. */
+  fminHz: number;
+  /** Minimal match MM the bank was placed for. */
+  matchFloor: number;
+  /** Name or table path of the noise curve (as given to psdModelFromSpec / psdModelByName). */
+  noiseCurve: string;
+  /** Component-mass range [min, max], solar masses. */
+  massRangeSolar: [number, number];
+  maxTotalMassSolar?: number;
+  maxMassRatio?: number;
+  /** Fixed upper cutoff (Hz) of the metric integrals, when one was given (otherwise each template's ISCO). */
+  fmaxHz?: number;
+  templates: Template[];
+  generator?: BankGenerator;
+}
+
+export interface BuildBankOptions {
+  massRangeSolar: [number, number];
+  matchFloor: number;
+  fminHz: number;
+  psd: PsdModel;
+  /** Label stored in the bank for the noise curve (default psd.name). */
+  noiseCurve?: string;
+  maxTotalMassSolar?: number;
+  maxMassRatio?: number;
+  fmaxHz?: number;
+  /** Metric variation (λmax/λmin − 1) below which a lattice patch is never split (default 0.05; lattice.ts). */
+  tolerance?: number;
+}
+
+/** Figures about a placement, for summaries. */
+export interface BankPlacementReport {
+  templateCount: number;
+  patchCount: number;
+  /** Lattice points that fell outside the region and were moved onto its boundary. */
+  projectedCount: number;
+  /** ∫ sqrt(det g) dτ0 dτ3 over the region with the phase metric g (Owen 1996). */
+  properArea: number;
+  /** The same with the effective metric the lattice was laid with (≥ properArea; see effectiveMetric.ts). */
+  effectiveProperArea: number;
+  /** properArea / hexagonal cell area (3√3/2)(1 − MM): the metric-volume estimate of the count. */
+  volumeEstimate: number;
+  /** effectiveProperArea / hexagonal cell area. */
+  effectiveVolumeEstimate: number;
+  /** Proper length of the region's boundary under the phase metric. */
+  properPerimeter: number;
+  /**
+   * effectiveVolumeEstimate + the boundary layer ≈ 0.368 × perimeter / sqrt(1 − MM) (metricVolume.ts;
+   * perimeter under the effective metric):
+   * what a lattice that covers a bounded region must hold; for the long, narrow regions of
+   * non-spinning banks the boundary layer is often as large as the area term.
+   */
+  boundaryAwareEstimate: number;
+}
+
+/** Validates the options common to building and sweeping; returns the checked values. */
+export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> & { matchFloor?: number }): void {
+  const [mMin, mMax] = options.massRangeSolar ?? [];
+  if (!(Number.isFinite(mMin) && Number.isFinite(mMax) && mMin > 0 && mMax > 0)) {
+    throw new InputError(`massRangeSolar must be two positive numbers (got ${JSON.stringify(options.massRangeSolar)})`);
+  }
+  if (!(mMin < mMax)) throw new InputError(`massRangeSolar: the minimum ${mMin} must be below the maximum ${mMax}`);
+  if (options.matchFloor !== undefined && !(options.matchFloor > 0 && options.matchFloor < 1)) {
+    throw new InputError(`matchFloor must be strictly between 0 and 1 (got ${options.matchFloor})`);
+  }
+  const fmin = options.fminHz;
+  if (!(fmin > 0) || !Number.isFinite(fmin)) throw new InputError(`fminHz must be a positive number (got ${fmin})`);
+  if (fmin < options.psd.fMinHz) {
+    throw new InputError(`fminHz ${fmin} Hz is below the lowest frequency ${options.psd.fMinHz} Hz of noise curve "${options.psd.name}"`);
+  }
+  const mTot = options.maxTotalMassSolar;
+  if (mTot !== undefined && !(mTot > 2 * mMin)) {
+    throw new InputError(`maxTotalMassSolar must exceed twice the minimum component mass, ${2 * mMin} (got ${mTot})`);
+  }
+  const q = options.maxMassRatio;
+  if (q !== undefined && !(q > 1)) throw new InputError(`maxMassRatio must be a number above 1 (got ${q})`);
+  const heaviest = Math.min(2 * mMax, mTot ?? Infinity);
+  const fIsco = iscoFrequencyHz(heaviest);
+  if (!(fmin < fIsco)) {
+    throw new InputError(
+      `fminHz ${fmin} Hz must be below the ISCO frequency ${fIsco.toFixed(1)} Hz of the heaviest binary in range (total mass ${heaviest} M_sun)`,
+    );
+  }
+  if (options.fmaxHz !== undefined && !(options.fmaxHz > fmin)) {
+    throw new InputError(`fmaxHz must be above fminHz ${fmin} (got ${options.fmaxHz})`);
+  }
+}
+
+/**
+ * Builds a bank: hexagonal lattice placement (lattice.ts) over the region in chirp-time coordinates,
+ * with the metric of metric.ts for the noise curve and fmin. Templates are sorted by chirp mass, then
+ * by primary mass. Same options → same bank.
+ */
+export function buildBankWithReport(options: BuildBankOptions): { bank: TemplateBank; report: BankPlacementReport } {
+  checkBankOptions(options);
+  const { fminHz, psd, matchFloor } = options;
+  const [mMin, mMax] = options.massRangeSolar;
+  const q = options.maxMassRatio;
+  const region = createMassRegion(
+    { minMassSolar: mMin, maxMassSolar: mMax, maxTotalMassSolar: options.maxTotalMassSolar, maxMassRatio: q },
+    fminHz,
+  );
+  const metric = createChirpTimeMetric({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz });
+  const chart = createPhaseChart({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, region });
+  const placement = placeA2Lattice({ region, metric, chart, minimalMatch: matchFloor, tolerance: options.tolerance });
+  const templates: Template[] = placement.points.map((p) => {
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(p.tau0, p.tau3, fminHz);
+    const e = Math.min(eta, 0.25);
+    const c = componentsFromMassEta(totalMassSolar, e);
+    return { primaryMass: c.m1, secondaryMass: c.m2, chirpMass: chirpMassFromMassEta(totalMassSolar, e), tau0: p.tau0, tau3: p.tau3 };
+  });
+  templates.sort((a, b) => a.chirpMass - b.chirpMass || a.primaryMass - b.primaryMass);
+  const properArea = regionProperArea(region, (t0, t3) => metric.at(t0, t3));
+  const effectiveProperArea = regionProperArea(region, (t0, t3) => effectiveMetric(metric.sample(t0, t3), t0, t3, matchFloor));
+  const cell = hexagonCellArea(matchFloor);
+  const properPerimeter = regionProperPerimeter(region, (t0, t3) => metric.at(t0, t3));
+  const effectivePerimeter = regionProperPerimeter(region, (t0, t3) => effectiveMetric(metric.sample(t0, t3), t0, t3, matchFloor));
+  const bank: TemplateBank = {
+    fminHz,
+    matchFloor,
+    noiseCurve: options.noiseCurve ?? psd.name,
+    massRangeSolar: [mMin, mMax],
+    ...(options.maxTotalMassSolar !== undefined ? { maxTotalMassSolar: options.maxTotalMassSolar } : {}),
+    ...(options.maxMassRatio !== undefined ? { maxMassRatio: options.maxMassRatio } : {}),
+    ...(options.fmaxHz !== undefined ? { fmaxHz: options.fmaxHz } : {}),
+    templates,
+  };
+  return {
+    bank,
+    report: {
+      templateCount: templates.length,
+      patchCount: placement.patches.length,
+      projectedCount: placement.points.filter((p) => p.projected).length,
+      properArea,
+      effectiveProperArea,
+      volumeEstimate: properArea / cell,
+      effectiveVolumeEstimate: effectiveProperArea / cell,
+      properPerimeter,
+      boundaryAwareEstimate: effectiveProperArea / cell + boundaryLayerEstimate(effectivePerimeter, matchFloor),
+    },
+  };
+}
+
+/** Builds a bank (see {@link buildBankWithReport}). */
+export function buildBank(options: BuildBankOptions): TemplateBank {
+  return buildBankWithReport(options).bank;
+}

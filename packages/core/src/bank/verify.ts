@@ -1,0 +1,342 @@
+// Fitting factors of random signals against a bank: how well the bank covers its region.
+import seedrandom from "seedrandom";
+import { InputError } from "../errors.js";
+import type { PsdModel } from "../noise/psdModel.js";
+import { psdModelFromSpec } from "../noise/psdTable.js";
+import { createRealFft } from "../fft/create.js";
+import { createTaylorF2Generator } from "../waveform/taylorf2.js";
+import { taylorT4, type TimeDomainWaveform } from "../waveform/taylorT4.js";
+import { taylorT4Duration } from "../waveform/taylorT4Evolution.js";
+import { createChirpTimeMetric } from "./metric.js";
+import { createMassRegion, type MassRegion } from "./massRegion.js";
+import { createPhaseChart } from "./phaseChart.js";
+import { createPlaneIndex } from "./templateIndex.js";
+import { chooseMatchGrid, createMatchComputer } from "./match.js";
+import { chirpTimesFromComponents, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
+import { metricRatioRange } from "./lattice.js";
+import type { TemplateBank } from "./templateBank.js";
+
+/** The signal model of the draws. */
+export type VerifySignal = "taylorf2" | "pn-time";
+/** How the draws are distributed over the region. */
+export type VerifyDrawSpace = "masses" | "chirp-times";
+
+export interface VerifyOptions {
+  /** Number of random signals (default 1000). */
+  draws?: number;
+  /** "taylorf2" (the bank's own model: coverage) or "pn-time" (TaylorT4 time-domain: what the approximant costs). */
+  signal?: VerifySignal;
+  /** Uniform in component masses (default) or in chirp times (τ0, τ3). */
+  drawSpace?: VerifyDrawSpace;
+  /** Seed of the draws (default "chirpsieve-verify"). */
+  seed?: string | number;
+  /** Noise curve; default psdModelFromSpec(bank.noiseCurve). */
+  psd?: PsdModel;
+  /** Compare every draw with every template instead of its metric neighbours (slow; for checks). */
+  exhaustive?: boolean;
+  /** Span (s) of time offsets the coarse match grid represents (default: see chooseVerifyLagSpan). */
+  lagSpanS?: number;
+  /** Number of worst draws to report (default 5). */
+  worstCount?: number;
+  /** Called after each draw with (done, total). */
+  onProgress?: (done: number, total: number) => void;
+}
+
+/** One draw's outcome. */
+export interface FittingFactorDraw {
+  m1: number;
+  m2: number;
+  fittingFactor: number;
+  /** Index (in bank.templates) of the best template. */
+  bestTemplate: number;
+}
+
+export interface CoverageReport {
+  signal: VerifySignal;
+  drawSpace: VerifyDrawSpace;
+  seed: string;
+  draws: number;
+  templates: number;
+  minimalMatch: number;
+  /** Fraction of draws with fitting factor ≥ the bank's minimal match. */
+  fractionAboveMinimalMatch: number;
+  min: number;
+  /** 1st percentile of the fitting factor. */
+  p01: number;
+  median: number;
+  mean: number;
+  /** ⟨FF³⟩: the fraction of the event rate kept (Owen 1996); 1 − ⟨FF³⟩ is the expected rate loss. */
+  meanCube: number;
+  worst: FittingFactorDraw[];
+  /** Matches computed per draw, on average (the neighbour search's cost). */
+  matchesPerDraw: number;
+  /** Frequency grid of the matches. */
+  grid: { dfHz: number; nBins: number; fftSize: number };
+  wallTimeMs: number;
+}
+
+/**
+ * Span of time offsets for the coarse match grid: 1/df. Between a signal and templates near it,
+ * a·b* / S is smooth in frequency (its Fourier transform is concentrated at their time offsets, tens of
+ * ms), so 1/df can be far below the waveform duration: we take 1/32 of the longest duration, between
+ * 1 s and 16 s (the matches agree with a grid of df = 1/duration to ~1e-4; test/bank/match.test.ts).
+ */
+export function chooseVerifyLagSpan(longestDurationS: number): number {
+  return Math.min(16, Math.max(1, longestDurationS / 32));
+}
+
+/** Uniform draws over the region: in (m1, m2) or in (τ0, τ3), by rejection; seeded. */
+export function drawInRegion(region: MassRegion, count: number, space: VerifyDrawSpace, seed: string | number): { m1: number; m2: number }[] {
+  const rng = seedrandom(String(seed));
+  const { minMassSolar: mMin, maxMassSolar: mMax } = region.limits;
+  const out: { m1: number; m2: number }[] = [];
+  if (space === "masses") {
+    let guard = 0;
+    while (out.length < count) {
+      if (++guard > 1000 * count + 1e6) throw new InputError(`verify: could not draw inside the mass region`);
+      const a = mMin + (mMax - mMin) * rng();
+      const b = mMin + (mMax - mMin) * rng();
+      const m1 = Math.max(a, b);
+      const m2 = Math.min(a, b);
+      if (region.containsMasses(m1, m2)) out.push({ m1, m2 });
+    }
+    return out;
+  }
+  // Chirp times: bounding box of the region from its boundary.
+  let t3lo = Infinity;
+  let t3hi = -Infinity;
+  const note = (m1: number, m2: number): void => {
+    const t = chirpTimesFromComponents(m1, m2, region.fLowHz);
+    t3lo = Math.min(t3lo, t.tau3);
+    t3hi = Math.max(t3hi, t.tau3);
+  };
+  for (const e of region.upperChain) {
+    for (let k = 0; k <= 200; k++) note(e.from[0] + (k / 200) * (e.to[0] - e.from[0]), e.from[1] + (k / 200) * (e.to[1] - e.from[1]));
+  }
+  for (let k = 0; k <= 400; k++) {
+    const m = region.equalMassTotalMin / 2 + (k / 400) * ((region.equalMassTotalMax - region.equalMassTotalMin) / 2);
+    note(m, m);
+  }
+  let guard = 0;
+  while (out.length < count) {
+    if (++guard > 10000 * count + 1e6) throw new InputError(`verify: could not draw inside the chirp-time region`);
+    const t0 = region.tau0Min + (region.tau0Max - region.tau0Min) * rng();
+    const t3 = t3lo + (t3hi - t3lo) * rng();
+    if (!region.contains(t0, t3)) continue;
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(t0, t3, region.fLowHz);
+    const c = componentsFromMassEta(totalMassSolar, Math.min(eta, 0.25));
+    out.push({ m1: c.m1, m2: c.m2 });
+  }
+  return out;
+}
+
+function quantile(sorted: number[], q: number): number {
+  if (sorted.length === 0) return NaN;
+  const x = q * (sorted.length - 1);
+  const i = Math.floor(x);
+  const f = x - i;
+  return i + 1 < sorted.length ? sorted[i] * (1 - f) + sorted[i + 1] * f : sorted[i];
+}
+
+/**
+ * Fitting factors of `draws` random signals against the bank: for each, the largest match over the
+ * bank, maximised over time and phase (match.ts), in the bank's noise curve from its fmin; the
+ * fitting factor and its use as a coverage measure follow Apostolatos, Phys. Rev. D 52, 605 (1995) (from memory) and
+ * Owen, Phys. Rev. D 53, 6749 (1996) (⟨FF³⟩ as the fraction of the event rate kept).
+ *
+ * Each draw is compared with its metric neighbours only: the templates are indexed in the nearly flat
+ * chart of phaseChart.ts; candidates within predicted mismatch d² ≤ 2 (1 − best) + 0.02 (d the metric
+ * distance under the phase metric at the draw, pulled back to the chart) are evaluated nearest first,
+ * and the radius shrinks as the best match grows. The factor 2 and the 0.02 cover the metric's
+ * overestimate of the mismatch at larger distances (the true mismatch stays above ½ d² out to
+ * d² = 0.05; test/reference/bank.test.ts), so a skipped template cannot beat the best one found. `exhaustive` evaluates every template instead.
+ */
+export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): CoverageReport {
+  const started = performance.now();
+  const draws = options.draws ?? 1000;
+  const signal = options.signal ?? "taylorf2";
+  const drawSpace = options.drawSpace ?? "masses";
+  const seed = String(options.seed ?? "chirpsieve-verify");
+  if (!Number.isInteger(draws) || draws < 1) throw new InputError(`draws must be a positive integer (got ${draws})`);
+  if (signal !== "taylorf2" && signal !== "pn-time") throw new InputError(`signal must be "taylorf2" or "pn-time" (got ${JSON.stringify(signal)})`);
+  if (drawSpace !== "masses" && drawSpace !== "chirp-times") {
+    throw new InputError(`draw space must be "masses" or "chirp-times" (got ${JSON.stringify(drawSpace)})`);
+  }
+  if (bank.templates.length === 0) throw new InputError(`verify: the bank has no templates`);
+  const psd = options.psd ?? psdModelFromSpec(bank.noiseCurve);
+  const fmin = bank.fminHz;
+  const fmax = bank.fmaxHz ?? Infinity;
+  const region = createMassRegion(
+    {
+      minMassSolar: bank.massRangeSolar[0],
+      maxMassSolar: bank.massRangeSolar[1],
+      maxTotalMassSolar: bank.maxTotalMassSolar,
+      maxMassRatio: bank.maxMassRatio,
+    },
+    fmin,
+  );
+  const metric = createChirpTimeMetric({ psd, fLowHz: fmin, fHighHz: bank.fmaxHz, pointsPerEFold: 60 });
+  const chart = createPhaseChart({ psd, fLowHz: fmin, fHighHz: bank.fmaxHz, region });
+  const templates = bank.templates;
+  const nT = templates.length;
+  const tx = new Float64Array(nT);
+  const ty = new Float64Array(nT);
+  const tCut = new Float64Array(nT);
+  let longest = 0;
+  let fTop = 0;
+  for (let i = 0; i < nT; i++) {
+    const t = templates[i];
+    const [x0, x1] = chart.toX(t.tau0, t.tau3);
+    tx[i] = x0;
+    ty[i] = x1;
+    tCut[i] = Math.min(iscoFrequencyHz(t.primaryMass + t.secondaryMass), fmax);
+    fTop = Math.max(fTop, tCut[i]);
+    longest = Math.max(longest, t.tau0);
+  }
+  const drawn = drawInRegion(region, draws, drawSpace, seed);
+  for (const d of drawn) {
+    fTop = Math.max(fTop, Math.min(iscoFrequencyHz(d.m1 + d.m2), fmax));
+    longest = Math.max(longest, chirpTimesFromComponents(d.m1, d.m2, fmin).tau0);
+  }
+  const r = Math.sqrt(1 - bank.matchFloor);
+  const index = createPlaneIndex(tx, ty, 2 * r);
+  const lagSpan = options.lagSpanS ?? chooseVerifyLagSpan(longest);
+  const grid = chooseMatchGrid({ fHighHz: fTop, lagSpanS: lagSpan });
+  const mc = createMatchComputer({ ...grid, psd, fLowHz: fmin });
+  const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
+  const sig = new Float64Array(2 * grid.nBins);
+  const tmp = new Float64Array(2 * grid.nBins);
+  const pn = signal === "pn-time" ? createPnTimeSignalMaker(grid, fmin, fTop) : undefined;
+
+  const results: FittingFactorDraw[] = [];
+  let matchCount = 0;
+  const candidates: number[] = [];
+  for (let k = 0; k < drawn.length; k++) {
+    const { m1, m2 } = drawn[k];
+    let sigCut = Infinity;
+    if (pn) pn.make(m1, m2, sig);
+    else {
+      gen.generate(sig, fmin, m1, m2, 1, fmax);
+      sigCut = Math.min(iscoFrequencyHz(m1 + m2), fmax);
+    }
+    const sigNorm = mc.normSquared(sig, sigCut);
+    let best = 0;
+    let bestIdx = -1;
+    const evaluate = (i: number): void => {
+      const t = templates[i];
+      gen.generate(tmp, fmin, t.primaryMass, t.secondaryMass, 1, fmax);
+      const m = mc.match(sig, tmp, sigCut, tCut[i], sigNorm).match;
+      matchCount++;
+      if (m > best) {
+        best = m;
+        bestIdx = i;
+      }
+    };
+    if (options.exhaustive) {
+      for (let i = 0; i < nT; i++) evaluate(i);
+    } else {
+      const ct = chirpTimesFromComponents(m1, m2, fmin);
+      const gx = chart.pullBack(metric.at(ct.tau0, ct.tau3), ct.tau0, ct.tau3);
+      const [px, py] = chart.toX(ct.tau0, ct.tau3);
+      // Chart distance bound: d_metric ≥ sqrt(λmin) d_chart, λmin of g_x against the identity.
+      const [lamMin] = metricRatioRange(gx, { g00: 1, g01: 0, g11: 1 });
+      const seen = new Set<number>();
+      let radius2 = 2 * (1 - bank.matchFloor) + 0.02;
+      for (let round = 0; round < 64; round++) {
+        index.within(px, py, Math.sqrt(radius2 / lamMin), candidates);
+        const ranked = candidates
+          .filter((i) => !seen.has(i))
+          .map((i) => {
+            const d0 = tx[i] - px;
+            const d1 = ty[i] - py;
+            return { i, d2: gx.g00 * d0 * d0 + 2 * gx.g01 * d0 * d1 + gx.g11 * d1 * d1 };
+          })
+          .filter((c) => c.d2 <= radius2)
+          .sort((a, b) => a.d2 - b.d2 || a.i - b.i);
+        for (const c of ranked) {
+          if (c.d2 > 2 * (1 - best) + 0.02) break;
+          seen.add(c.i);
+          evaluate(c.i);
+        }
+        const need = 2 * (1 - best) + 0.02;
+        if (need <= radius2 || seen.size >= nT) break;
+        radius2 = Math.max(need, 2 * radius2);
+      }
+      if (bestIdx < 0) {
+        // No template near at all: fall back to the whole bank.
+        for (let i = 0; i < nT; i++) evaluate(i);
+      }
+    }
+    results.push({ m1, m2, fittingFactor: best, bestTemplate: bestIdx });
+    options.onProgress?.(k + 1, drawn.length);
+  }
+  const ffs = results.map((x) => x.fittingFactor).sort((a, b) => a - b);
+  const mean = ffs.reduce((s, v) => s + v, 0) / ffs.length;
+  const meanCube = ffs.reduce((s, v) => s + v * v * v, 0) / ffs.length;
+  const worstCount = options.worstCount ?? 5;
+  const worst = [...results].sort((a, b) => a.fittingFactor - b.fittingFactor).slice(0, worstCount);
+  return {
+    signal,
+    drawSpace,
+    seed,
+    draws: results.length,
+    templates: nT,
+    minimalMatch: bank.matchFloor,
+    fractionAboveMinimalMatch: results.filter((x) => x.fittingFactor >= bank.matchFloor).length / results.length,
+    min: ffs[0],
+    p01: quantile(ffs, 0.01),
+    median: quantile(ffs, 0.5),
+    mean,
+    meanCube,
+    worst,
+    matchesPerDraw: matchCount / results.length,
+    grid,
+    wallTimeMs: performance.now() - started,
+  };
+}
+
+/**
+ * Spectra of TaylorT4 signals on the coarse match grid: h+ of an optimally oriented source (ι = 0),
+ * from 0.85 fmin (its 4-cycle start taper lies below the band) to the ISCO, sampled at a power of two
+ * ≥ 2.2 × the grid's top frequency, in a series of a power-of-two duration ≥ the signal + 1 s; its real
+ * FFT holds the grid's frequencies as every m-th bin (m = grid spacing × series duration).
+ */
+function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: number, fTop: number): {
+  make(m1: number, m2: number, out: Float64Array): void;
+} {
+  const fs = Math.pow(2, Math.ceil(Math.log2(2.2 * fTop)));
+  return {
+    make(m1, m2, out) {
+      const fStart = 0.85 * fmin;
+      const duration = taylorT4Duration(m1, m2, fStart);
+      const seconds = Math.max(1 / grid.dfHz, Math.pow(2, Math.ceil(Math.log2(duration + 1))));
+      const n = Math.round(seconds * fs);
+      const w: TimeDomainWaveform = taylorT4({
+        massSolar1: m1,
+        massSolar2: m2,
+        distanceMpc: 1,
+        inclination: 0,
+        coalescencePhase: 0,
+        coalescenceTime: seconds - 0.5,
+        sampleRate: fs,
+        fStartHz: fStart,
+      });
+      const series = new Float64Array(n);
+      for (let i = 0; i < w.hPlus.length; i++) {
+        const j = w.startIndex + i;
+        if (j >= 0 && j < n) series[j] = w.hPlus[i];
+      }
+      const fft = createRealFft(n);
+      const spec = new Float64Array(n + 2);
+      fft.forward(series, spec);
+      const step = Math.round(grid.dfHz * seconds);
+      out.fill(0);
+      const dt = 1 / fs;
+      for (let k = 0; k < grid.nBins && k * step <= n / 2; k++) {
+        // Scale by dt so the values approximate the continuous transform (irrelevant to the match).
+        out[2 * k] = spec[2 * k * step] * dt;
+        out[2 * k + 1] = spec[2 * k * step + 1] * dt;
+      }
+    },
+  };
+}

@@ -1,0 +1,65 @@
+import { describe, expect, it } from "vitest";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { ajith2011, buildBank, formatBankFile, parseBankFile, readBankFile, writeBankFile } from "@chirpsieve/core";
+
+const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011, maxMassRatio: 2 });
+bank.generator = { tool: "chirpsieve", version: "0.0.0-test", arguments: ["bank", "--mass-range", "8:20"] };
+
+describe("bank files", () => {
+  it("round-trip exactly through write and read", () => {
+    const dir = mkdtempSync(join(tmpdir(), "chirpsieve-bank-"));
+    const path = join(dir, "bank.json");
+    writeBankFile(path, bank);
+    const back = readBankFile(path);
+    expect(back).toEqual(bank);
+    const json = JSON.parse(readFileSync(path, "utf8"));
+    expect(Object.keys(json)).toEqual(["fmin", "matchFloor", "noiseCurve", "massRange", "maxMassRatio", "generator", "templates"]);
+    expect(Object.keys(json.templates[0])).toEqual(["primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"]);
+  });
+
+  it("name the file and the entry when something is wrong", () => {
+    const text = formatBankFile(bank);
+    const edit = (f: (o: Record<string, any>) => void): string => {
+      const o = JSON.parse(text);
+      f(o);
+      return JSON.stringify(o);
+    };
+    const bad: [string, RegExp][] = [
+      ["{not json", /^b\.json: not valid JSON/],
+      [edit((o) => delete o.fmin), /^b\.json: missing "fmin"/],
+      [edit((o) => (o.matchFloor = 1.2)), /^b\.json: matchFloor must be strictly between 0 and 1/],
+      [edit((o) => (o.massRange = [3, 1])), /^b\.json: massRange minimum 3 must be below the maximum 1/],
+      [edit((o) => (o.templates = [])), /^b\.json: templates is empty/],
+      [edit((o) => (o.templates[2].tau0 *= 1.01)), /^b\.json: templates\[2\]\.tau0 .* does not match the masses/],
+      [edit((o) => (o.templates[1].chirpMass = "1.2")), /^b\.json: templates\[1\]\.chirpMass must be a number \(got "1\.2"\)/],
+      [edit((o) => delete o.templates[0].tau3), /^b\.json: templates\[0\] is missing "tau3"/],
+      [
+        edit((o) => {
+          const t = o.templates[0];
+          [t.primaryMass, t.secondaryMass] = [t.secondaryMass, t.primaryMass];
+        }),
+        /^b\.json: templates\[0\]: secondaryMass .* exceeds primaryMass/,
+      ],
+    ];
+    for (const [content, message] of bad) {
+      let error: Error | undefined;
+      try {
+        parseBankFile(content, "b.json");
+      } catch (e) {
+        error = e as Error;
+      }
+      expect(error?.name).toBe("InputError");
+      expect(error?.message).toMatch(message);
+      expect(error?.message.split("\n")).toHaveLength(1);
+    }
+  });
+
+  it("writes atomically: a failed write leaves no partial file", () => {
+    const dir = mkdtempSync(join(tmpdir(), "chirpsieve-bank-"));
+    writeFileSync(join(dir, "keep.json"), "old");
+    expect(() => writeBankFile(join(dir, "missing-dir", "b.json"), bank)).toThrow();
+    expect(readFileSync(join(dir, "keep.json"), "utf8")).toBe("old");
+  });
+});
