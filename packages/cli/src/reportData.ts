@@ -162,7 +162,8 @@ export function campaignDocument(input: {
 }
 
 function pct(x: number | null): string {
-  return x === null ? "-" : `${(100 * x).toFixed(1)}%`;
+  // Three significant digits: chirp-mass errors are often well below 0.1%.
+  return x === null ? "-" : `${Number((100 * x).toPrecision(3))}%`;
 }
 
 function eff(found: number, total: number, e: number | null, lo: number | null, hi: number | null): string {
