@@ -2,13 +2,16 @@ import { InputError } from "../errors.js";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
 import { chiSquared } from "../filter/chisq.js";
-import { findWindowPeaks, parabolicPeak, type Trigger } from "../filter/peaks.js";
+import { parabolicPeak, type Trigger } from "../filter/peaks.js";
 import { reweightedSnr } from "../filter/reweight.js";
 import { M_SUN } from "../physics/constants.js";
 import { chirpMass } from "../physics/masses.js";
 import { clusterByTime } from "./cluster.js";
-import { nextPowerOfTwo, planSegments, type SegmentPlan } from "./segmentPlan.js";
+import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
+import { segmentPsd } from "./segmentPsd.js";
+import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
+import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
 import type { Candidate, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
 
@@ -29,6 +32,9 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
     throw new InputError(`chi-squared bands must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bins})`);
   }
   if (!(o.clusterWindowSeconds > 0)) throw new InputError(`the cluster window must be positive (got ${o.clusterWindowSeconds})`);
+  if (o.threads !== undefined && !(Number.isInteger(o.threads) && o.threads >= 1)) {
+    throw new InputError(`threads must be a positive integer (got ${o.threads})`);
+  }
 }
 
 /** Chooses the segment plan for a series from the longest template and the inverse-PSD filter length. */
@@ -60,6 +66,32 @@ export function truncationSeconds(o: SearchOptions): number {
   return o.truncationSeconds ?? (o.psd.kind === "estimate" ? o.psd.segmentSeconds : 2);
 }
 
+/** Below this many template-samples (templates × segments × N) the default is one thread. */
+const SMALL_JOB = 2 ** 25;
+
+/**
+ * Threads a search uses: the caller's `threads` (at most one per template), else
+ * defaultSearchThreads() unless the whole job is so small (< 2^25 template-samples, ~0.2 s of
+ * FFTs) that starting workers would cost more than they save.
+ */
+function searchThreads(o: SearchOptions, plan: SegmentPlan): number {
+  const count = o.templates.length;
+  if (o.threads !== undefined) return Math.min(o.threads, count);
+  if (count * plan.segments.length * plan.size < SMALL_JOB) return 1;
+  return Math.min(defaultSearchThreads(), count);
+}
+
+interface PreparedSegment {
+  seg: Segment;
+  /** The segment's samples, zero-padded to the segment length. */
+  data: Float64Array;
+  dataLength: number;
+  /** Index of the first non-finite sample, or −1. */
+  bad: number;
+  /** The segment's PSD when it was estimated ahead. */
+  psd?: Float64Array;
+}
+
 interface RawTrigger extends Trigger {
   time: number;
   sigma: number;
@@ -67,9 +99,12 @@ interface RawTrigger extends Trigger {
 
 /**
  * Runs the matched-filter search of a bank over one strain source, segment by segment, reading
- * only one segment's samples at a time: PSD per segment, one forward FFT of the data, then per
- * template one product and one inverse FFT; windowed peaks above threshold; clustering across the
- * bank and time; the chi-squared discriminator and reweighted SNR for the survivors.
+ * only one segment's samples at a time: PSD per segment, one forward FFT of the data and the
+ * template-independent filter weights, then per template the fast phase product and one inverse
+ * FFT with windowed peaks above threshold (spread over `threads` worker threads that share the
+ * weights); clustering across the bank and time; the chi-squared discriminator and reweighted SNR
+ * for the survivors. Memory is bounded by the segment length and the thread count, not by the
+ * length of the input. The candidates do not depend on the thread count.
  * A candidate is not a detection.
  */
 export async function searchSource(
@@ -82,85 +117,135 @@ export async function searchSource(
   const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "fftjs");
   const plan = chooseSegmentPlan(options, fs, source.length);
   const n = plan.size;
-  const nBins = n / 2 + 1;
-  const df = fs / n;
   const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);
   const templates = options.templates;
+  const threads = searchThreads(options, plan);
   const window = Math.max(1, Math.round(options.clusterWindowSeconds * fs));
-  const sigmas = new Float64Array(templates.length);
   const truncSamples = Math.round(truncationSeconds(options) * fs);
-  const filter = createSegmentFilter({ size: n, sampleRate: fs, fMinHz: options.fMinHz, fMaxHz: fMax, psd: options.psd, truncationSamples: truncSamples, backend });
-  const segmentData = new Float64Array(n);
+  const filter = createSegmentFilter({
+    size: n,
+    sampleRate: fs,
+    fMinHz: options.fMinHz,
+    fMaxHz: fMax,
+    psd: options.psd,
+    truncationSamples: truncSamples,
+    backend,
+    shared: threads > 1,
+  });
+  const config: BankFilterConfig = { size: n, sampleRate: fs, fMinHz: options.fMinHz, fMaxHz: fMax, backend };
+  const masses = new Float64Array(2 * templates.length);
+  templates.forEach((t, i) => {
+    masses[2 * i] = t.primaryMass;
+    masses[2 * i + 1] = t.secondaryMass;
+  });
+  // One thread filters on this thread; more start workers now, while the first segment is read.
+  const inline = threads === 1 ? createBankFilter(config) : undefined;
+  const poolStart: Promise<SearchPool> | undefined = threads > 1 ? createSearchPool(threads, config, filter.weights, masses) : undefined;
+  poolStart?.catch(() => {}); // awaited below; this only keeps an early failure from going unhandled
+  let pool: SearchPool | undefined;
+  const inlineSigmas = new Float64Array(templates.length);
+  const buffers = [new Float64Array(n), new Float64Array(n)];
   const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMass, t.secondaryMass, options.fMinHz));
+
+  /** Reads segment i into buffers[i % 2]; with `withPsd`, also its PSD (done while workers filter the previous one). */
+  const prepare = async (i: number, withPsd: boolean): Promise<PreparedSegment> => {
+    const seg = plan.segments[i];
+    const data = buffers[i % 2];
+    const raw = await source.read(seg.start, Math.min(seg.dataLength, source.length - seg.start));
+    data.fill(0);
+    data.set(raw);
+    let bad = -1;
+    for (let j = 0; j < raw.length; j++) {
+      if (!Number.isFinite(raw[j])) {
+        bad = j;
+        break;
+      }
+    }
+    if (bad >= 0 && !options.skipNonFinite) throw new InputError(`${source.file}: non-finite sample at index ${seg.start + bad}`);
+    const psd = withPsd && bad < 0 ? segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples) : undefined;
+    return { seg, data, dataLength: raw.length, bad, psd };
+  };
 
   const all: Candidate[] = [];
   const skipped: SkippedStretch[] = [];
   let analysed = 0;
   let skippedSamples = 0;
   let done = 0;
-  for (const seg of plan.segments) {
-    const raw = await source.read(seg.start, Math.min(seg.dataLength, source.length - seg.start));
-    segmentData.fill(0);
-    segmentData.set(raw);
-    let bad = -1;
-    for (let i = 0; i < raw.length; i++) {
-      if (!Number.isFinite(raw[i])) {
-        bad = i;
-        break;
+  const total = plan.segments.length;
+  try {
+    let next: Promise<PreparedSegment> | undefined = total > 0 ? prepare(0, false) : undefined;
+    for (let segIndex = 0; segIndex < total; segIndex++) {
+      const cur = await next!;
+      next = undefined;
+      const seg = cur.seg;
+      const searchSamples = seg.searchEnd - seg.searchStart;
+      const hasNext = segIndex + 1 < total;
+      if (cur.bad >= 0) {
+        skipped.push({
+          startTime: source.startTime + seg.searchStart / fs,
+          endTime: source.startTime + seg.searchEnd / fs,
+          reason: `non-finite sample at t = ${(source.startTime + (seg.start + cur.bad) / fs).toFixed(4)} s`,
+        });
+        skippedSamples += searchSamples;
+        options.onProgress?.(++done, total);
+        if (hasNext) next = prepare(segIndex + 1, false);
+        continue;
       }
-    }
-    const searchSamples = seg.searchEnd - seg.searchStart;
-    if (bad >= 0) {
-      if (!options.skipNonFinite) {
-        throw new InputError(`${source.file}: non-finite sample at index ${seg.start + bad}`);
+      const spec = filter.load(cur.data, cur.dataLength, cur.psd);
+      const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
+      let triggers: Trigger[];
+      let sigmas: Float64Array;
+      if (inline) {
+        triggers = [];
+        inline.scan(filter.weights, masses, 0, templates.length, peaks, inlineSigmas, triggers);
+        sigmas = inlineSigmas;
+      } else {
+        pool ??= await poolStart!;
+        // The workers filter this segment while this thread reads the next one and estimates its
+        // PSD (into the other buffer); the loaded spectrum and weights stay untouched until then.
+        const running = pool.run(segIndex, filter.weights, peaks);
+        running.catch(() => {}); // awaited just below
+        if (hasNext) {
+          next = prepare(segIndex + 1, true);
+          next.catch(() => {}); // awaited at the top of the next iteration
+        }
+        triggers = await running;
+        sigmas = pool.sigmas;
       }
-      skipped.push({
-        startTime: source.startTime + seg.searchStart / fs,
-        endTime: source.startTime + seg.searchEnd / fs,
-        reason: `non-finite sample at t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s`,
+      analysed += searchSamples;
+      const segStartTime = source.startTime + seg.start / fs;
+      const timed: RawTrigger[] = triggers.map((tr) => {
+        const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
+        return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
       });
-      skippedSamples += searchSamples;
-      options.onProgress?.(++done, plan.segments.length);
-      continue;
+      for (const tr of clusterByTime(timed, options.clusterWindowSeconds)) {
+        const t = templates[tr.templateIndex];
+        const kEnd = filter.generate(t);
+        const { chi2, dof } = options.chi2Bins >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bins) : { chi2: 0, dof: 0 };
+        const peak = parabolicPeak(tr.before, tr.snr, tr.after);
+        all.push({
+          coalescenceTime: tr.time,
+          snr: peak.value,
+          phase: Math.atan2(tr.im, tr.re),
+          chi2,
+          chi2Dof: dof,
+          reweightedSnr: reweightedSnr(peak.value, chi2, dof),
+          primaryMass: t.primaryMass,
+          secondaryMass: t.secondaryMass,
+          chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
+          effectiveDistanceMpc: tr.sigma / peak.value,
+          templateIndex: tr.templateIndex,
+          file: source.file,
+        });
+      }
+      options.onProgress?.(++done, total);
+      if (hasNext && next === undefined) next = prepare(segIndex + 1, false);
     }
-    const spec = filter.load(segmentData, raw.length);
-    const triggers: Trigger[] = [];
-    const a = seg.searchStart - seg.start;
-    const b = seg.searchEnd - seg.start;
-    for (let ti = 0; ti < templates.length; ti++) {
-      const { sigma } = filter.filter(templates[ti]);
-      sigmas[ti] = sigma;
-      if (sigma > 0) findWindowPeaks(filter.snr, a, b, options.snrThreshold, window, ti, triggers);
-    }
-    analysed += searchSamples;
-    const segStartTime = source.startTime + seg.start / fs;
-    const timed: RawTrigger[] = triggers.map((tr) => {
-      const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
-      return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
-    });
-    for (const tr of clusterByTime(timed, options.clusterWindowSeconds)) {
-      const t = templates[tr.templateIndex];
-      const kEnd = filter.generate(t);
-      const { chi2, dof } = options.chi2Bins >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bins) : { chi2: 0, dof: 0 };
-      const peak = parabolicPeak(tr.before, tr.snr, tr.after);
-      all.push({
-        coalescenceTime: tr.time,
-        snr: peak.value,
-        phase: Math.atan2(tr.im, tr.re),
-        chi2,
-        chi2Dof: dof,
-        reweightedSnr: reweightedSnr(peak.value, chi2, dof),
-        primaryMass: t.primaryMass,
-        secondaryMass: t.secondaryMass,
-        chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
-        effectiveDistanceMpc: tr.sigma / peak.value,
-        templateIndex: tr.templateIndex,
-        file: source.file,
-      });
-    }
-    options.onProgress?.(++done, plan.segments.length);
+  } finally {
+    inline?.dispose();
+    filter.dispose();
+    if (poolStart) await (pool ?? (await poolStart.catch(() => undefined)))?.close();
   }
-  filter.dispose();
   const candidates = clusterByTime(
     all.map((c) => ({ ...c, time: c.coalescenceTime })),
     options.clusterWindowSeconds,
@@ -176,7 +261,8 @@ export async function searchSource(
       analysedSeconds: analysed / fs,
       skippedSeconds: skippedSamples / fs,
       skipped,
-      fftBackend: filter.backend,
+      fftBackend: backend,
+      threads,
       wallSeconds: (performance.now() - wallStart) / 1000,
     },
   };

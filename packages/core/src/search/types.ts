@@ -1,4 +1,4 @@
-import type { FftBackendName } from "../fft/types.js";
+import type { FftBackendChoice, FftBackendName } from "../fft/types.js";
 import type { PsdModel } from "../noise/psdModel.js";
 
 /**
@@ -42,9 +42,17 @@ export interface SearchOptions {
   readonly truncationSeconds?: number;
   /** Segment length (s), rounded up to a power of two samples; default chosen from the longest template. */
   readonly segmentSeconds?: number;
-  readonly fftBackend?: FftBackendName;
+  /** FFT backend: "auto" (the fastest available), "pffft" or "fftjs" (default "fftjs"; call loadFftBackends() first for pffft). */
+  readonly fftBackend?: FftBackendChoice;
   /** Skip (and report) segments holding non-finite samples instead of failing. */
   readonly skipNonFinite?: boolean;
+  /**
+   * Worker threads that filter the bank (≥ 1; 1 filters on the calling thread). Default
+   * os.availableParallelism() when the library runs compiled (1 when it runs as TypeScript source,
+   * or when the job is too small to gain: templates × segments × segment samples < 2^25).
+   * The candidates do not depend on it.
+   */
+  readonly threads?: number;
   /** Called after each segment with (segments done, segments in all). */
   readonly onProgress?: (done: number, total: number) => void;
 }
@@ -86,5 +94,7 @@ export interface SearchSummary {
   skippedSeconds: number;
   skipped: SkippedStretch[];
   fftBackend: FftBackendName;
+  /** Threads that filtered the bank. */
+  threads: number;
   wallSeconds: number;
 }

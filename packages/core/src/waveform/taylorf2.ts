@@ -43,6 +43,58 @@ function amplitudePrefactor(m1Solar: number, m2Solar: number, distanceMpc: numbe
 }
 
 /**
+ * TaylorF2 amplitude prefactor A (s) of an optimally oriented (face-on, overhead) source at
+ * `distanceMpc` (default 1 Mpc): |h̃(f)| = A f^{−7/6}, A = sqrt(5/24) π^{−2/3} (c / D) (G Mc / c³)^{5/6}
+ * (Sathyaprakash & Schutz, Living Rev. Relativ. 12, 2 (2009)). The same A as {@link taylorF2Into}.
+ */
+export function taylorF2Amplitude(m1Solar: number, m2Solar: number, distanceMpc = 1): number {
+  requireMasses("taylorF2Amplitude", m1Solar, m2Solar);
+  requirePositiveFinite("taylorF2Amplitude", "distanceMpc", distanceMpc);
+  return amplitudePrefactor(m1Solar, m2Solar, distanceMpc);
+}
+
+/**
+ * Writes the TaylorF2 phase as a series in the frequency itself (Hz), for evaluation without
+ * computing v per frequency: with μ = (π G M / c³)^{1/3}, v = μ f^{1/3} and ln v = ln μ + (ln f)/3,
+ * the phase of {@link taylorF2Phase} (t_c = 0, φ_c = 0) is
+ *   Ψ(f) = −π/4 + f^{−5/3} Σ_{k=0}^{7} (c_k + d_k ln f) f^{k/3},
+ *   c_k = (3/(128η)) μ^{k−5} (a_k + b_k ln μ),  d_k = (3/(128η)) μ^{k−5} b_k / 3,
+ * the same series rearranged (Blanchet, Living Rev. Relativ. 17, 2 (2014); Buonanno et al.,
+ * Phys. Rev. D 80, 084043 (2009), Sec. III). Only d_5 and d_6 are non-zero. `c` and `d` need
+ * length ≥ 8. No allocation; checks the masses, the PN order and the arrays.
+ */
+export function taylorF2FrequencySeriesInto(
+  m1Solar: number,
+  m2Solar: number,
+  pnOrder: number,
+  c: Float64Array,
+  d: Float64Array,
+): void {
+  const where = "taylorF2FrequencySeriesInto";
+  requireMasses(where, m1Solar, m2Solar);
+  checkPnOrder(where, pnOrder);
+  if (!(c instanceof Float64Array) || c.length < 8 || !(d instanceof Float64Array) || d.length < 8) {
+    throw new InputError(`${where}: c and d must be Float64Arrays of length ≥ 8`);
+  }
+  frequencySeries(m1Solar, m2Solar, pnOrder, c, d);
+}
+
+function frequencySeries(m1Solar: number, m2Solar: number, pnOrder: number, c: Float64Array, d: Float64Array): void {
+  const mTotal = m1Solar + m2Solar;
+  const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
+  taylorF2PhaseCoefficientsInto(eta, pnOrder, scratchA, scratchB);
+  const mu = Math.cbrt(Math.PI * mTotal * T_SUN);
+  const lnMu = Math.log(mu);
+  const pre = 3 / (128 * eta);
+  let muPow = 1 / (mu * mu * mu * mu * mu); // μ^{k−5} at k = 0
+  for (let k = 0; k < 8; k++) {
+    c[k] = pre * muPow * (scratchA[k] + scratchB[k] * lnMu);
+    d[k] = (pre * muPow * scratchB[k]) / 3;
+    muPow *= mu;
+  }
+}
+
+/**
  * The bins k with fLowHz ≤ k·dfHz ≤ min(f_isco(M), fHighHz), k ≥ 1, clipped to 0..nBins−1:
  * returns {kStart, kEnd} (kEnd one past the last); {0, 0} when the band holds no bin.
  * f_isco = c³ / (6^{3/2} π G M) (Schwarzschild ISCO of the total mass; physics/isco.ts).
@@ -200,11 +252,9 @@ export interface TaylorF2Generator {
 
 /**
  * Precomputes, once per grid, f^{1/3}, f^{−5/3}, ln f and f^{−7/6} per bin, so a template costs a
- * Horner sum, a cos and a sin per bin. With μ = (π G M / c³)^{1/3}, v = μ f^{1/3} and
- * ln v = ln μ + (ln f)/3, the phase of {@link taylorF2Phase} becomes
- *   Ψ(f) = −π/4 + f^{−5/3} Σ_k (c_k + d_k ln f) f^{k/3},
- *   c_k = (3/(128η)) μ^{k−5} (a_k + b_k ln μ),  d_k = (3/(128η)) μ^{k−5} b_k / 3,
- * the same series rearranged (Blanchet 2014; Buonanno et al. 2009, Sec. III).
+ * Horner sum, a cos and a sin per bin, with the phase written as the series in f of
+ * {@link taylorF2FrequencySeriesInto} (Blanchet 2014; Buonanno et al. 2009, Sec. III). Exact to
+ * rounding; the search's faster, approximate phase path is search/taylorF2Phasor.ts.
  * Memory: 4 Float64Arrays of nBins.
  */
 export function createTaylorF2Generator(
@@ -230,8 +280,6 @@ export function createTaylorF2Generator(
     logF[k] = Math.log(f);
     fMinus76[k] = Math.pow(f, -7 / 6);
   }
-  const a = new Float64Array(8);
-  const b = new Float64Array(8);
   const c = new Float64Array(8);
   const d = new Float64Array(8);
   const quarterPi = Math.PI / 4;
@@ -246,18 +294,7 @@ export function createTaylorF2Generator(
       out.fill(0, 0, 2 * kStart);
       out.fill(0, 2 * kEnd, 2 * nBins);
       if (kEnd === 0) return 0;
-      const mTotal = m1Solar + m2Solar;
-      const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
-      taylorF2PhaseCoefficientsInto(eta, pnOrder, a, b);
-      const mu = Math.cbrt(Math.PI * mTotal * T_SUN);
-      const lnMu = Math.log(mu);
-      const pre = 3 / (128 * eta);
-      let muPow = 1 / (mu * mu * mu * mu * mu); // μ^{k−5} at k = 0
-      for (let k = 0; k < 8; k++) {
-        c[k] = pre * muPow * (a[k] + b[k] * lnMu);
-        d[k] = (pre * muPow * b[k]) / 3;
-        muPow *= mu;
-      }
+      frequencySeries(m1Solar, m2Solar, pnOrder, c, d);
       const c0 = c[0], c1 = c[1], c2 = c[2], c3 = c[3], c4 = c[4], c5 = c[5], c6 = c[6], c7 = c[7];
       const d5 = d[5], d6 = d[6];
       const amp = amplitudePrefactor(m1Solar, m2Solar, distanceMpc);

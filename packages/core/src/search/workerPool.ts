@@ -1,0 +1,170 @@
+import { existsSync } from "node:fs";
+import { availableParallelism } from "node:os";
+import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
+import { InputError } from "../errors.js";
+import type { FftBackendName } from "../fft/types.js";
+import type { Trigger } from "../filter/peaks.js";
+import type { BankFilterConfig, PeakWindow } from "./bankFilter.js";
+import type { SegmentWeights } from "./segmentWeights.js";
+
+/** What each worker receives once (structured-cloned; the SharedArrayBuffers are shared, not copied). */
+export interface WorkerInit {
+  config: BankFilterConfig;
+  /** The segment's filter weights u and C (see SegmentWeights). */
+  u: SharedArrayBuffer;
+  cumulative: SharedArrayBuffer;
+  /** Template masses (m1, m2 pairs, solar masses). */
+  masses: Float64Array;
+  /** σ per template, written by whichever worker filters it. */
+  sigmas: SharedArrayBuffer;
+  /** Next unclaimed template index (Int32), advanced with Atomics.add. */
+  counter: SharedArrayBuffer;
+}
+
+/** One segment's job: the band of the weights just loaded, and where to look for peaks. */
+export interface WorkerJob {
+  segment: number;
+  kLow: number;
+  kHigh: number;
+  scale: number;
+  /** Templates claimed per Atomics.add. */
+  chunk: number;
+  /** Templates [from, to) of the bank to filter (the counter starts at `from`). */
+  from: number;
+  to: number;
+  peaks: PeakWindow;
+}
+
+export type WorkerReply =
+  | { kind: "ready"; backend: FftBackendName }
+  | { kind: "done"; segment: number; triggers: Trigger[] }
+  | { kind: "error"; message: string; inputError: boolean };
+
+/**
+ * The compiled worker script, dist/search/searchWorker.js: next to this module when it runs
+ * compiled, or the package's dist when it runs as TypeScript source (tests; build it first with
+ * `npx tsc -b packages/core`).
+ */
+export function searchWorkerUrl(): URL {
+  const here = import.meta.url;
+  return here.endsWith(".js") ? new URL("./searchWorker.js", here) : new URL("../../dist/search/searchWorker.js", here);
+}
+
+/**
+ * Default thread count of a search: os.availableParallelism() when this module runs compiled
+ * (the worker script is its sibling), else 1 (TypeScript source, where workers would run the
+ * separately built dist; ask for threads explicitly there).
+ */
+export function defaultSearchThreads(): number {
+  return import.meta.url.endsWith(".js") ? availableParallelism() : 1;
+}
+
+/** Worker threads that filter a bank over one segment at a time (see searchSource). */
+export interface SearchPool {
+  readonly threads: number;
+  readonly backend: FftBackendName;
+  /** σ (at 1 Mpc) per template of the last segment run. */
+  readonly sigmas: Float64Array;
+  /**
+   * Filters templates [from, to) (default the whole bank) against `weights` (already loaded by
+   * the caller, who must not touch them until this resolves), writes their σ into `sigmas` and
+   * returns the peaks, ordered by template then sample index: the order one thread produces.
+   */
+  run(segment: number, weights: SegmentWeights, peaks: PeakWindow, from?: number, to?: number): Promise<Trigger[]>;
+  close(): Promise<void>;
+}
+
+/**
+ * Starts `threads` workers sharing `weights` (whose arrays must live in SharedArrayBuffers) and
+ * resolves when each has loaded its FFT backend and made its plan. Templates are handed out in
+ * chunks through a shared atomic counter, so the load balances itself; memory per worker is one
+ * complex plan of the segment length.
+ */
+export async function createSearchPool(
+  threads: number,
+  config: BankFilterConfig,
+  weights: SegmentWeights,
+  masses: Float64Array,
+): Promise<SearchPool> {
+  const url = searchWorkerUrl();
+  const path = fileURLToPath(url);
+  if (!existsSync(path)) {
+    throw new InputError(`threads: the compiled search worker ${path} is missing; build it with \`npx tsc -b packages/core\` or use threads = 1`);
+  }
+  if (!(weights.u.buffer instanceof SharedArrayBuffer) || !(weights.cumulative.buffer instanceof SharedArrayBuffer)) {
+    throw new Error("createSearchPool: the segment weights must live in SharedArrayBuffers");
+  }
+  const count = masses.length / 2;
+  const sigmaBuffer = new SharedArrayBuffer(8 * count);
+  const counterBuffer = new SharedArrayBuffer(4);
+  const counter = new Int32Array(counterBuffer);
+  const init: WorkerInit = {
+    config,
+    u: weights.u.buffer,
+    cumulative: weights.cumulative.buffer,
+    masses,
+    sigmas: sigmaBuffer,
+    counter: counterBuffer,
+  };
+  const workers: Worker[] = [];
+  const pending: ({ resolve: (m: WorkerReply) => void; reject: (e: Error) => void } | undefined)[] = [];
+  let closing = false;
+  const nextReply = (i: number): Promise<WorkerReply> =>
+    new Promise((resolve, reject) => {
+      pending[i] = { resolve, reject };
+    }).then((m) => {
+      const reply = m as WorkerReply;
+      if (reply.kind === "error") throw reply.inputError ? new InputError(reply.message) : new Error(`search worker: ${reply.message}`);
+      return reply;
+    });
+  const settle = (i: number): { resolve: (m: WorkerReply) => void; reject: (e: Error) => void } | undefined => {
+    const p = pending[i];
+    pending[i] = undefined;
+    return p;
+  };
+  const replies: Promise<WorkerReply>[] = [];
+  for (let i = 0; i < threads; i++) {
+    const worker = new Worker(url, { workerData: init });
+    workers.push(worker);
+    replies.push(nextReply(i));
+    worker.on("message", (m: WorkerReply) => settle(i)?.resolve(m));
+    worker.on("error", (e: Error) => settle(i)?.reject(e));
+    worker.on("exit", (code) => {
+      if (!closing) settle(i)?.reject(new Error(`search worker ${i} exited early (code ${code})`));
+    });
+  }
+  const close = async (): Promise<void> => {
+    closing = true;
+    await Promise.all(workers.map((w) => w.terminate()));
+  };
+  let backend: FftBackendName = config.backend;
+  try {
+    for (const r of await Promise.all(replies)) if (r.kind === "ready") backend = r.backend;
+  } catch (error) {
+    await close();
+    throw error;
+  }
+  const sigmas = new Float64Array(sigmaBuffer);
+  // Small enough chunks that the threads finish a segment together, large enough to be few.
+  const chunk = Math.max(1, Math.floor(count / (16 * threads)));
+  return {
+    threads,
+    backend,
+    sigmas,
+    async run(segment, w, peaks, from = 0, to = count) {
+      Atomics.store(counter, 0, from);
+      const job: WorkerJob = { segment, kLow: w.kLow, kHigh: w.kHigh, scale: w.scale, chunk, from, to, peaks };
+      const done: Promise<WorkerReply>[] = [];
+      for (let i = 0; i < threads; i++) {
+        done.push(nextReply(i));
+        workers[i].postMessage(job);
+      }
+      const triggers: Trigger[] = [];
+      for (const r of await Promise.all(done)) if (r.kind === "done") for (const t of r.triggers) triggers.push(t);
+      triggers.sort((a, b) => a.templateIndex - b.templateIndex || a.index - b.index);
+      return triggers;
+    },
+    close,
+  };
+}

@@ -1,0 +1,119 @@
+// Worker threads give the same candidates as one thread. The workers run the compiled
+// packages/core/dist/search/searchWorker.js, so the core is built first (tsc -b; the search's
+// own files must compile, errors elsewhere in the workspace do not stop tsc from emitting).
+import { spawnSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { beforeAll, describe, expect, it } from "vitest";
+import {
+  ajith2011,
+  arraySource,
+  createBankFilter,
+  createSearchPool,
+  createSegmentFilter,
+  loadFftBackends,
+  searchSource,
+  searchWorkerUrl,
+  type Candidate,
+  type SearchOptions,
+  type Trigger,
+} from "@chirpsieve/core";
+import { atSnr, chirpMassGrid, injectionAt, simulatedData } from "../search/fixtures.js";
+
+const FS = 2048;
+const FMIN = 30;
+const root = fileURLToPath(new URL("../..", import.meta.url));
+
+beforeAll(async () => {
+  spawnSync("npx", ["tsc", "-b", "packages/core"], { cwd: root, stdio: "ignore" });
+  expect(existsSync(fileURLToPath(searchWorkerUrl()))).toBe(true);
+  await loadFftBackends();
+});
+
+function expectSameCandidates(a: Candidate[], b: Candidate[]): void {
+  expect(b.length).toBe(a.length);
+  for (let i = 0; i < a.length; i++) {
+    expect(b[i].templateIndex).toBe(a[i].templateIndex);
+    expect(b[i].coalescenceTime).toBe(a[i].coalescenceTime);
+    expect(Math.abs(b[i].snr - a[i].snr)).toBeLessThan(1e-4 * a[i].snr);
+    expect(Math.abs(b[i].chi2 - a[i].chi2)).toBeLessThan(1e-4 * Math.max(1, a[i].chi2));
+    expect(b[i].effectiveDistanceMpc).toBeCloseTo(a[i].effectiveDistanceMpc, 6);
+  }
+}
+
+describe("multi-threaded search (worker_threads sharing the segment's weights)", () => {
+  for (const [fftBackend, counts] of [["pffft", [2, 3]], ["fftjs", [2]]] as const) {
+    it(`gives the same candidates with 1 and ${counts.join(" and ")} threads over several segments (${fftBackend})`, async () => {
+      const injections = [
+        atSnr(injectionAt(1.6, 1.3, 70.25), 14, ajith2011, FS, FMIN),
+        atSnr(injectionAt(2.4, 1.2, 150.5, { phase: 1.9 }), 20, ajith2011, FS, FMIN),
+      ];
+      const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 200, seed: "threads", fMin: FMIN, injections });
+      const options: SearchOptions = {
+        // fft.js is ~6× slower: a quarter of the grid keeps this test short.
+        templates: chirpMassGrid(1.1, 1.6, 0.01, [1, 0.5]).filter((_, i) => fftBackend === "pffft" || i % 4 === 0),
+        fMinHz: FMIN,
+        snrThreshold: 5.5,
+        chi2Bins: 16,
+        clusterWindowSeconds: 1,
+        psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
+        segmentSeconds: 128,
+        fftBackend,
+      };
+      const one = await searchSource(arraySource(data, FS), { ...options, threads: 1 });
+      expect(one.summary.threads).toBe(1);
+      expect(one.summary.segments).toBeGreaterThan(1);
+      if (fftBackend === "pffft") expect(one.candidates.filter((c) => c.snr > 9)).toHaveLength(2);
+      for (const threads of counts) {
+        const many = await searchSource(arraySource(data, FS), { ...options, threads });
+        expect(many.summary.threads).toBe(threads);
+        expectSameCandidates(one.candidates, many.candidates);
+      }
+      console.log(`${fftBackend}: ${one.candidates.length} candidates in ${one.summary.segments} segments, ${options.templates.length} templates; identical with ${counts.join(" and ")} threads`);
+    });
+  }
+
+  it("filters a template range [from, to) in the workers exactly as one thread does (same peaks, same σ)", async () => {
+    const n = 1 << 17;
+    const data = simulatedData({ psd: ajith2011, fs: FS, seconds: n / FS, seed: "threads-range", fMin: FMIN });
+    const filter = createSegmentFilter({
+      size: n, sampleRate: FS, fMinHz: FMIN, fMaxHz: 0.95 * (FS / 2),
+      psd: { kind: "model", model: ajith2011 }, truncationSamples: 2 * FS, backend: "pffft", shared: true,
+    });
+    filter.load(data, n);
+    const bank = chirpMassGrid(2, 6, 0.06, [1, 0.6]);
+    const masses = new Float64Array(bank.flatMap((t) => [t.primaryMass, t.secondaryMass]));
+    const config = { size: n, sampleRate: FS, fMinHz: FMIN, fMaxHz: 0.95 * (FS / 2), backend: "pffft" as const };
+    const peaks = { start: 8 * FS, end: n - 2 * FS, threshold: 3.5, window: FS / 4 };
+    const from = 5, to = bank.length - 3;
+    const one: Trigger[] = [];
+    const sigmas = new Float64Array(bank.length);
+    createBankFilter(config).scan(filter.weights, masses, from, to, peaks, sigmas, one);
+    const pool = await createSearchPool(2, config, filter.weights, masses);
+    try {
+      const many = await pool.run(0, filter.weights, peaks, from, to);
+      expect(one.length).toBeGreaterThan(20);
+      expect(many).toEqual(one);
+      expect(Array.from(pool.sigmas.subarray(from, to))).toEqual(Array.from(sigmas.subarray(from, to)));
+      expect(pool.sigmas[from - 1]).toBe(0);
+      expect(pool.sigmas[to]).toBe(0);
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it("rejects a thread count that is not a positive integer", async () => {
+    const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 64, seed: "threads-bad", fMin: FMIN });
+    const options: SearchOptions = {
+      templates: [{ primaryMass: 10, secondaryMass: 8 }],
+      fMinHz: FMIN,
+      snrThreshold: 6,
+      chi2Bins: 0,
+      clusterWindowSeconds: 1,
+      psd: { kind: "model", model: ajith2011 },
+    };
+    for (const threads of [0, 1.5, -2, NaN]) {
+      await expect(searchSource(arraySource(data, FS), { ...options, threads })).rejects.toThrow(/threads must be a positive integer/);
+    }
+  });
+});
