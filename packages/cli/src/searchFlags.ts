@@ -25,6 +25,7 @@ export interface SearchFlags {
   psdAverage: string;
   segment?: string;
   fft: string;
+  threads?: string;
 }
 
 /** Adds the shared search flags to a command (`--fmin` default differs between commands). */
@@ -39,7 +40,8 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
     .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
     .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
     .option("--psd-average <kind>", "Welch average: median or mean", "median")
-    .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto");
+    .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
+    .option("--threads <n>", "worker threads filtering the bank (default: the number of cores; small jobs use 1)");
 }
 
 /** The shared flags, parsed and checked; every error names its flag. */
@@ -52,6 +54,7 @@ export interface ParsedSearchFlags {
   psdAverage: "median" | "mean";
   segmentSeconds: number | undefined;
   fftChoice: FftBackendChoice;
+  threads: number | undefined;
 }
 
 export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
@@ -66,6 +69,7 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
     psdAverage: parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const),
     segmentSeconds: flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true }),
     fftChoice: parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const),
+    threads: flags.threads === undefined ? undefined : parseNumberFlag("--threads", flags.threads, { min: 1, max: 1024, integer: true }),
   };
 }
 

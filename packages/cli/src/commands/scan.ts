@@ -18,6 +18,9 @@ import {
   type Candidate,
   type PsdSource,
   type SearchSummary,
+  journalPathFor,
+  parseShardSpec,
+  startScanRun,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
@@ -32,8 +35,12 @@ import {
   formatCoincidencesTable,
 } from "../candidateFormat.js";
 import { writeScanPlots } from "../scanPlots.js";
+import { VERSION } from "../version.js";
 
 interface ScanFlags extends SearchFlags {
+  shard?: string;
+  shardBy: string;
+  resume?: boolean;
   massRange?: string;
   out?: string;
   format?: string;
@@ -81,6 +88,9 @@ export function registerScan(program: Command): void {
     .option("--timing-tolerance <s>", "added to the light-travel time between sites for a coincidence", "0.005")
     .option("--slide-step <s>", "time-slide step for the background", "7")
     .option("--slides <n>", "time slides on each side of zero (capped by the data length)", "100")
+    .option("--shard <I/N>", "scan only piece I of N (0-based) and write it for `chirpsieve merge`; auto/N takes I from SLURM_ARRAY_TASK_ID or JOB_COMPLETION_INDEX")
+    .option("--shard-by <how>", "split the work by templates, time or both", "both")
+    .option("--resume", "keep a journal beside --out and continue a killed scan rerun with the same arguments")
     .option("--quiet", "no progress bar")
     .action(async (files: string[], flags: ScanFlags) => {
       await runScan(files, flags);
@@ -99,12 +109,15 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice } = parseSearchFlags(flags);
+  const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
   const format = chooseFormat(flags);
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
   if (!flags.bank && !flags.massRange) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
+  const shard = flags.shard === undefined ? undefined : parseShardSpec(flags.shard, flags.shardBy, process.env);
+  if ((shard || flags.resume) && !flags.out) throw new UsageError(`${shard ? "--shard" : "--resume"}: needs --out (its records and journal are kept beside it)`);
+  if (shard && network.length > 0) throw new UsageError("--shard: not available with --site (coincidences need every site's whole scan)");
 
   const psd: PsdSource = flags.noiseCurve
     ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
@@ -119,6 +132,14 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
   for (const f of files) {
     sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }));
   }
+  const searchOptions = { templates, fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psd, segmentSeconds, fftBackend, skipNonFinite: !!flags.skipBadData };
+  const run = shard || flags.resume
+    ? await startScanRun({
+        version: VERSION, inputs: sources, options: searchOptions, shard,
+        journalPath: flags.resume ? journalPathFor(flags.out!) : undefined,
+        arguments: { bank: bankDescription, rate, start, dataset: flags.dataset },
+      })
+    : undefined;
   const progress = createProgress(!flags.quiet, "scan");
   const candidates: Candidate[] = [];
   const summaries: SearchSummary[] = [];
@@ -126,16 +147,10 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
   try {
     for (const [i, source] of sources.entries()) {
       const r = await searchSource(source, {
-        templates,
-        fMinHz,
-        snrThreshold,
-        chi2Bins,
-        clusterWindowSeconds,
-        psd,
-        segmentSeconds,
-        fftBackend,
-        skipNonFinite: !!flags.skipBadData,
+        ...searchOptions,
+        threads, // not part of the run id: results do not depend on it
         onProgress: (done, total) => progress.update(i, sources.length, done, total),
+        segmentHook: run?.hook(i),
       });
       candidates.push(...r.candidates);
       summaries.push(r.summary);
@@ -143,6 +158,19 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
   } finally {
     progress.stop();
     for (const s of sources) await s.close();
+    run?.close();
+  }
+  if (run && shard) {
+    run.writeShard(flags.out!);
+    run.finish();
+    if (!flags.quiet) process.stderr.write(`chirpsieve: shard ${shard.index}/${shard.count} written to ${flags.out}; merge the ${shard.count} shards with \`chirpsieve merge\`\n`);
+    return;
+  }
+  // A resumed run: its result and seconds come from every segment's record, journaled or new.
+  const merged = run?.result();
+  if (merged) {
+    candidates.splice(0, candidates.length, ...merged.candidates);
+    merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped }));
   }
   const summary: Record<string, unknown> = {
     type: "summary",
@@ -160,7 +188,7 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     fmin: fMinHz,
     psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psdSegmentSeconds}s`,
     fftBackend,
-    threads: 1,
+    threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
     caution: CANDIDATE_CAUTION,
   };
@@ -190,6 +218,7 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
   }
   if (flags.out) writeFileAtomic(flags.out, text);
   else process.stdout.write(text);
+  run?.finish();
   if (flags.out && !flags.quiet) {
     process.stderr.write(`chirpsieve: ${candidates.length} candidate(s) written to ${flags.out}\n`);
   }

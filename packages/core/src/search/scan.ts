@@ -146,10 +146,13 @@ export async function searchSource(
   const inlineSigmas = new Float64Array(templates.length);
   const buffers = [new Float64Array(n), new Float64Array(n)];
   const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMass, t.secondaryMass, options.fMinHz));
+  const hook = options.segmentHook;
+  // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
+  const todo = hook ? hook.segments(plan.segments.length) : plan.segments.map((_, i) => i);
 
   /** Reads segment i into buffers[i % 2]; with `withPsd`, also its PSD (done while workers filter the previous one). */
   const prepare = async (i: number, withPsd: boolean): Promise<PreparedSegment> => {
-    const seg = plan.segments[i];
+    const seg = plan.segments[todo[i]];
     const data = buffers[i % 2];
     const raw = await source.read(seg.start, Math.min(seg.dataLength, source.length - seg.start));
     data.fill(0);
@@ -171,15 +174,16 @@ export async function searchSource(
   let analysed = 0;
   let skippedSamples = 0;
   let done = 0;
-  const total = plan.segments.length;
+  const total = todo.length;
   try {
     let next: Promise<PreparedSegment> | undefined = total > 0 ? prepare(0, false) : undefined;
-    for (let segIndex = 0; segIndex < total; segIndex++) {
+    for (let step = 0; step < total; step++) {
+      const segIndex = todo[step];
       const cur = await next!;
       next = undefined;
       const seg = cur.seg;
       const searchSamples = seg.searchEnd - seg.searchStart;
-      const hasNext = segIndex + 1 < total;
+      const hasNext = step + 1 < total;
       if (cur.bad >= 0) {
         skipped.push({
           startTime: source.startTime + seg.searchStart / fs,
@@ -187,26 +191,28 @@ export async function searchSource(
           reason: `non-finite sample at t = ${(source.startTime + (seg.start + cur.bad) / fs).toFixed(4)} s`,
         });
         skippedSamples += searchSamples;
+        hook?.done(segIndex, { searchSamples, skipped: skipped[skipped.length - 1], triggers: [], survivors: [], candidates: [] });
         options.onProgress?.(++done, total);
-        if (hasNext) next = prepare(segIndex + 1, false);
+        if (hasNext) next = prepare(step + 1, false);
         continue;
       }
       const spec = filter.load(cur.data, cur.dataLength, cur.psd);
       const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
+      const part = hook ? hook.templates(segIndex) : { from: 0, to: templates.length };
       let triggers: Trigger[];
       let sigmas: Float64Array;
       if (inline) {
         triggers = [];
-        inline.scan(filter.weights, masses, 0, templates.length, peaks, inlineSigmas, triggers);
+        inline.scan(filter.weights, masses, part.from, part.to, peaks, inlineSigmas, triggers);
         sigmas = inlineSigmas;
       } else {
         pool ??= await poolStart!;
         // The workers filter this segment while this thread reads the next one and estimates its
         // PSD (into the other buffer); the loaded spectrum and weights stay untouched until then.
-        const running = pool.run(segIndex, filter.weights, peaks);
+        const running = pool.run(segIndex, filter.weights, peaks, part.from, part.to);
         running.catch(() => {}); // awaited just below
         if (hasNext) {
-          next = prepare(segIndex + 1, true);
+          next = prepare(step + 1, true);
           next.catch(() => {}); // awaited at the top of the next iteration
         }
         triggers = await running;
@@ -218,7 +224,9 @@ export async function searchSource(
         const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
         return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
       });
-      for (const tr of clusterByTime(timed, options.clusterWindowSeconds)) {
+      const first = all.length;
+      const kept = clusterByTime(timed, options.clusterWindowSeconds);
+      for (const tr of kept) {
         const t = templates[tr.templateIndex];
         const kEnd = filter.generate(t);
         const { chi2, dof } = options.chi2Bins >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bins) : { chi2: 0, dof: 0 };
@@ -238,8 +246,9 @@ export async function searchSource(
           file: source.file,
         });
       }
+      hook?.done(segIndex, { searchSamples, triggers: timed, survivors: kept, candidates: all.slice(first) });
       options.onProgress?.(++done, total);
-      if (hasNext && next === undefined) next = prepare(segIndex + 1, false);
+      if (hasNext && next === undefined) next = prepare(step + 1, false);
     }
   } finally {
     inline?.dispose();

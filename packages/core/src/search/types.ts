@@ -1,5 +1,6 @@
 import type { FftBackendChoice, FftBackendName } from "../fft/types.js";
 import type { PsdModel } from "../noise/psdModel.js";
+import type { SegmentHook } from "./shardHook.js";
 
 /**
  * What the search reads: a uniformly sampled series read in pieces (io's StrainSource fits).
@@ -55,6 +56,8 @@ export interface SearchOptions {
   readonly threads?: number;
   /** Called after each segment with (segments done, segments in all). */
   readonly onProgress?: (done: number, total: number) => void;
+  /** Search only some segments with some templates and record each segment's outcome (sharding, resume; see shardRun.ts). */
+  readonly segmentHook?: SegmentHook;
 }
 
 /** One reported peak. A candidate, not a detection. */

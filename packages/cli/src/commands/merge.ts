@@ -1,0 +1,89 @@
+import type { Command } from "commander";
+import { extname } from "node:path";
+import { mergeShards, writeFileAtomic, type Candidate } from "@chirpsieve/core";
+import { UsageError } from "../errors.js";
+import { parseChoiceFlag } from "../options.js";
+import { CANDIDATE_CAUTION, candidateRecord, formatCandidatesCsv, formatCandidatesTable } from "../candidateFormat.js";
+
+interface MergeFlags {
+  out?: string;
+  format?: string;
+  json?: boolean;
+  quiet?: boolean;
+}
+
+/** Registers `chirpsieve merge <dir|files...>`: puts the shards of a `scan --shard` run back together. */
+export function registerMerge(program: Command): void {
+  program
+    .command("merge")
+    .description(
+      "Merge the shards of a `chirpsieve scan --shard I/N` run into the result one unsharded scan gives: checks that " +
+        "they belong to one run and cover it exactly once, then clusters across shard boundaries. " +
+        "Reported peaks are candidates, not detections.",
+    )
+    .argument("<dir-or-files...>", "a folder of shard outputs, or the shards' .jsonl (or .manifest.json) files")
+    .option("--out <file>", "write the merged candidates to this file (format from --format or the extension: .jsonl, .csv, .txt)")
+    .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
+    .option("--json", "same as --format jsonl to stdout")
+    .option("--quiet", "no message on stderr")
+    .action(async (paths: string[], flags: MergeFlags) => {
+      runMerge(paths, flags);
+    });
+}
+
+type Format = "table" | "jsonl" | "csv";
+
+function chooseFormat(flags: MergeFlags): Format {
+  if (flags.json && flags.format && flags.format !== "jsonl") throw new UsageError("--json and --format: --json means --format jsonl");
+  if (flags.json) return "jsonl";
+  if (flags.format) return parseChoiceFlag("--format", flags.format, ["table", "jsonl", "csv"] as const);
+  if (flags.out) {
+    const ext = extname(flags.out).toLowerCase();
+    if (ext === ".csv") return "csv";
+    if (ext === ".txt") return "table";
+    return "jsonl";
+  }
+  return process.stdout.isTTY ? "table" : "jsonl";
+}
+
+function runMerge(paths: string[], flags: MergeFlags): void {
+  const wallStart = performance.now();
+  const format = chooseFormat(flags);
+  const m = mergeShards(paths);
+  const candidates: Candidate[] = m.candidates;
+  const summary = {
+    type: "summary",
+    files: m.inputs.length,
+    templates: m.search.templates,
+    bank: typeof m.arguments.bank === "string" ? m.arguments.bank : `${m.search.templates} templates (sha256 ${m.search.bankSha256.slice(0, 12)}…)`,
+    segments: m.segments,
+    segmentSamples: m.inputs[0]?.segmentSamples ?? 0,
+    sampleRate: m.inputs[0]?.sampleRate ?? 0,
+    analysedSeconds: m.analysedSeconds,
+    skippedSeconds: m.skippedSeconds,
+    skipped: m.skipped,
+    candidates: candidates.length,
+    minSnr: m.search.snrThreshold,
+    fmin: m.search.fMinHz,
+    psd: m.search.psd,
+    fftBackend: m.search.fftBackend,
+    shards: m.shards,
+    shardBy: m.by,
+    runId: m.runId,
+    wallSeconds: (performance.now() - wallStart) / 1000,
+    caution: CANDIDATE_CAUTION,
+  };
+  let text: string;
+  if (format === "jsonl") {
+    text = candidates.map((c) => JSON.stringify(candidateRecord(c))).join("\n") + (candidates.length ? "\n" : "") + JSON.stringify(summary) + "\n";
+  } else if (format === "csv") {
+    text = formatCandidatesCsv(candidates);
+  } else {
+    text = formatCandidatesTable(candidates, summary);
+  }
+  if (flags.out) writeFileAtomic(flags.out, text);
+  else process.stdout.write(text);
+  if (flags.out && !flags.quiet) {
+    process.stderr.write(`chirpsieve: ${m.shards} shards merged: ${candidates.length} candidate(s) written to ${flags.out}\n`);
+  }
+}

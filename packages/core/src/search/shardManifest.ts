@@ -1,0 +1,186 @@
+import { createHash } from "node:crypto";
+import { closeSync, openSync, readSync, statSync } from "node:fs";
+import { basename, dirname, extname, join } from "node:path";
+import { resolveFftBackend } from "../fft/backends.js";
+import type { FftBackendName } from "../fft/types.js";
+import { chooseSegmentPlan, truncationSeconds } from "./scan.js";
+import type { ShardSpec, WorkBlock } from "./shardWork.js";
+import type { SearchInput, SearchOptions } from "./types.js";
+
+/** One input file of a run as manifests record it. */
+export interface RunInput {
+  /** The name the candidates carry (the path as given). */
+  file: string;
+  /** SHA-256 (hex) of the file's bytes, or of its samples as little-endian float64 when there is no file. */
+  sha256: string;
+  hashOf: "file" | "samples";
+  samples: number;
+  sampleRate: number;
+  startTime: number;
+  /** Segments of the run's plan for this input, and their length (samples). */
+  segments: number;
+  segmentSamples: number;
+}
+
+/** The search settings that shape the result (recorded in manifests and hashed into the run id). */
+export interface SearchDescription {
+  templates: number;
+  /** SHA-256 of the bank's masses (m1, m2 pairs as little-endian float64). */
+  bankSha256: string;
+  fMinHz: number;
+  fMaxHz: number | null;
+  snrThreshold: number;
+  chi2Bins: number;
+  clusterWindowSeconds: number;
+  /** e.g. "ajith2011" or "welch-median-4s" (the CLI's label). */
+  psd: string;
+  /** The noise curve's values at fixed frequencies (a model), or the estimate's settings. */
+  psdFingerprint: unknown;
+  truncationSeconds: number;
+  segmentSeconds: number | null;
+  fftBackend: FftBackendName;
+  skipNonFinite: boolean;
+}
+
+/** The JSON file beside a shard's candidate file (see shardRun.ts, mergeShards.ts). */
+export interface ShardManifest {
+  tool: "chirpsieve";
+  format: 1;
+  version: string;
+  /** Hash of everything that shapes the result, except the shard: equal for every shard of one run. */
+  runId: string;
+  shard: ShardSpec;
+  /** The candidate (segment record) file, relative to the manifest's folder. */
+  candidates: string;
+  /** Blocks of (input, segments, templates) this shard ran, inclusive ranges. */
+  covered: { blocks: WorkBlock[] };
+  inputs: RunInput[];
+  search: SearchDescription;
+  /** The caller's (CLI's) arguments that shape the result, for a person and for the run id. */
+  arguments: Record<string, unknown>;
+  created: string;
+}
+
+/** Keys sorted, undefined dropped: equal values give equal JSON. */
+export function canonicalJson(value: unknown): string {
+  const canon = (v: unknown): unknown => {
+    if (Array.isArray(v)) return v.map(canon);
+    if (v !== null && typeof v === "object") {
+      const out: Record<string, unknown> = {};
+      for (const k of Object.keys(v as object).sort()) {
+        const x = (v as Record<string, unknown>)[k];
+        if (x !== undefined) out[k] = canon(x);
+      }
+      return out;
+    }
+    return v;
+  };
+  return JSON.stringify(canon(value));
+}
+
+/** SHA-256 (hex) of a file's bytes, read in 4 MiB pieces. */
+export function fileSha256(path: string): string {
+  const hash = createHash("sha256");
+  const buf = Buffer.allocUnsafe(4 << 20);
+  const fd = openSync(path, "r");
+  try {
+    for (;;) {
+      const n = readSync(fd, buf, 0, buf.length, null);
+      if (n <= 0) break;
+      hash.update(buf.subarray(0, n));
+    }
+  } finally {
+    closeSync(fd);
+  }
+  return hash.digest("hex");
+}
+
+async function samplesSha256(source: SearchInput): Promise<string> {
+  const hash = createHash("sha256");
+  const chunk = 1 << 20;
+  for (let off = 0; off < source.length; off += chunk) {
+    const x = await source.read(off, Math.min(chunk, source.length - off));
+    const f = Float64Array.from(x);
+    hash.update(Buffer.from(f.buffer, f.byteOffset, f.byteLength));
+  }
+  return hash.digest("hex");
+}
+
+function isFile(path: string): boolean {
+  try {
+    return statSync(path).isFile();
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Describes the inputs of a run: checksum (of the file at `path`, default `source.file`, or of the
+ * samples when there is no such file), size and this run's segment plan for each.
+ */
+export async function describeInputs(inputs: readonly { source: SearchInput; path?: string }[], options: SearchOptions): Promise<RunInput[]> {
+  const out: RunInput[] = [];
+  for (const { source, path } of inputs) {
+    const p = path ?? source.file;
+    const byFile = isFile(p);
+    const plan = chooseSegmentPlan(options, source.sampleRate, source.length);
+    out.push({
+      file: source.file,
+      sha256: byFile ? fileSha256(p) : await samplesSha256(source),
+      hashOf: byFile ? "file" : "samples",
+      samples: source.length,
+      sampleRate: source.sampleRate,
+      startTime: source.startTime,
+      segments: plan.segments.length,
+      segmentSamples: plan.size,
+    });
+  }
+  return out;
+}
+
+const FINGERPRINT_FREQUENCIES = Array.from({ length: 25 }, (_, i) => 2 ** (i / 2 + 2)); // 4 Hz … 16 kHz
+
+/** The result-shaping search settings, with the FFT backend resolved ("auto" → what runs). */
+export function describeSearch(options: SearchOptions): SearchDescription {
+  const masses = new Float64Array(2 * options.templates.length);
+  options.templates.forEach((t, i) => {
+    masses[2 * i] = t.primaryMass;
+    masses[2 * i + 1] = t.secondaryMass;
+  });
+  const psd = options.psd;
+  return {
+    templates: options.templates.length,
+    bankSha256: createHash("sha256").update(Buffer.from(masses.buffer)).digest("hex"),
+    fMinHz: options.fMinHz,
+    fMaxHz: options.fMaxHz ?? null,
+    snrThreshold: options.snrThreshold,
+    chi2Bins: options.chi2Bins,
+    clusterWindowSeconds: options.clusterWindowSeconds,
+    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psd.segmentSeconds}s`,
+    psdFingerprint:
+      psd.kind === "model"
+        ? { name: psd.model.name, fMinHz: psd.model.fMinHz, values: FINGERPRINT_FREQUENCIES.map((f) => { const v = psd.model.evaluate(f); return Number.isFinite(v) ? v : String(v); }) }
+        : { segmentSeconds: psd.segmentSeconds, average: psd.average },
+    truncationSeconds: truncationSeconds(options),
+    segmentSeconds: options.segmentSeconds ?? null,
+    fftBackend: resolveFftBackend(options.fftBackend ?? "fftjs"),
+    skipNonFinite: !!options.skipNonFinite,
+  };
+}
+
+/** The run id: SHA-256 of the tool version, the search settings, the inputs and the caller's arguments (never the shard). */
+export function scanRunId(version: string, search: SearchDescription, inputs: readonly RunInput[], args: Record<string, unknown>): string {
+  return createHash("sha256").update(canonicalJson({ tool: "chirpsieve", version, search, inputs, arguments: args })).digest("hex");
+}
+
+/** `part-3.jsonl` → `part-3.manifest.json` (beside it). */
+export function manifestPathFor(candidatesPath: string): string {
+  const ext = extname(candidatesPath);
+  const stem = ext ? basename(candidatesPath, ext) : basename(candidatesPath);
+  return join(dirname(candidatesPath), `${stem}.manifest.json`);
+}
+
+/** The resume journal kept beside an output file: `out.jsonl` → `out.jsonl.journal`. */
+export function journalPathFor(outPath: string): string {
+  return `${outPath}.journal`;
+}
