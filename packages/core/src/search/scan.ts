@@ -114,7 +114,7 @@ export async function searchSource(
   const wallStart = performance.now();
   const fs = source.sampleRate;
   validateSearchOptions(options, fs);
-  const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "fftjs");
+  const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "auto");
   const plan = chooseSegmentPlan(options, fs, source.length);
   const n = plan.size;
   const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);

@@ -163,7 +163,7 @@ export function describeSearch(options: SearchOptions): SearchDescription {
         : { segmentSeconds: psd.segmentSeconds, average: psd.average },
     truncationSeconds: truncationSeconds(options),
     segmentSeconds: options.segmentSeconds ?? null,
-    fftBackend: resolveFftBackend(options.fftBackend ?? "fftjs"),
+    fftBackend: resolveFftBackend(options.fftBackend ?? "auto"),
     skipNonFinite: !!options.skipNonFinite,
   };
 }

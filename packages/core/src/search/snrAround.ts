@@ -41,7 +41,7 @@ export async function snrAroundTime(
     fMaxHz: fMax,
     psd: options.psd,
     truncationSamples: Math.round(truncationSeconds(options) * fs),
-    backend: resolveFftBackend(options.fftBackend ?? "fftjs"),
+    backend: resolveFftBackend(options.fftBackend ?? "auto"),
   });
   try {
     const data = new Float64Array(plan.size);

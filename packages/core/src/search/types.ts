@@ -43,7 +43,7 @@ export interface SearchOptions {
   readonly truncationSeconds?: number;
   /** Segment length (s), rounded up to a power of two samples; default chosen from the longest template. */
   readonly segmentSeconds?: number;
-  /** FFT backend: "auto" (the fastest available), "pffft" or "fftjs" (default "fftjs"; call loadFftBackends() first for pffft). */
+  /** FFT backend: "auto" (default: pffft once loadFftBackends() has loaded it in this thread, else fft.js), "pffft" or "fftjs". */
   readonly fftBackend?: FftBackendChoice;
   /** Skip (and report) segments holding non-finite samples instead of failing. */
   readonly skipNonFinite?: boolean;
