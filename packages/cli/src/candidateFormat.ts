@@ -1,4 +1,36 @@
+import { extname } from "node:path";
 import type { Candidate, Coincidence } from "@chirpsieve/core";
+import { UsageError } from "./errors.js";
+import { parseChoiceFlag } from "./options.js";
+
+/** How candidates are written. */
+export type CandidateFormat = "table" | "jsonl" | "csv";
+
+/**
+ * --json, --format, else the --out extension (.csv, .txt = table, anything else JSON lines), else
+ * a table on a terminal and JSON lines when piped.
+ */
+export function chooseCandidateFormat(flags: { json?: boolean; format?: string; out?: string }): CandidateFormat {
+  if (flags.json && flags.format && flags.format !== "jsonl") throw new UsageError("--json and --format: --json means --format jsonl");
+  if (flags.json) return "jsonl";
+  if (flags.format) return parseChoiceFlag("--format", flags.format, ["table", "jsonl", "csv"] as const);
+  if (flags.out) {
+    const ext = extname(flags.out).toLowerCase();
+    if (ext === ".csv") return "csv";
+    if (ext === ".txt") return "table";
+    return "jsonl";
+  }
+  return process.stdout.isTTY ? "table" : "jsonl";
+}
+
+/** Candidates (and, for JSON lines and tables, the run summary) in the chosen format. */
+export function renderCandidates(format: CandidateFormat, candidates: Candidate[], summary: Record<string, unknown>): string {
+  if (format === "jsonl") {
+    return candidates.map((c) => JSON.stringify(candidateRecord(c))).join("\n") + (candidates.length ? "\n" : "") + JSON.stringify(summary) + "\n";
+  }
+  if (format === "csv") return formatCandidatesCsv(candidates);
+  return formatCandidatesTable(candidates, summary);
+}
 
 /** Said wherever candidates are reported. */
 export const CANDIDATE_CAUTION =

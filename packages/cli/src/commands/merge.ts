@@ -1,9 +1,6 @@
 import type { Command } from "commander";
-import { extname } from "node:path";
 import { mergeShards, writeFileAtomic, type Candidate } from "@chirpsieve/core";
-import { UsageError } from "../errors.js";
-import { parseChoiceFlag } from "../options.js";
-import { CANDIDATE_CAUTION, candidateRecord, formatCandidatesCsv, formatCandidatesTable } from "../candidateFormat.js";
+import { CANDIDATE_CAUTION, chooseCandidateFormat, renderCandidates } from "../candidateFormat.js";
 
 interface MergeFlags {
   out?: string;
@@ -31,24 +28,10 @@ export function registerMerge(program: Command): void {
     });
 }
 
-type Format = "table" | "jsonl" | "csv";
-
-function chooseFormat(flags: MergeFlags): Format {
-  if (flags.json && flags.format && flags.format !== "jsonl") throw new UsageError("--json and --format: --json means --format jsonl");
-  if (flags.json) return "jsonl";
-  if (flags.format) return parseChoiceFlag("--format", flags.format, ["table", "jsonl", "csv"] as const);
-  if (flags.out) {
-    const ext = extname(flags.out).toLowerCase();
-    if (ext === ".csv") return "csv";
-    if (ext === ".txt") return "table";
-    return "jsonl";
-  }
-  return process.stdout.isTTY ? "table" : "jsonl";
-}
 
 function runMerge(paths: string[], flags: MergeFlags): void {
   const wallStart = performance.now();
-  const format = chooseFormat(flags);
+  const format = chooseCandidateFormat(flags);
   const m = mergeShards(paths);
   const candidates: Candidate[] = m.candidates;
   const summary = {
@@ -73,14 +56,7 @@ function runMerge(paths: string[], flags: MergeFlags): void {
     wallSeconds: (performance.now() - wallStart) / 1000,
     caution: CANDIDATE_CAUTION,
   };
-  let text: string;
-  if (format === "jsonl") {
-    text = candidates.map((c) => JSON.stringify(candidateRecord(c))).join("\n") + (candidates.length ? "\n" : "") + JSON.stringify(summary) + "\n";
-  } else if (format === "csv") {
-    text = formatCandidatesCsv(candidates);
-  } else {
-    text = formatCandidatesTable(candidates, summary);
-  }
+  const text = renderCandidates(format, candidates, summary);
   if (flags.out) writeFileAtomic(flags.out, text);
   else process.stdout.write(text);
   if (flags.out && !flags.quiet) {

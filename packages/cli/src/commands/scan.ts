@@ -1,6 +1,5 @@
 import type { Command } from "commander";
 import { mkdirSync } from "node:fs";
-import { extname } from "node:path";
 import {
   analyseCoincidences,
   siteByName,
@@ -23,14 +22,15 @@ import {
   startScanRun,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import {
   CANDIDATE_CAUTION,
   candidateRecord,
-  formatCandidatesCsv,
-  formatCandidatesTable,
+  chooseCandidateFormat,
+  renderCandidates,
+  type CandidateFormat,
   formatCoincidencesCsv,
   formatCoincidencesTable,
 } from "../candidateFormat.js";
@@ -110,7 +110,7 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
   const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
-  const format = chooseFormat(flags);
+  const format = chooseCandidateFormat(flags);
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
@@ -214,7 +214,7 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     summary.background = result.summary;
     text = renderNetwork(format, result.coincidences, result.singles, summary);
   } else {
-    text = render(format, candidates, summary);
+    text = renderCandidates(format, candidates, summary);
   }
   if (flags.out) writeFileAtomic(flags.out, text);
   else process.stdout.write(text);
@@ -231,20 +231,6 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
   }
 }
 
-type Format = "table" | "jsonl" | "csv";
-
-function chooseFormat(flags: ScanFlags): Format {
-  if (flags.json && flags.format && flags.format !== "jsonl") throw new UsageError("--json and --format: --json means --format jsonl");
-  if (flags.json) return "jsonl";
-  if (flags.format) return parseChoiceFlag("--format", flags.format, ["table", "jsonl", "csv"] as const);
-  if (flags.out) {
-    const ext = extname(flags.out).toLowerCase();
-    if (ext === ".csv") return "csv";
-    if (ext === ".txt") return "table";
-    return "jsonl";
-  }
-  return process.stdout.isTTY ? "table" : "jsonl";
-}
 
 interface NetworkSite {
   name: string;
@@ -278,7 +264,7 @@ function parseSiteFlags(flags: ScanFlags): NetworkSite[] {
 }
 
 function renderNetwork(
-  format: Format,
+  format: CandidateFormat,
   coincidences: Coincidence[],
   singles: SingleSiteCandidate[],
   summary: Record<string, unknown>,
@@ -295,11 +281,4 @@ function renderNetwork(
   return formatCoincidencesTable(coincidences, singles.length, summary);
 }
 
-function render(format: Format, candidates: Candidate[], summary: Record<string, unknown>): string {
-  if (format === "jsonl") {
-    return candidates.map((c) => JSON.stringify(candidateRecord(c))).join("\n") + (candidates.length ? "\n" : "") + JSON.stringify(summary) + "\n";
-  }
-  if (format === "csv") return formatCandidatesCsv(candidates);
-  return formatCandidatesTable(candidates, summary);
-}
 

@@ -3,7 +3,7 @@ import type { ComplexPlan, FftBackendName } from "../fft/types.js";
 import type { Trigger } from "../filter/peaks.js";
 import { taylorF2Amplitude, taylorF2BinRange } from "../waveform/taylorf2.js";
 import type { SegmentWeights } from "./segmentWeights.js";
-import { scanWindowPeaks } from "./windowPeaks.js";
+import { findWindowPeaks } from "../filter/peaks.js";
 import { createTaylorF2Phasor, type TaylorF2Phasor } from "./taylorF2Phasor.js";
 
 /** What a {@link BankFilter} needs to know about the segments it filters. */
@@ -104,7 +104,7 @@ export function createBankFilter(config: BankFilterConfig): BankFilter {
       for (let ti = from; ti < to; ti++) {
         const { sigma } = filter(weights, masses[2 * ti], masses[2 * ti + 1]);
         sigmas[ti] = sigma;
-        if (sigma > 0) scanWindowPeaks(getPlan().output, peaks.start, peaks.end, peaks.threshold, peaks.window, ti, triggers);
+        if (sigma > 0) findWindowPeaks(getPlan().output, peaks.start, peaks.end, peaks.threshold, peaks.window, ti, triggers);
       }
     },
     warmUp() {

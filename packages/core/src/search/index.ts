@@ -19,4 +19,3 @@ export * from "./shardRun.js";
 export * from "./mergeSegments.js";
 export * from "./mergeShards.js";
 export * from "./journal.js";
-export * from "./windowPeaks.js";
