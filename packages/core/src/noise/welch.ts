@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import { createRealFft } from "../fft/index.js";
+import { createRealFft, resolveFftBackend } from "../fft/index.js";
 import type { SampledPsd } from "./interpolatePsd.js";
 
 /** How the periodograms of the segments are combined. */
@@ -83,7 +83,7 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
     window[i] = w;
     sumW2 += w * w;
   }
-  const fft = createRealFft(n);
+  const fft = createRealFft(n, resolveFftBackend("auto"));
   const seg = new Float64Array(n);
   const spec = new Float64Array(n + 2);
   const scale = 2 / (sampleRate * sumW2);
@@ -108,8 +108,15 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
     const beta = medianBiasFactor(segments);
     const half = segments >> 1;
     for (let k = 0; k < bins; k++) {
-      const v = all.subarray(k * segments, (k + 1) * segments).sort();
-      const med = segments % 2 === 1 ? v[half] : 0.5 * (v[half - 1] + v[half]);
+      const v = all.subarray(k * segments, (k + 1) * segments);
+      const upper = selectInPlace(v, half);
+      let med = upper;
+      if (segments % 2 === 0) {
+        // The other middle value is the largest of the lower part left by the selection.
+        let lower = v[0];
+        for (let i = 1; i < half; i++) if (v[i] > lower) lower = v[i];
+        med = 0.5 * (lower + upper);
+      }
       psd[k] = med / beta;
     }
   } else {
@@ -119,4 +126,43 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
   const frequencies = new Float64Array(bins);
   for (let k = 0; k < bins; k++) frequencies[k] = k * df;
   return { frequencies, psd, df, segments, segmentLength: n, average };
+}
+
+/**
+ * Rearranges v so that v[k] holds the value it would have if v were sorted, everything before it
+ * is ≤ and everything after ≥ (Hoare's selection, "FIND", Commun. ACM 4, 321 (1961), with a
+ * median-of-three pivot); returns v[k]. Expected O(n) instead of the O(n log n) of a full sort.
+ */
+function selectInPlace(v: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = v.length - 1;
+  while (hi > lo) {
+    const mid = (lo + hi) >> 1;
+    // Median of three as the pivot, left at v[mid].
+    if (v[mid] < v[lo]) swap(v, mid, lo);
+    if (v[hi] < v[lo]) swap(v, hi, lo);
+    if (v[hi] < v[mid]) swap(v, hi, mid);
+    const pivot = v[mid];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (v[i] < pivot) i++;
+      while (v[j] > pivot) j--;
+      if (i <= j) {
+        swap(v, i, j);
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else break;
+  }
+  return v[k];
+}
+
+function swap(v: Float64Array, a: number, b: number): void {
+  const t = v[a];
+  v[a] = v[b];
+  v[b] = t;
 }
