@@ -10,6 +10,7 @@ import {
   psdModelFromSpec,
   readBankFile,
   sweepMatchFloors,
+  loadFftBackends,
   verifyBank,
   writeBankFile,
   writeFileAtomic,
@@ -116,7 +117,11 @@ export function registerBank(program: Command): void {
     .option("--seed <seed>", "seed of the draws", "1")
     .option("--json", "print the table as JSON")
     .option("--plot <file>", "SVG of the trade-off: scan cost (or template count) against rate loss")
-    .action((flags: SweepFlags) => runSweep(flags));
+    .action(async (flags: SweepFlags) => {
+      // The cost estimate times the FFT backend a scan would use (the SIMD one when it loads).
+      await loadFftBackends();
+      runSweep(flags);
+    });
 }
 
 /** Fails early, naming the flag, when a file cannot be written into its directory. */

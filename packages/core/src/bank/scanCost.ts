@@ -1,5 +1,6 @@
 // An estimate of what scanning an hour of data with a bank costs on this machine.
 import { InputError } from "../errors.js";
+import { resolveFftBackend } from "../fft/backends.js";
 import { createComplexFft } from "../fft/create.js";
 import { createTaylorF2Generator } from "../waveform/taylorf2.js";
 import type { FftBackendName } from "../fft/types.js";
@@ -41,7 +42,7 @@ export interface TemplateCostOptions {
 export function measureTemplateCost(options: TemplateCostOptions): TemplateCostMeasurement {
   const { longestTemplateSeconds, highestFrequencyHz, fminHz } = options;
   const repeats = options.repeats ?? 5;
-  const backend = options.backend ?? "fftjs";
+  const backend = options.backend ?? resolveFftBackend("auto");
   if (!(longestTemplateSeconds > 0)) throw new InputError(`scan cost: longestTemplateSeconds must be positive (got ${longestTemplateSeconds})`);
   if (!(highestFrequencyHz > fminHz)) throw new InputError(`scan cost: highestFrequencyHz must exceed fminHz`);
   if (!Number.isInteger(repeats) || repeats < 1) throw new InputError(`scan cost: repeats must be a positive integer (got ${repeats})`);
