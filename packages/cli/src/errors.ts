@@ -13,7 +13,7 @@ export function isInputError(err: unknown): err is Error {
   if (err instanceof InputError) return true;
   // Node's own errors for paths the user named (missing file, directory given, no permission).
   const code = (err as { code?: unknown } | null)?.code;
-  return typeof code === "string" && ["ENOENT", "EISDIR", "ENOTDIR", "EACCES", "EPERM"].includes(code);
+  return typeof code === "string" && ["ENOENT", "EISDIR", "ENOTDIR", "EACCES", "EPERM", "EEXIST"].includes(code);
 }
 
 /** One line describing a file-system error with the path it concerns. */
@@ -25,6 +25,7 @@ export function describeFsError(err: Error): string {
     ENOTDIR: "a parent of this path is not a directory",
     EACCES: "permission denied",
     EPERM: "operation not permitted",
+    EEXIST: "already exists",
   };
   if (e.code && e.path && what[e.code]) return `${e.path}: ${what[e.code]}`;
   return e.message.split("\n")[0];

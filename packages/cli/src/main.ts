@@ -59,7 +59,7 @@ async function main(argv: string[]): Promise<void> {
     }
     if (err instanceof InputError) fail(err.message, 2);
     if (isInputError(err)) fail(describeFsError(err), 2);
-    if (process.env.CHIRPSIEVE_DEBUG) process.stderr.write(`${(err as Error)?.stack ?? err}\n`);
+    if (process.env.CHIRPSIEVE_DEBUG === "1") process.stderr.write(`${(err as Error)?.stack ?? err}\n`);
     fail(`unexpected error: ${(err as Error)?.message ?? String(err)} (set CHIRPSIEVE_DEBUG=1 for details)`, 1);
   }
 }
@@ -67,7 +67,7 @@ async function main(argv: string[]): Promise<void> {
 // A reader that closes the pipe early (`chirpsieve scan … | head`) is not an error.
 process.stdout.on("error", (err: NodeJS.ErrnoException) => {
   if (err.code === "EPIPE") process.exit(0);
-  throw err;
+  fail(`cannot write to standard output: ${err.message}`, 1);
 });
 
 await main(process.argv);

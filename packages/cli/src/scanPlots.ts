@@ -2,6 +2,7 @@ import * as Plot from "@observablehq/plot";
 import { join } from "node:path";
 import {
   snrAroundTime,
+  templateIscoTimeOffset,
   writeFileAtomic,
   type Candidate,
   type SearchInput,
@@ -30,8 +31,11 @@ export async function writeScanPlots(
     const input = await options.open(c.file);
     try {
       const template = options.templates[c.templateIndex];
-      const r = await snrAroundTime(input, options, template, c.coalescenceTime, 2);
-      const points = Array.from(r.times, (t, i) => ({ t: t - c.coalescenceTime, snr: r.snr[i] }));
+      // snrAroundTime works in the template's peak times; the candidate's time is when the template
+      // reaches its ISCO, a fixed offset later.
+      const offset = templateIscoTimeOffset(template.primaryMass, template.secondaryMass, options.fMinHz);
+      const r = await snrAroundTime(input, options, template, c.coalescenceTime - offset, 2);
+      const points = Array.from(r.times, (t, i) => ({ t: t + offset - c.coalescenceTime, snr: r.snr[i] }));
       const svg = renderSvg({
         width: 720,
         height: 320,

@@ -74,15 +74,25 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
 }
 
 /**
- * The templates to search with: a bank file (--bank), or a lattice bank built over the mass range
- * at --match-floor, placed in --bank-noise-curve, else --noise-curve, else ajith2011.
+ * The templates to search with and the low-frequency cutoff to search from: a bank file (--bank)
+ * brings its own fmin, used unless --fmin was typed (a typed --fmin that differs gets a note on
+ * stderr: the bank's coverage was verified from its own fmin); otherwise a lattice bank is built
+ * over the mass range at --match-floor, placed in --bank-noise-curve, else --noise-curve, else
+ * ajith2011, from --fmin.
  */
 export function resolveTemplates(
   flags: SearchFlags,
   massRangeSolar: [number, number] | undefined,
   fMinHz: number,
-): { templates: SearchTemplate[]; description: string } {
-  if (flags.bank) return { templates: readBankFile(flags.bank).templates, description: flags.bank };
+  fMinTyped: boolean,
+): { templates: SearchTemplate[]; description: string; fMinHz: number } {
+  if (flags.bank) {
+    const bank = readBankFile(flags.bank);
+    if (fMinTyped && fMinHz !== bank.fminHz) {
+      process.stderr.write(`chirpsieve: note: --fmin ${fMinHz} Hz differs from the bank's ${bank.fminHz} Hz, from which its coverage was verified\n`);
+    }
+    return { templates: bank.templates, description: flags.bank, fMinHz: fMinTyped ? fMinHz : bank.fminHz };
+  }
   if (!massRangeSolar) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
@@ -90,5 +100,6 @@ export function resolveTemplates(
   return {
     templates: bank.templates,
     description: `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`,
+    fMinHz,
   };
 }

@@ -1,6 +1,4 @@
 import type { Command } from "commander";
-import { existsSync, statSync } from "node:fs";
-import { dirname, resolve } from "node:path";
 import * as Plot from "@observablehq/plot";
 import cliProgress from "cli-progress";
 import {
@@ -21,6 +19,7 @@ import {
   type TemplateBank,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
+import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { renderSvg } from "../plot.js";
 import { VERSION } from "../version.js";
@@ -125,11 +124,6 @@ export function registerBank(program: Command): void {
 }
 
 /** Fails early, naming the flag, when a file cannot be written into its directory. */
-function checkWritable(flag: string, path: string): void {
-  const dir = dirname(resolve(path));
-  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
-  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
-}
 
 interface RegionSettings {
   massRangeSolar: [number, number];
@@ -186,8 +180,8 @@ function runBuild(flags: BuildFlags, argv: string[]): void {
   const region = parseRegion(flags);
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
-  checkWritable("--out", flags.out);
-  if (flags.plot) checkWritable("--plot", flags.plot);
+  checkOutputFile("--out", flags.out);
+  if (flags.plot) checkOutputFile("--plot", flags.plot);
   const { bank, report } = buildBankWithReport({ ...region, matchFloor });
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
@@ -335,7 +329,7 @@ function runSweep(flags: SweepFlags): void {
   const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
   const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
   const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
-  if (flags.plot) checkWritable("--plot", flags.plot);
+  if (flags.plot) checkOutputFile("--plot", flags.plot);
   const bar = progressBar("sweep");
   let result: SweepResult;
   try {

@@ -1,6 +1,7 @@
 import type { Command } from "commander";
 import { mergeShards, writeFileAtomic, type Candidate } from "@chirpsieve/core";
 import { CANDIDATE_CAUTION, chooseCandidateFormat, renderCandidates } from "../candidateFormat.js";
+import { checkOutputFile } from "../outputPath.js";
 
 interface MergeFlags {
   out?: string;
@@ -32,6 +33,7 @@ export function registerMerge(program: Command): void {
 function runMerge(paths: string[], flags: MergeFlags): void {
   const wallStart = performance.now();
   const format = chooseCandidateFormat(flags);
+  if (flags.out) checkOutputFile("--out", flags.out);
   const m = mergeShards(paths);
   const candidates: Candidate[] = m.candidates;
   const summary = {

@@ -1,6 +1,4 @@
 import type { Command } from "commander";
-import { existsSync, statSync } from "node:fs";
-import { dirname, resolve } from "node:path";
 import * as Plot from "@observablehq/plot";
 import {
   formatPsdTable,
@@ -14,6 +12,7 @@ import {
   type WelchPsd,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
+import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag } from "../options.js";
 import { renderSvg } from "../plot.js";
 
@@ -58,13 +57,6 @@ export function registerPsd(program: Command): void {
 }
 
 /** Fails early, naming the flag, when a file cannot be written into its directory. */
-function checkWritable(flag: string, path: string): void {
-  const dir = dirname(resolve(path));
-  if (!existsSync(dir) || !statSync(dir).isDirectory()) {
-    throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
-  }
-  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
-}
 
 async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const segmentSeconds = parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
@@ -72,8 +64,8 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const fminFlag = flags.fmin === undefined ? undefined : parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
-  if (flags.out) checkWritable("--out", flags.out);
-  if (flags.plot) checkWritable("--plot", flags.plot);
+  if (flags.out) checkOutputFile("--out", flags.out);
+  if (flags.plot) checkOutputFile("--plot", flags.plot);
 
   const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
   const fs = strain.sampleRate;

@@ -1,6 +1,6 @@
 import type { Command } from "commander";
-import { existsSync, mkdirSync, statSync } from "node:fs";
-import { dirname, join, resolve } from "node:path";
+import { mkdirSync } from "node:fs";
+import { join } from "node:path";
 import {
   InputError,
   appendCampaignBatch,
@@ -25,6 +25,7 @@ import {
   type StrainSource,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
+import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
@@ -98,11 +99,6 @@ export function registerRecover(program: Command): void {
     });
 }
 
-function checkWritable(flag: string, path: string): void {
-  const dir = dirname(resolve(path));
-  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
-  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
-}
 
 function asUsage<T>(flag: string, f: () => T): T {
   try {
@@ -125,7 +121,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
-  const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
   const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
@@ -136,9 +132,9 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   if (strainFiles.length > 0 && flags.modelPsd) throw new UsageError("--model-psd: only applies to simulated noise (with --strain, --noise-curve sets the filter's PSD)");
   if (flags.bank && cmd.getOptionValueSource("matchFloor") === "cli") throw new UsageError("--match-floor: only applies to a bank built on the fly, not with --bank");
   const noiseModel: PsdModel | undefined = flags.noiseCurve === undefined ? undefined : asUsage("--noise-curve", () => psdModelFromSpec(flags.noiseCurve!));
-  if (strainFiles.length === 0 && fMinHz >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
-  if (flags.out) checkWritable("--out", flags.out);
-  if (flags.report) checkWritable("--report", flags.report);
+  if (strainFiles.length === 0 && fMinFlag >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
+  if (flags.out) checkOutputFile("--out", flags.out);
+  if (flags.report) checkOutputFile("--report", flags.report);
   const stateDir = flags.state ?? (flags.out ? `${flags.out}.state` : flags.report ? `${flags.report}.state` : undefined);
   if (flags.resume && stateDir === undefined) throw new UsageError("--resume: needs --state DIR, --out or --report to know where the state file is");
 
@@ -146,7 +142,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const useModel = strainFiles.length > 0 ? noiseModel !== undefined : !!flags.modelPsd;
   const psd: PsdSource = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
 
-  const { templates, description: bankDescription } = resolveTemplates(flags, massRangeSolar, fMinHz);
+  const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);

@@ -22,6 +22,7 @@ import {
   startScanRun,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
+import { checkOutputDirectory, checkOutputFile } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
@@ -73,7 +74,7 @@ export function registerScan(program: Command): void {
     .argument("[strain-file...]", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)");
   addSearchOptions(cmd, { fmin: "20" })
     .option("--mass-range <min:max>", "component-mass range of a bank built on the fly (solar masses)")
-    .option("--noise-curve <name|file>", "use a known noise curve (dis2001, ajith2011, flat, or a two-column table) instead of estimating the PSD")
+    .option("--noise-curve <name|file>", "use a known noise curve (dis2001, ajith2011, flat, flat:LEVEL, or a two-column table) instead of estimating the PSD")
     .option("--segment <s>", "analysis segment length (s, rounded up to a power of two samples); default from the longest template")
     .option("--out <file>", "write candidates to this file (format from --format or the extension: .jsonl, .csv, .txt)")
     .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
@@ -92,12 +93,12 @@ export function registerScan(program: Command): void {
     .option("--shard-by <how>", "split the work by templates, time or both", "both")
     .option("--resume", "keep a journal beside --out and continue a killed scan rerun with the same arguments")
     .option("--quiet", "no progress bar")
-    .action(async (files: string[], flags: ScanFlags) => {
-      await runScan(files, flags);
+    .action(async (files: string[], flags: ScanFlags, cmd: Command) => {
+      await runScan(files, flags, cmd);
     });
 }
 
-async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
+async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Promise<void> {
   const network = parseSiteFlags(flags);
   if (network.length > 0 && positional.length > 0) {
     throw new UsageError("give strain files either as arguments or with --site NAME=FILE, not both");
@@ -109,8 +110,11 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
   const format = chooseCandidateFormat(flags);
+  // A shard creates its output directory itself (every task of a job array may race to do so).
+  if (flags.out && !flags.shard) checkOutputFile("--out", flags.out);
+  if (flags.plot) checkOutputDirectory("--plot", flags.plot);
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
@@ -124,7 +128,7 @@ async function runScan(positional: string[], flags: ScanFlags): Promise<void> {
     : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
 
   const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
-  const { templates, description: bankDescription } = resolveTemplates(flags, massRangeSolar, fMinHz);
+  const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);

@@ -1,6 +1,4 @@
 import type { Command } from "commander";
-import { existsSync, statSync } from "node:fs";
-import { dirname, resolve } from "node:path";
 import {
   type Injection,
   InputError,
@@ -19,6 +17,7 @@ import {
   writeStrain,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
+import { checkOutputFile } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 
 interface SimulateFlags {
@@ -71,11 +70,6 @@ export function registerSimulate(program: Command): void {
     });
 }
 
-function checkWritable(flag: string, path: string): void {
-  const dir = dirname(resolve(path));
-  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
-  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
-}
 
 /** True when the user typed this option (not just its default). */
 function given(cmd: Command, name: string): boolean {
@@ -132,8 +126,8 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     return { detector: d, out, manifest: multi ? `${out}.injections.json` : (flags.manifest ?? `${out}.injections.json`) };
   });
   for (const o of outputs) {
-    checkWritable("--out", o.out);
-    checkWritable("--manifest", o.manifest);
+    checkOutputFile("--out", o.out);
+    checkOutputFile("--manifest", o.manifest);
   }
 
   const random = flags.injectRandom !== undefined;

@@ -54,7 +54,7 @@ export function chirpTimesFromComponents(m1Solar: number, m2Solar: number, f0Hz:
   return chirpTimesFromMassEta(m, (m1Solar * m2Solar) / (m * m), f0Hz);
 }
 
-/** Chirp mass Mc = η^{3/5} M (solar masses). Peters & Mathews, Phys. Rev. 131, 435 (1963). */
+/** Chirp mass Mc = η^{3/5} M (solar masses); common practice, e.g. Cutler & Flanagan, Phys. Rev. D 49, 2658 (1994). */
 export function chirpMassFromMassEta(totalMassSolar: number, eta: number): number {
   return Math.pow(eta, 0.6) * totalMassSolar;
 }

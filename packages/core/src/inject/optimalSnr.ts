@@ -10,7 +10,7 @@ export interface PsdLike {
 
 /**
  * Optimal SNR of a sampled strain segment: ρ² = 4 Σ_k |h̃(f_k)|² / S_n(f_k) Δf over fMinHz ≤ f_k < Nyquist
- * (the inner product (h|h) of Finn, Phys. Rev. D 46, 5236 (1992); design.md's Fourier convention),
+ * (the inner product (h|h) of Finn, Phys. Rev. D 46, 5236 (1992); the project's Fourier convention (DEVELOPERS.md)),
  * with h̃(f_k) = Δt · DFT(h)_k of the series zero-padded to a power of two, Δf = 1/(N Δt).
  * Bins where S_n is not a positive finite number are skipped.
  */

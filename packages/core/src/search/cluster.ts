@@ -5,8 +5,8 @@ export interface Clusterable {
 }
 
 /**
- * Keeps each item that is the loudest within ±window seconds of itself (ties broken by earlier
- * time, then by input order), across time and across the bank: one survivor per chirp.
+ * Keeps each item that is the loudest within ±window seconds of itself (ties broken by input
+ * order: the earlier item in `items` wins), across time and across the bank: one survivor per chirp.
  * Returns the survivors in time order. Common practice, no source.
  */
 export function clusterByTime<T extends Clusterable>(items: readonly T[], windowSeconds: number): T[] {

@@ -58,7 +58,14 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
         (o.segmentSeconds === undefined ? " (the data is too short; raise --fmin or use heavier masses)" : "; use a longer --segment"),
     );
   }
-  return planSegments(length, size, invalidStart, invalidEnd);
+  const plan = planSegments(length, size, invalidStart, invalidEnd);
+  if (plan.segments.length === 0) {
+    throw new InputError(
+      `the data (${(length / sampleRate).toFixed(1)} s) is too short to search: templates need ${(longest + truncSeconds).toFixed(1)} s of data ` +
+        `before a coalescence and the inverse-PSD filter ${truncSeconds.toFixed(1)} s at each end; raise --fmin, use heavier masses or a longer file`,
+    );
+  }
+  return plan;
 }
 
 /** Length (s) of the inverse-PSD filter the segments are padded for. */

@@ -1,0 +1,23 @@
+import { existsSync, statSync } from "node:fs";
+import { dirname, resolve } from "node:path";
+import { UsageError } from "./errors.js";
+
+/**
+ * Checks, before any work, that a file can be written at `path` (its directory exists and the path
+ * is not a directory), so a long run never fails at the end on an output it could not write.
+ */
+export function checkOutputFile(flag: string, path: string): void {
+  const dir = dirname(resolve(path));
+  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
+  if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
+}
+
+/** Checks that `path` is a directory or can be created as one (its parent exists). */
+export function checkOutputDirectory(flag: string, path: string): void {
+  if (existsSync(path)) {
+    if (!statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} exists and is not a directory`);
+    return;
+  }
+  const parent = dirname(resolve(path));
+  if (!existsSync(parent) || !statSync(parent).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
+}
