@@ -94,5 +94,14 @@ describe("chirpsieve scan", () => {
     it("an unknown option", () => expectBad([file, ...base, "--no-such-option"], "--no-such-option"));
     it("a malformed mass range", () => expectBad([file, "--mass-range", "3:1", "--quiet"], "--mass-range"));
     it("a missing file", () => expectBad([join(dir, "nope.f32"), ...base], "nope.f32"));
+
+    it("--out naming an input (the sidecar) is refused and the input is left intact", () => {
+      const sidecar = `${file}.json`;
+      const before = readFileSync(sidecar, "utf8");
+      const r = runCli(["scan", file, ...base, "--out", sidecar]);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toContain("--out");
+      expect(readFileSync(sidecar, "utf8")).toBe(before);
+    });
   });
 });

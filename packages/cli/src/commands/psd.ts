@@ -12,7 +12,7 @@ import {
   type WelchPsd,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputFile } from "../outputPath.js";
+import { checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag } from "../options.js";
 import { renderSvg } from "../plot.js";
 
@@ -64,8 +64,8 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const fminFlag = flags.fmin === undefined ? undefined : parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
-  if (flags.out) checkOutputFile("--out", flags.out);
-  if (flags.plot) checkOutputFile("--plot", flags.plot);
+  if (flags.out) checkOutputFile("--out", flags.out, strainInputPaths([file]));
+  if (flags.plot) checkOutputFile("--plot", flags.plot, strainInputPaths([file]));
 
   const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
   const fs = strain.sampleRate;

@@ -25,7 +25,7 @@ import {
   type StrainSource,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputFile } from "../outputPath.js";
+import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
@@ -113,7 +113,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const wallStart = performance.now();
   // Parse and check everything before any work.
   const requirements: Requirement[] = flags.require.map((r) => asUsage("--require", () => parseRequirement(r)));
-  const count = parseNumberFlag("--count", flags.count, { min: 1, integer: true });
+  const count = parseNumberFlag("--count", flags.count, { min: 1, max: 1_000_000, integer: true });
   const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange);
   if (flags.snrRange !== undefined && flags.distanceRange !== undefined) throw new UsageError("--snr-range and --distance-range: give one, not both");
   if (flags.snrRange === undefined && flags.distanceRange === undefined) throw new UsageError("--snr-range or --distance-range: one is needed to place the injections");
@@ -133,8 +133,10 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   if (flags.bank && cmd.getOptionValueSource("matchFloor") === "cli") throw new UsageError("--match-floor: only applies to a bank built on the fly, not with --bank");
   const noiseModel: PsdModel | undefined = flags.noiseCurve === undefined ? undefined : asUsage("--noise-curve", () => psdModelFromSpec(flags.noiseCurve!));
   if (strainFiles.length === 0 && fMinFlag >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
-  if (flags.out) checkOutputFile("--out", flags.out);
-  if (flags.report) checkOutputFile("--report", flags.report);
+  const inputs = [...strainInputPaths(flags.strain ?? []), ...(flags.bank ? [flags.bank] : [])];
+  if (flags.out) checkOutputFile("--out", flags.out, inputs);
+  if (flags.report) checkOutputFile("--report", flags.report, inputs);
+  if (flags.state) checkOutputDirectory("--state", flags.state);
   const stateDir = flags.state ?? (flags.out ? `${flags.out}.state` : flags.report ? `${flags.report}.state` : undefined);
   if (flags.resume && stateDir === undefined) throw new UsageError("--resume: needs --state DIR, --out or --report to know where the state file is");
 

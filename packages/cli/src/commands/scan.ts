@@ -22,7 +22,7 @@ import {
   startScanRun,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputDirectory, checkOutputFile } from "../outputPath.js";
+import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
@@ -113,7 +113,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const { fMinHz: fMinFlag, snrThreshold, chi2Bins, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
   const format = chooseCandidateFormat(flags);
   // A shard creates its output directory itself (every task of a job array may race to do so).
-  if (flags.out && !flags.shard) checkOutputFile("--out", flags.out);
+  if (flags.out && !flags.shard) checkOutputFile("--out", flags.out, [...strainInputPaths(files), ...(flags.bank ? [flags.bank] : []), ...(flags.sites ? [flags.sites] : [])]);
   if (flags.plot) checkOutputDirectory("--plot", flags.plot);
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);

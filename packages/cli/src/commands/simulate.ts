@@ -85,6 +85,9 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   const fmin = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   if (fmin >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
   const samples = Math.round(duration * rate);
+  // One series is held in memory while it is written: keep it within what a typed array and this
+  // machine can hold (2^30 samples is 72 h at 4096 Hz).
+  if (samples > 2 ** 30) throw new UsageError(`--duration: ${flags.duration} s at ${flags.rate} Hz is ${samples.toExponential(2)} samples; at most 2^30 per file`);
   if (Math.abs(samples - duration * rate) > 1e-6 * Math.max(1, samples)) {
     throw new UsageError(`--duration: ${flags.duration} s at ${flags.rate} Hz is not a whole number of samples`);
   }
@@ -126,7 +129,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     return { detector: d, out, manifest: multi ? `${out}.injections.json` : (flags.manifest ?? `${out}.injections.json`) };
   });
   for (const o of outputs) {
-    checkOutputFile("--out", o.out);
+    checkOutputFile("--out", o.out, flags.inject ? [flags.inject] : []);
     checkOutputFile("--manifest", o.manifest);
   }
 

@@ -1,12 +1,24 @@
-import { closeSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from "node:fs";
+import { closeSync, fsyncSync, openSync, renameSync, rmSync, statSync, writeSync } from "node:fs";
+import { InputError } from "../errors.js";
 import { basename, dirname, join } from "node:path";
 
 /**
  * Writes `content` to `path` so that a reader never sees a partial file: the bytes go to a
  * temporary file in the same directory, are flushed, and the file is then renamed over `path`
- * (rename is atomic within one file system). On failure the temporary file is removed.
+ * (rename is atomic within one file system). On failure the temporary file is removed, and a
+ * file-system error names `path`, not the temporary file. Only regular files are replaced: a
+ * directory, device or other special file at `path` is an InputError.
  */
 export function writeFileAtomic(path: string, content: string | Uint8Array): void {
+  let existing;
+  try {
+    existing = statSync(path);
+  } catch {
+    existing = undefined;
+  }
+  if (existing && !existing.isFile()) {
+    throw new InputError(`${path}: exists and is not a regular file (${existing.isDirectory() ? "a directory" : "a device or special file"}); give a file name`);
+  }
   const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now()}.partial`);
   let fd = -1;
   try {
@@ -21,6 +33,7 @@ export function writeFileAtomic(path: string, content: string | Uint8Array): voi
   } catch (err) {
     if (fd >= 0) closeSync(fd);
     rmSync(tmp, { force: true });
+    if (err && typeof err === "object" && "path" in err) (err as { path: string }).path = path;
     throw err;
   }
 }

@@ -46,7 +46,9 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
   const invalidEnd = Math.ceil(truncSeconds * sampleRate);
   let size: number;
   if (o.segmentSeconds !== undefined) {
-    size = nextPowerOfTwo(Math.round(o.segmentSeconds * sampleRate));
+    // Never longer than the data needs (zero padding beyond it buys nothing), nor than 2^26 samples.
+    size = Math.min(nextPowerOfTwo(Math.round(o.segmentSeconds * sampleRate)), Math.max(nextPowerOfTwo(length), nextPowerOfTwo(invalidStart + invalidEnd + 1)));
+    if (size > 2 ** 26) throw new InputError(`segment of ${o.segmentSeconds} s at ${sampleRate} Hz is more than 2^26 samples; use a shorter --segment`);
   } else {
     // Four times the padding keeps ≥ ~3/4 of each segment searchable; at least 64 s.
     size = nextPowerOfTwo(Math.max(4 * (invalidStart + invalidEnd), 64 * sampleRate));
