@@ -1,5 +1,5 @@
 // Reading and writing template-bank files (JSON).
-import { readFileSync } from "node:fs";
+import { readTextInput } from "../io/readTextInput.js";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
 import { chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
@@ -38,7 +38,7 @@ export function writeBankFile(path: string, bank: TemplateBank): void {
 
 /** Reads and validates a bank file; errors name the file and the entry. */
 export function readBankFile(path: string): TemplateBank {
-  const text = readFileSync(path, "utf8");
+  const text = readTextInput(path, "bank file");
   return parseBankFile(text, path);
 }
 

@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readTextInput } from "../io/readTextInput.js";
 import { InputError } from "../errors.js";
 import { type Detector, SITE_A, SITE_B, detectorFromGeodetic } from "../waveform/antenna.js";
 
@@ -152,7 +152,7 @@ function show(x: unknown): string {
 
 /** Reads and parses a sites file (see {@link parseSites}). */
 export function readSitesFile(path: string, reserved: readonly Site[] = BUILTIN_SITES): Site[] {
-  return parseSites(readFileSync(path, "utf8"), path, reserved);
+  return parseSites(readTextInput(path, "sites file"), path, reserved);
 }
 
 /** The sites a command can use: the built-in ones, followed by those of `sitesFile` when given. */

@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readTextInput } from "../io/readTextInput.js";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
 import { chirpMass } from "../physics/masses.js";
@@ -96,5 +96,5 @@ export function parseInjections(text: string, fileName: string): Injection[] {
 
 /** Reads and validates an injection file (see {@link parseInjections}). */
 export function readInjectionFile(path: string): Injection[] {
-  return parseInjections(readFileSync(path, "utf8"), path);
+  return parseInjections(readTextInput(path, "injection file"), path);
 }

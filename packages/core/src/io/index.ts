@@ -3,3 +3,4 @@ export * from "./strainTypes.js";
 export * from "./strainFormat.js";
 export * from "./strainFile.js";
 export * from "./memoryStrain.js";
+export * from "./readTextInput.js";
