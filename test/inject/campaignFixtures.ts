@@ -1,7 +1,7 @@
 // Shared set-up for the campaign tests: a narrow BNS population in simulated ajith2011 noise and a
 // small dense bank (a stand-in for a 0.97 minimal-match lattice bank over the same masses).
 import { ajith2011, type CampaignOptions } from "@chirpsieve/core";
-import { chirpMassGrid } from "../search/fixtures.js";
+import { chirpMassGrid, standardSearch } from "../search/fixtures.js";
 
 export const FS = 2048;
 /** BNS chirps last ~25 s from 40 Hz: short stretches keep the campaigns quick. */
@@ -22,14 +22,6 @@ export function bnsCampaign(count: number, snrRange: [number, number], seed: str
   return {
     population: { count, massRangeSolar: MASS_RANGE, snrRange, seed },
     data: { kind: "simulated", psd: ajith2011, sampleRate: FS },
-    search: {
-      templates: BNS_BANK,
-      fMinHz: FMIN,
-      snrThreshold: threshold,
-      chi2Bins: 16,
-      clusterWindowSeconds: 1,
-      psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
-      fftBackend: "pffft",
-    },
+    search: standardSearch(BNS_BANK, FMIN, threshold),
   };
 }

@@ -8,7 +8,7 @@ import {
   runCampaign,
   type CampaignOptions,
 } from "@chirpsieve/core";
-import { chirpMassGrid } from "../search/fixtures.js";
+import { chirpMassGrid, standardSearch } from "../search/fixtures.js";
 
 beforeAll(async () => {
   await loadFftBackends();
@@ -24,15 +24,7 @@ function strainCampaign(count: number, seconds: number, distribution?: "uniform"
       ? { count, massRangeSolar: [8, 12], distanceMpc: [200, 600], distanceDistribution: distribution, seed: "strain" }
       : { count, massRangeSolar: [8, 12], snrRange: [12, 20], seed: "strain" },
     data: { kind: "strain", sources: [arraySource(noise, FS, 1000, "user.f64")] },
-    search: {
-      templates: chirpMassGrid(6.5, 10.6, 0.01, [1, 0.75]),
-      fMinHz: 30,
-      snrThreshold: 7,
-      chi2Bins: 16,
-      clusterWindowSeconds: 1,
-      psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
-      fftBackend: "pffft",
-    },
+    search: standardSearch(chirpMassGrid(6.5, 10.6, 0.01, [1, 0.75]), 30, 7),
     injectionsPerBatch: 4,
   };
 }

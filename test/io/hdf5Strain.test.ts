@@ -4,7 +4,7 @@ import h5wasm from "h5wasm/node";
 import { beforeAll, describe, expect, it } from "vitest";
 import { InputError, openStrain, readStrain, writeStrain } from "@chirpsieve/core";
 import { setHdf5TimeoutMs } from "../../packages/core/src/io/hdf5Client.js";
-import { syntheticStrain, useTempDir } from "./tempDir.js";
+import { syntheticStrain, useTempDir, inputErrorOf } from "./tempDir.js";
 
 const tmp = useTempDir("hdf5");
 
@@ -30,16 +30,6 @@ function buildH5(name: string, datasets: DatasetSpec[], rootAttrs: Attr[] = []):
   return p;
 }
 
-async function inputErrorOf(p: Promise<unknown>): Promise<string> {
-  const err = await p.then(
-    () => undefined,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(InputError);
-  const msg = (err as Error).message;
-  expect(msg).not.toMatch(/\n/);
-  return msg;
-}
 
 beforeAll(async () => {
   await h5wasm.ready;

@@ -1,7 +1,7 @@
 import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { InputError, openStrain, readStrain, writeStrain } from "@chirpsieve/core";
-import { syntheticStrain, useTempDir } from "./tempDir.js";
+import { inputErrorOf, syntheticStrain, useTempDir } from "./tempDir.js";
 
 const tmp = useTempDir("raw");
 
@@ -14,13 +14,7 @@ function handMade(name: string, samples: Float32Array | Float64Array | Uint8Arra
 }
 
 async function expectInputError(p: Promise<unknown>, ...parts: (string | RegExp)[]): Promise<string> {
-  const err = await p.then(
-    () => undefined,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(InputError);
-  const msg = (err as Error).message;
-  expect(msg).not.toMatch(/\n/);
+  const msg = await inputErrorOf(p);
   for (const part of parts) {
     if (typeof part === "string") expect(msg).toContain(part);
     else expect(msg).toMatch(part);

@@ -1,18 +1,10 @@
 import { mkdirSync, writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { InputError, openStrain, readStrain, strainFormatOf, strainSourceFromSeries, writeStrain } from "@chirpsieve/core";
-import { useTempDir } from "./tempDir.js";
+import { useTempDir, inputErrorOf } from "./tempDir.js";
 
 const tmp = useTempDir("file");
 
-async function inputErrorOf(p: Promise<unknown>): Promise<string> {
-  const err = await p.then(
-    () => undefined,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(InputError);
-  return (err as Error).message;
-}
 
 describe("strain file format and writer checks", () => {
   it("tells the format from the extension, case-insensitively, or from the option", () => {

@@ -2,7 +2,8 @@
 import { mkdtempSync, readdirSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { afterAll } from "vitest";
+import { afterAll, expect } from "vitest";
+import { InputError } from "@chirpsieve/core";
 
 /** Makes a fresh folder for one test file and removes it (with everything in it) afterwards. */
 export function useTempDir(prefix: string): { path(name: string): string; dir: string; files(): string[] } {
@@ -20,4 +21,16 @@ export function syntheticStrain(n: number, seed = 1): Float64Array {
     out[i] = ((x / 2 ** 32) * 2 - 1) * 1e-21 * (1 + Math.sin(i / 7));
   }
   return out;
+}
+
+/** Awaits a promise that must reject with a one-line InputError, and returns its message. */
+export async function inputErrorOf(p: Promise<unknown>): Promise<string> {
+  const err = await p.then(
+    () => undefined,
+    (e: unknown) => e,
+  );
+  expect(err).toBeInstanceOf(InputError);
+  const msg = (err as Error).message;
+  expect(msg).not.toMatch(/\n/);
+  return msg;
 }

@@ -1,7 +1,7 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { InputError, openStrain, readStrain, writeStrain } from "@chirpsieve/core";
-import { syntheticStrain, useTempDir } from "./tempDir.js";
+import { openStrain, readStrain, writeStrain } from "@chirpsieve/core";
+import { syntheticStrain, useTempDir, inputErrorOf } from "./tempDir.js";
 
 const tmp = useTempDir("text");
 
@@ -11,16 +11,6 @@ function textFile(name: string, text: string): string {
   return p;
 }
 
-async function inputErrorOf(p: Promise<unknown>): Promise<string> {
-  const err = await p.then(
-    () => undefined,
-    (e: unknown) => e,
-  );
-  expect(err).toBeInstanceOf(InputError);
-  const msg = (err as Error).message;
-  expect(msg).not.toMatch(/\n/);
-  return msg;
-}
 
 describe("text strain files", () => {
   const data = syntheticStrain(3000, 11);

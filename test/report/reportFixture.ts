@@ -10,22 +10,14 @@ import {
   type CampaignOptions,
 } from "@chirpsieve/core";
 import { campaignDocument, type CampaignDocument } from "../../packages/cli/src/reportData.js";
-import { chirpMassGrid } from "../search/fixtures.js";
+import { chirpMassGrid, standardSearch } from "../search/fixtures.js";
 
 export async function smallCampaignDocument(): Promise<CampaignDocument> {
   await loadFftBackends();
   const options: CampaignOptions = {
     population: { count: 24, massRangeSolar: [8, 12], distanceMpc: [100, 1500], seed: "report" },
     data: { kind: "simulated", psd: ajith2011, sampleRate: 2048 },
-    search: {
-      templates: chirpMassGrid(6.5, 10.6, 0.01, [1, 0.75]),
-      fMinHz: 30,
-      snrThreshold: 7,
-      chi2Bins: 16,
-      clusterWindowSeconds: 1,
-      psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
-      fftBackend: "pffft",
-    },
+    search: standardSearch(chirpMassGrid(6.5, 10.6, 0.01, [1, 0.75]), 30, 7),
   };
   const result = await runCampaign(options);
   const outcomes = result.batches.flatMap((b) => b.injections);

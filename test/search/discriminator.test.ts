@@ -1,19 +1,11 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { ajith2011, arraySource, loadFftBackends, searchSource, type SearchOptions } from "@chirpsieve/core";
-import { chirpMassGrid, simulatedData, taylorF2Chirp } from "./fixtures.js";
+import { chirpMassGrid, simulatedData, standardSearch, taylorF2Chirp } from "./fixtures.js";
 
 const FS = 2048;
 const FMIN = 30;
 const bank = chirpMassGrid(4, 25, 0.01, [1, 0.7, 0.5]);
-const opts: SearchOptions = {
-  templates: bank,
-  fMinHz: FMIN,
-  snrThreshold: 6,
-  chi2Bins: 16,
-  clusterWindowSeconds: 1,
-  psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
-  fftBackend: "pffft",
-};
+const opts: SearchOptions = standardSearch(bank, FMIN, 6);
 
 /** A sine-Gaussian burst h(t) = A exp(−(t−t0)²/τ²) sin(2πf0(t−t0)), τ = Q/(√2 π f0) (common practice, no source). */
 function addSineGaussian(data: Float64Array, t0: number, f0: number, q: number, amplitude: number): void {

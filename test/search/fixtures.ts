@@ -10,6 +10,7 @@ import {
   timeDelayFromEarthCenter,
   type Injection,
   type PsdModel,
+  type SearchOptions,
   type SearchTemplate,
 } from "@chirpsieve/core";
 
@@ -98,4 +99,20 @@ export function taylorF2Chirp(m1: number, m2: number, t0: number, n: number, fs:
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[i] = out[2 * i] * df;
   return x;
+}
+
+/**
+ * The search settings most tests use: 16 chi-squared bands, a 1 s cluster window, a median Welch
+ * PSD from 4 s segments and the SIMD FFT (call loadFftBackends() first).
+ */
+export function standardSearch(templates: SearchTemplate[], fMinHz: number, snrThreshold: number): SearchOptions {
+  return {
+    templates,
+    fMinHz,
+    snrThreshold,
+    chi2Bins: 16,
+    clusterWindowSeconds: 1,
+    psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
+    fftBackend: "pffft",
+  };
 }

@@ -6,21 +6,13 @@ import {
   searchSource,
   type SearchOptions,
 } from "@chirpsieve/core";
-import { arrivalTime, atSnr, chirpMassGrid, injectionAt, simulatedData } from "./fixtures.js";
+import { arrivalTime, atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch } from "./fixtures.js";
 
 const FS = 2048;
 const FMIN = 30;
 
 function options(templates: SearchOptions["templates"]): SearchOptions {
-  return {
-    templates,
-    fMinHz: FMIN,
-    snrThreshold: 6,
-    chi2Bins: 16,
-    clusterWindowSeconds: 1,
-    psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
-    fftBackend: "pffft",
-  };
+  return standardSearch([...templates], FMIN, 6);
 }
 
 const chirpMass = (m1: number, m2: number) => (m1 * m2) ** 0.6 / (m1 + m2) ** 0.2;

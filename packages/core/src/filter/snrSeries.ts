@@ -2,8 +2,10 @@ import type { ComplexPlan } from "../fft/types.js";
 import type { SegmentSpectrum } from "./segmentSpectrum.js";
 
 /**
- * Computes the complex matched-filter SNR series of one frequency-domain template against one
- * segment, into `plan.output` (interleaved, N complex samples):
+ * Computes the complex matched-filter SNR series of one frequency-domain template (any waveform)
+ * against one segment. The search itself uses the TaylorF2-specialised path (search/bankFilter.ts:
+ * amplitude law folded into the segment weights, phase by recurrence), which is checked against
+ * this general form in test/perf/fastPhase.test.ts. Output goes into `plan.output` (interleaved, N complex samples):
  *
  *   z[j] = (4 Δf / σ) Σ_{k=kLow}^{kEnd−1} d̃[k] h̃*[k] / S[k] · e^{+2πijk/N},
  *   σ² = 4 Δf Σ |h̃[k]|² / S[k],
