@@ -5,6 +5,8 @@ import { join } from "node:path";
 import { ajith2011, buildBank, formatBankFile, parseBankFile, readBankFile, writeBankFile } from "@chirpsieve/core";
 
 const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011, maxMassRatio: 2 });
+/** A template with unequal masses (swapping its masses makes it invalid). */
+const unequal = bank.templates.findIndex((t) => t.primaryMass > t.secondaryMass * 1.01);
 bank.generator = { tool: "chirpsieve", version: "0.0.0-test", arguments: ["bank", "--mass-range", "8:20"] };
 
 describe("bank files", () => {
@@ -37,10 +39,10 @@ describe("bank files", () => {
       [edit((o) => delete o.templates[0].tau3), /^b\.json: templates\[0\] is missing "tau3"/],
       [
         edit((o) => {
-          const t = o.templates[0];
+          const t = o.templates[unequal];
           [t.primaryMass, t.secondaryMass] = [t.secondaryMass, t.primaryMass];
         }),
-        /^b\.json: templates\[0\]: secondaryMass .* exceeds primaryMass/,
+        new RegExp(`^b\\.json: templates\\[${unequal}\\]: secondaryMass .* exceeds primaryMass`),
       ],
     ];
     for (const [content, message] of bad) {

@@ -7,7 +7,7 @@ import {
   chirpTimesFromComponents,
   createChirpTimeMetric,
   createMassRegion,
-  effectiveMetric,
+  placementMetric,
   type TemplateBank,
 } from "@chirpsieve/core";
 
@@ -27,7 +27,7 @@ function worstCoveringRatio(bank: TemplateBank, draws: number, seed: string): nu
     if (!region.containsMasses(a, b)) continue;
     done++;
     const t = chirpTimesFromComponents(Math.max(a, b), Math.min(a, b), fLow);
-    const g = effectiveMetric(metric.sample(t.tau0, t.tau3), t.tau0, t.tau3, bank.matchFloor);
+    const g = placementMetric(metric.tangent(t.tau0, t.tau3), t.tau0, t.tau3, bank.matchFloor);
     let best = Infinity;
     for (const tp of bank.templates) {
       const d0 = tp.tau0 - t.tau0;

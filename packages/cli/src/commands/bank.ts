@@ -198,8 +198,9 @@ function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport):
   const [a, b] = bank.massRangeSolar;
   return (
     `${file}: ${r.templateCount} templates for ${a}–${b} M_sun from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
-    `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}; ` +
-    `the excess is the boundary layer and the ISCO-cutoff narrowing), ${r.patchCount} lattice patch${r.patchCount === 1 ? "" : "es"}`
+    `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}); ` +
+    `area under the minimal-match contours the lattice follows plus boundary layer ${r.boundaryAwareEstimate.toFixed(0)} ` +
+    `(count/that ${(r.templateCount / r.boundaryAwareEstimate).toFixed(2)}), ${r.patchCount} lattice patch${r.patchCount === 1 ? "" : "es"}`
   );
 }
 

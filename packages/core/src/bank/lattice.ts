@@ -2,7 +2,7 @@
 import { InputError } from "../errors.js";
 import type { MassRegion } from "./massRegion.js";
 import type { ChirpTimeMetric, Metric2 } from "./metric.js";
-import { effectiveMetric } from "./effectiveMetric.js";
+import { placementMetric } from "./placementMetric.js";
 import { chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
 import type { PhaseChart } from "./phaseChart.js";
 
@@ -102,7 +102,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   // Effective metric in chart coordinates, and the proper-area density in (τ0, η) at that point.
   const sampleAt = (tau0: number, eta: number): { g: Metric2; density: number } => {
     const tau3 = region.tau3At(tau0, eta);
-    const gTau = effectiveMetric(metric.sample(tau0, tau3), tau0, tau3, minimalMatch);
+    const gTau = placementMetric(metric.tangent(tau0, tau3), tau0, tau3, minimalMatch);
     const dens = Math.sqrt(Math.max(0, gTau.g00 * gTau.g11 - gTau.g01 * gTau.g01)) * ((0.6 * tau3) / eta);
     return { g: chart.pullBack(gTau, tau0, tau3), density: dens };
   };

@@ -4,6 +4,7 @@ import type { PsdModel } from "../noise/psdModel.js";
 import { taylorF2PhaseCoefficientsInto } from "../waveform/pnCoefficients.js";
 import { T_SUN } from "../physics/constants.js";
 import { iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
+import { createTangentMatch, type TangentMatch } from "./tangentMatch.js";
 
 /** A symmetric 2×2 metric g_ij in (τ0, τ3), units s⁻². Mismatch ≈ g00 dτ0² + 2 g01 dτ0 dτ3 + g11 dτ3². */
 export interface Metric2 {
@@ -39,7 +40,7 @@ export interface MetricSample {
    * when the cutoff is the ISCO (0 when a fixed fHigh below the ISCO is the cutoff). Two templates whose
    * ISCOs differ by Δ ln f_c = −Δ ln M lose, besides the phase mismatch, a further ≈ ½ D |Δ ln M| of
    * match, because the longer one carries power the shorter one lacks: match ≈ sqrt(I7(f_a)/I7(f_b)).
-   * This term is linear in the displacement, so no quadratic metric holds it; see effectiveMetric.ts.
+   * This term is linear in the displacement, so no quadratic metric holds it; see placementMetric.ts.
    */
   cutoffSensitivity: number;
 }
@@ -54,6 +55,8 @@ export interface ChirpTimeMetric {
   at(tau0: number, tau3: number): Metric2;
   /** The metric with the cutoff and its sensitivity at (τ0, τ3). */
   sample(tau0: number, tau3: number): MetricSample;
+  /** The match model of the phase linearised at (τ0, τ3), whose expansion is the metric (tangentMatch.ts). */
+  tangent(tau0: number, tau3: number): TangentMatch;
 }
 
 /** g_ij Δθ^i Δθ^j: the squared metric distance, i.e. the predicted mismatch 1 − match (Owen 1996). */
@@ -137,6 +140,7 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     p1 = new Float64Array(n);
     ft = new Float64Array(n);
   };
+  let lastN = 0;
   const a = new Float64Array(8);
   const b = new Float64Array(8);
   const ap = new Float64Array(8);
@@ -164,6 +168,7 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     const lastStep = lnUp - lnF[j];
     const n = lastStep > 1e-12 ? j + 2 : j + 1;
     ensureScratch(n);
+    lastN = n;
     taylorF2PhaseCoefficientsInto(eta, pnOrder, a, b);
     const de = 1e-6;
     taylorF2PhaseCoefficientsInto(eta + de, pnOrder, ap, bp);
@@ -262,5 +267,15 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
   };
   const at = (tau0: number, tau3: number): Metric2 => sample(tau0, tau3).g;
 
-  return { fLowHz, fHighHz, upperCutoffHz, at, sample };
+  const tangent = (tau0: number, tau3: number): TangentMatch => {
+    const smp = sample(tau0, tau3);
+    const n = lastN;
+    let sw = 0;
+    for (let q = 0; q < n; q++) sw += wq[q];
+    const w = new Float64Array(n);
+    for (let q = 0; q < n; q++) w[q] = wq[q] / sw;
+    return createTangentMatch(smp, w, p0.slice(0, n), p1.slice(0, n), ft.slice(0, n));
+  };
+
+  return { fLowHz, fHighHz, upperCutoffHz, at, sample, tangent };
 }

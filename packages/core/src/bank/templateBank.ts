@@ -5,7 +5,7 @@ import { createChirpTimeMetric } from "./metric.js";
 import { createMassRegion } from "./massRegion.js";
 import { placeA2Lattice } from "./lattice.js";
 import { boundaryLayerEstimate, hexagonCellArea, regionProperArea, regionProperPerimeter } from "./metricVolume.js";
-import { effectiveMetric } from "./effectiveMetric.js";
+import { placementMetric } from "./placementMetric.js";
 import { createPhaseChart } from "./phaseChart.js";
 import { chirpMassFromMassEta, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
 
@@ -65,7 +65,8 @@ export interface BankPlacementReport {
   projectedCount: number;
   /** ∫ sqrt(det g) dτ0 dτ3 over the region with the phase metric g (Owen 1996). */
   properArea: number;
-  /** The same with the effective metric the lattice was laid with (≥ properArea; see effectiveMetric.ts). */
+  /** The same with the placement metric the lattice was laid with (placementMetric.ts; below properArea where the
+   * minimal-match contour reaches beyond the quadratic metric's ellipse, above it where the ISCO cutoff moves). */
   effectiveProperArea: number;
   /** properArea / hexagonal cell area (3√3/2)(1 − MM): the metric-volume estimate of the count. */
   volumeEstimate: number;
@@ -129,7 +130,7 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
     { minMassSolar: mMin, maxMassSolar: mMax, maxTotalMassSolar: options.maxTotalMassSolar, maxMassRatio: q },
     fminHz,
   );
-  const metric = createChirpTimeMetric({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz });
+  const metric = createChirpTimeMetric({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, pointsPerEFold: 60 });
   const chart = createPhaseChart({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, region });
   const placement = placeA2Lattice({ region, metric, chart, minimalMatch: matchFloor, tolerance: options.tolerance });
   const templates: Template[] = placement.points.map((p) => {
@@ -140,10 +141,10 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
   });
   templates.sort((a, b) => a.chirpMass - b.chirpMass || a.primaryMass - b.primaryMass);
   const properArea = regionProperArea(region, (t0, t3) => metric.at(t0, t3));
-  const effectiveProperArea = regionProperArea(region, (t0, t3) => effectiveMetric(metric.sample(t0, t3), t0, t3, matchFloor));
+  const effectiveProperArea = regionProperArea(region, (t0, t3) => placementMetric(metric.tangent(t0, t3), t0, t3, matchFloor), 8);
   const cell = hexagonCellArea(matchFloor);
   const properPerimeter = regionProperPerimeter(region, (t0, t3) => metric.at(t0, t3));
-  const effectivePerimeter = regionProperPerimeter(region, (t0, t3) => effectiveMetric(metric.sample(t0, t3), t0, t3, matchFloor));
+  const effectivePerimeter = regionProperPerimeter(region, (t0, t3) => placementMetric(metric.tangent(t0, t3), t0, t3, matchFloor), 60);
   const bank: TemplateBank = {
     fminHz,
     matchFloor,

@@ -130,6 +130,9 @@ export function drawInRegion(region: MassRegion, count: number, space: VerifyDra
   return out;
 }
 
+/** How far (in units of the modelled radius) the quadratic metric's pre-selection reaches. */
+const REACH = 3;
+
 function quantile(sorted: number[], q: number): number {
   if (sorted.length === 0) return NaN;
   const x = q * (sorted.length - 1);
@@ -144,12 +147,14 @@ function quantile(sorted: number[], q: number): number {
  * fitting factor and its use as a coverage measure follow Apostolatos, Phys. Rev. D 52, 605 (1995) (from memory) and
  * Owen, Phys. Rev. D 53, 6749 (1996) (⟨FF³⟩ as the fraction of the event rate kept).
  *
- * Each draw is compared with its metric neighbours only: the templates are indexed in the nearly flat
- * chart of phaseChart.ts; candidates within predicted mismatch d² ≤ 2 (1 − best) + 0.02 (d the metric
- * distance under the phase metric at the draw, pulled back to the chart) are evaluated nearest first,
- * and the radius shrinks as the best match grows. The factor 2 and the 0.02 cover the metric's
- * overestimate of the mismatch at larger distances (the true mismatch stays above ½ d² out to
- * d² = 0.05; test/reference/bank.test.ts), so a skipped template cannot beat the best one found. `exhaustive` evaluates every template instead.
+ * Each draw is compared with its neighbours only. The templates are indexed in the nearly flat chart of
+ * phaseChart.ts; those within metric distance d² ≤ REACH² μ_max of the draw (d under the quadratic
+ * metric at the draw) get a predicted mismatch μ from the match model of tangentMatch.ts plus the
+ * cutoff term of placementMetric.ts, and are evaluated in order of μ while μ ≤ μ_max = 1.5 (1 − best)
+ * + 0.01, which shrinks as the best match grows. The model agrees with direct matches to ~1e-3 out to
+ * mismatch 0.05 (the cutoff term to 15 %; test/reference/bank.test.ts, test/bank/metric.test.ts), and
+ * its contours reach at most ≈ 2 metric radii (REACH = 3 leaves room), so a skipped template cannot
+ * beat the best one found. `exhaustive` evaluates every template instead.
  */
 export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): CoverageReport {
   const started = performance.now();
@@ -236,30 +241,41 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
       for (let i = 0; i < nT; i++) evaluate(i);
     } else {
       const ct = chirpTimesFromComponents(m1, m2, fmin);
-      const gx = chart.pullBack(metric.at(ct.tau0, ct.tau3), ct.tau0, ct.tau3);
+      const tangent = metric.tangent(ct.tau0, ct.tau3);
+      const cutoffLoss = 0.5 * tangent.sample.cutoffSensitivity;
+      const lnMass = Math.log(m1 + m2);
+      const gx = chart.pullBack(tangent.sample.g, ct.tau0, ct.tau3);
       const [px, py] = chart.toX(ct.tau0, ct.tau3);
       // Chart distance bound: d_metric ≥ sqrt(λmin) d_chart, λmin of g_x against the identity.
       const [lamMin] = metricRatioRange(gx, { g00: 1, g01: 0, g11: 1 });
       const seen = new Set<number>();
-      let radius2 = 2 * (1 - bank.matchFloor) + 0.02;
+      const modelled = new Set<number>();
+      const ranked: { i: number; mu: number }[] = [];
+      const allowance = (): number => 1.5 * (1 - best) + 0.01;
+      // Start where a template of a covering bank should be; widen while the best found is worse.
+      let radius2 = REACH * REACH * (1.5 * (1 - bank.matchFloor) + 0.01);
       for (let round = 0; round < 64; round++) {
         index.within(px, py, Math.sqrt(radius2 / lamMin), candidates);
-        const ranked = candidates
-          .filter((i) => !seen.has(i))
-          .map((i) => {
-            const d0 = tx[i] - px;
-            const d1 = ty[i] - py;
-            return { i, d2: gx.g00 * d0 * d0 + 2 * gx.g01 * d0 * d1 + gx.g11 * d1 * d1 };
-          })
-          .filter((c) => c.d2 <= radius2)
-          .sort((a, b) => a.d2 - b.d2 || a.i - b.i);
+        for (const i of candidates) {
+          if (modelled.has(i)) continue;
+          const d0 = tx[i] - px;
+          const d1 = ty[i] - py;
+          if (gx.g00 * d0 * d0 + 2 * gx.g01 * d0 * d1 + gx.g11 * d1 * d1 > radius2) continue;
+          modelled.add(i);
+          const t = templates[i];
+          const mu =
+            tangent.mismatch(t.tau0 - ct.tau0, t.tau3 - ct.tau3) + cutoffLoss * Math.abs(Math.log(t.primaryMass + t.secondaryMass) - lnMass);
+          ranked.push({ i, mu });
+        }
+        ranked.sort((a, b) => a.mu - b.mu || a.i - b.i);
         for (const c of ranked) {
-          if (c.d2 > 2 * (1 - best) + 0.02) break;
+          if (c.mu > allowance()) break;
+          if (seen.has(c.i)) continue;
           seen.add(c.i);
           evaluate(c.i);
         }
-        const need = 2 * (1 - best) + 0.02;
-        if (need <= radius2 || seen.size >= nT) break;
+        const need = REACH * REACH * allowance();
+        if (need <= radius2 || modelled.size >= nT) break;
         radius2 = Math.max(need, 2 * radius2);
       }
       if (bestIdx < 0) {
