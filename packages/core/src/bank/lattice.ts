@@ -3,6 +3,7 @@ import { InputError } from "../errors.js";
 import type { MassRegion } from "./massRegion.js";
 import type { ChirpTimeMetric, Metric2 } from "./metric.js";
 import { placementMetric } from "./placementMetric.js";
+import { placeStrips } from "./stripPlacement.js";
 import { chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
 import type { PhaseChart } from "./phaseChart.js";
 
@@ -22,7 +23,7 @@ export interface LatticePatch {
   tau0Hi: number;
   etaLo: number;
   etaHi: number;
-  /** The conservative effective metric of the patch, in chart coordinates. */
+  /** The conservative placement metric of the patch (placementMetric.ts), in chart coordinates. */
   metric: Metric2;
 }
 
@@ -35,6 +36,8 @@ export interface LatticeOptions {
   minimalMatch: number;
   /** Variation of the metric (λmax/λmin − 1) below which a patch is never split (default 0.05). */
   tolerance?: number;
+  /** Cover a patch with rows along its band instead (stripPlacement.ts) when that needs fewer templates (default true). */
+  bandRows?: boolean;
 }
 
 export interface LatticePlacement {
@@ -78,7 +81,9 @@ export function metricRatioRange(a: Metric2, b: Metric2): [number, number] {
  * templates saved by a tighter metric exceed those a new seam costs (a cost model in the code below).
  * Each patch gets its own lattice, laid with the largest of its sampled metrics (9 × 5 samples; the
  * reference metric scaled by the largest generalised eigenvalue), which is therefore conservative
- * within the patch.
+ * within the patch. The metric sampled is the placement metric of placementMetric.ts: the largest
+ * ellipse inside the minimal-match contour of the linearised-phase match plus the ISCO-cutoff term,
+ * which is wider than the quadratic metric's ellipse along the nearly degenerate direction.
  *
  * Boundaries: a patch keeps every lattice point whose hexagonal (Voronoi) cell meets the patch ∩ region:
  * all points whose centre is inside, plus the cell of every point of a walk along the boundary of
@@ -88,11 +93,14 @@ export function metricRatioRange(a: Metric2, b: Metric2): [number, number] {
  * which keeps the part of their cell inside the region covered because the region is locally convex
  * (as Cokelaer (2007) keeps boundary templates on the physical boundary); so every template lies within
  * the requested limits. A moved point within 0.05 r of another template of its patch is dropped.
+ * Thin patches: where rows along the band (stripPlacement.ts) need fewer templates than the patch's
+ * lattice with its boundary layer, the rows are kept instead (`bandRows`, default on).
  * Deterministic: no randomness; the lattice of a patch is anchored at a sample point of the patch.
  */
 export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   const { region, metric, minimalMatch, chart } = options;
   const tolerance = options.tolerance ?? 0.05;
+  const bandRows = options.bandRows ?? true;
   if (!(minimalMatch > 0 && minimalMatch < 1)) throw new InputError(`minimal match must be in (0, 1) (got ${minimalMatch})`);
   if (!(tolerance > 0)) throw new InputError(`lattice: tolerance must be positive (got ${tolerance})`);
   const r = Math.sqrt(1 - minimalMatch);
@@ -411,7 +419,9 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
         remember(q);
       }
     }
-    points.push(...here);
+    // A thin patch is covered more cheaply by rows along the band (stripPlacement.ts): keep the smaller.
+    const strips = bandRows ? placeStrips({ region, chart, patch, patchIndex: pIndex, radius: r }) : null;
+    points.push(...(strips && strips.length < here.length ? strips : here));
   });
   return { points, patches };
 }

@@ -55,6 +55,8 @@ export interface BuildBankOptions {
   fmaxHz?: number;
   /** Metric variation (λmax/λmin − 1) below which a lattice patch is never split (default 0.05; lattice.ts). */
   tolerance?: number;
+  /** Cover thin patches with rows along the band when that needs fewer templates (default true; stripPlacement.ts). */
+  bandRows?: boolean;
 }
 
 /** Figures about a placement, for summaries. */
@@ -132,7 +134,7 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
   );
   const metric = createChirpTimeMetric({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, pointsPerEFold: 60 });
   const chart = createPhaseChart({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, region });
-  const placement = placeA2Lattice({ region, metric, chart, minimalMatch: matchFloor, tolerance: options.tolerance });
+  const placement = placeA2Lattice({ region, metric, chart, minimalMatch: matchFloor, tolerance: options.tolerance, bandRows: options.bandRows });
   const templates: Template[] = placement.points.map((p) => {
     const { totalMassSolar, eta } = massEtaFromChirpTimes(p.tau0, p.tau3, fminHz);
     const e = Math.min(eta, 0.25);
