@@ -8,6 +8,8 @@ import {
   createChirpTimeMetric,
   createMassRegion,
   placementMetric,
+  estimateTemplateCount,
+  TemplateLimitError,
   verifyBank,
   type TemplateBank,
 } from "@chirpsieve/core";
@@ -92,6 +94,10 @@ describe("hexagonal lattice placement", () => {
       expect(lattice.templateCount).toBeGreaterThan(lattice.volumeEstimate);
       const rows = buildBankWithReport(settings).report;
       expect(rows.templateCount).toBeLessThan(0.92 * lattice.templateCount);
+      // The quick estimate made before placement (measured 1.29× and 1.18× of the count here).
+      const estimate = estimateTemplateCount(settings);
+      expect(estimate / rows.templateCount).toBeGreaterThan(0.6);
+      expect(estimate / rows.templateCount).toBeLessThan(1.7);
     }
   });
 
@@ -107,5 +113,8 @@ describe("hexagonal lattice placement", () => {
     expect(() => buildBank({ ...options, massRangeSolar: [1, 3], fminHz: 800 })).toThrow(/ISCO/);
     expect(() => buildBank({ ...options, fminHz: 5 })).toThrow(/lowest frequency/);
     expect(() => buildBank({ ...options, maxMassRatio: 1 })).toThrow(/maxMassRatio/);
+    // Absurd regions are refused from the count estimate, before any placement work.
+    expect(() => buildBank({ ...options, massRangeSolar: [1e-9, 1e-8] })).toThrow(TemplateLimitError);
+    expect(() => buildBank({ ...options, maxTemplates: 10 })).toThrow(/needs about .* templates, more than the limit of 10$/);
   });
 });

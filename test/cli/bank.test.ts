@@ -1,3 +1,4 @@
+import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -26,6 +27,7 @@ function runCliAll(argsList: string[][]): Promise<CliResult[]> {
 const dir = mkdtempSync(join(tmpdir(), "chirpsieve-cli-bank-"));
 const bankPath = join(dir, "bank.json");
 const region = ["--mass-range", "8:20", "--fmin", "20", "--noise-curve", "ajith2011"];
+const demoStrain = fileURLToPath(new URL("../../data-synthetic/site-a-synthetic.f32", import.meta.url));
 
 function expectOneLineError(r: { code: number; stderr: string }, pattern: RegExp): void {
   expect(r.code).toBe(2);
@@ -103,6 +105,12 @@ describe("chirpsieve bank", () => {
       [["bank", ...region, "--match-floor", "1.5", "--out", out], /--match-floor/],
       [["bank", "--mass-range", "8:20", "--fmin", "500", "--out", out], /--fmin: .*ISCO/],
       [["bank", "verify", broken], /broken\.json: templates\[0\] is missing "secondaryMass"/],
+      // Refused from the count estimate before any placement (these would run for minutes or forever).
+      [["bank", "--mass-range", "1e-9:1e-8", "--fmin", "30", "--out", out], /--mass-range: .* needs about 3\.2e\+27 templates, more than the limit of 1000000/],
+      [["bank", "sweep", "--mass-range", "1:50", "--fmin", "20", "--match-floor", "0.9999"], /minimal match 0\.9999 needs about .* --max-templates/],
+      [["bank", ...region, "--out", out, "--max-templates", "10"], /needs about .* more than the limit of 10;/],
+      [["bank", ...region, "--out", out, "--max-templates", "0"], /--max-templates: must be at least 1/],
+      [["scan", demoStrain, "--mass-range", "0.1:100", "--fmin", "10"], /--mass-range: .* needs about .* templates.*pass --bank/],
     ];
     const results = await runCliAll(cases.map(([args]) => args));
     results.forEach((r, i) => expectOneLineError(r, cases[i][1]));

@@ -3,6 +3,7 @@
 import type { Command } from "commander";
 import {
   buildBank,
+  TemplateLimitError,
   psdModelFromSpec,
   readBankFile,
   type FftBackendChoice,
@@ -96,7 +97,15 @@ export function resolveTemplates(
   if (!massRangeSolar) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
-  const bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
+  let bank;
+  try {
+    bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
+  } catch (err) {
+    if (err instanceof TemplateLimitError) {
+      throw new UsageError(`--mass-range: ${err.message}; narrow it, raise --fmin or lower --match-floor (or build a bank with \`chirpsieve bank\` and pass --bank)`);
+    }
+    throw err;
+  }
   return {
     templates: bank.templates,
     description: `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`,

@@ -3,6 +3,8 @@ import * as Plot from "@observablehq/plot";
 import cliProgress from "cli-progress";
 import {
   buildBankWithReport,
+  DEFAULT_MAX_TEMPLATES,
+  TemplateLimitError,
   iscoFrequencyHz,
   parseMatchFloorRange,
   psdModelFromSpec,
@@ -31,6 +33,7 @@ interface RegionFlags {
   maxTotalMass?: string;
   maxMassRatio?: string;
   fmax?: string;
+  maxTemplates: string;
 }
 
 interface BuildFlags extends RegionFlags {
@@ -76,7 +79,12 @@ export function registerBank(program: Command): void {
       .option("--noise-curve <name|file>", "ajith2011, dis2001, flat, flat:LEVEL, or a two-column PSD table file", "ajith2011")
       .option("--max-total-mass <M>", "largest total mass, solar masses")
       .option("--max-mass-ratio <q>", "largest mass ratio m1/m2 (> 1)")
-      .option("--fmax <Hz>", "fixed upper cutoff of the match (Hz); default: each template's ISCO frequency");
+      .option("--fmax <Hz>", "fixed upper cutoff of the match (Hz); default: each template's ISCO frequency")
+      .option(
+        "--max-templates <n>",
+        "refuse, before placing anything, a bank estimated to need more templates than this",
+        String(DEFAULT_MAX_TEMPLATES),
+      );
 
   withRegion(
     bank
@@ -133,6 +141,7 @@ interface RegionSettings {
   maxTotalMassSolar?: number;
   maxMassRatio?: number;
   fmaxHz?: number;
+  maxTemplates: number;
 }
 
 /** Parses and checks the region flags; every error names its flag. */
@@ -165,7 +174,20 @@ function parseRegion(flags: RegionFlags): RegionSettings {
       `--fmin: ${fminHz} Hz must be below ${fIsco.toFixed(1)} Hz, the ISCO frequency of the heaviest binary in range (${heaviest} M_sun)`,
     );
   }
-  return { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz };
+  const maxTemplates = parseNumberFlag("--max-templates", flags.maxTemplates, { min: 1, integer: true });
+  return { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz, maxTemplates };
+}
+
+/** Names the flags that change the answer when a bank would exceed --max-templates. */
+function withTemplateLimitHint<T>(work: () => T): T {
+  try {
+    return work();
+  } catch (err) {
+    if (err instanceof TemplateLimitError) {
+      throw new UsageError(`--mass-range: ${err.message}; narrow it, raise --fmin, lower --match-floor or raise --max-templates`);
+    }
+    throw err;
+  }
 }
 
 function fmt(x: number, digits = 4): string {
@@ -182,7 +204,7 @@ function runBuild(flags: BuildFlags, argv: string[]): void {
   if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
   checkOutputFile("--out", flags.out);
   if (flags.plot) checkOutputFile("--plot", flags.plot);
-  const { bank, report } = buildBankWithReport({ ...region, matchFloor });
+  const { bank, report } = withTemplateLimitHint(() => buildBankWithReport({ ...region, matchFloor }));
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
   if (flags.plot) writeFileAtomic(flags.plot, renderBankPlot(bank));
@@ -334,7 +356,9 @@ function runSweep(flags: SweepFlags): void {
   const bar = progressBar("sweep");
   let result: SweepResult;
   try {
-    result = sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) });
+    result = withTemplateLimitHint(() =>
+      sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) }),
+    );
   } finally {
     bar.stop();
   }

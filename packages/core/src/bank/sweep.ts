@@ -1,6 +1,6 @@
 // Spacing tuning: how the template count, coverage, rate loss and scan cost move with the minimal match.
 import { InputError } from "../errors.js";
-import { buildBankWithReport, checkBankOptions, type BuildBankOptions } from "./templateBank.js";
+import { buildBankWithReport, checkBankOptions, checkTemplateLimit, type BuildBankOptions } from "./templateBank.js";
 import { verifyBank, type VerifyDrawSpace, type VerifySignal } from "./verify.js";
 import { measureTemplateCost, scanCpuSecondsPerHour, type TemplateCostMeasurement } from "./scanCost.js";
 import { iscoFrequencyHz } from "./chirpTimeCoordinates.js";
@@ -80,6 +80,8 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
   for (const mm of options.matchFloors) {
     if (!(mm > 0 && mm < 1)) throw new InputError(`match floor ${mm} must be strictly between 0 and 1`);
   }
+  // The densest bank first: refuse the whole sweep before any work if it would exceed the limit.
+  checkTemplateLimit({ ...options, matchFloor: Math.max(...options.matchFloors) });
   const draws = options.draws ?? 200;
   const signal = options.signal ?? "taylorf2";
   const rows: SweepRow[] = [];
