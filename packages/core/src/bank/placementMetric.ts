@@ -22,7 +22,7 @@ const MAX_STRETCH = 2.5;
  * modelled match ≥ MM.
  *
  * Construction (ours; no published source): in coordinates y = Lᵀ Δ whitened by the quadratic metric
- * g = L Lᵀ, the contour {(*) = 1 − MM} is found along 16 directions over half a turn (by iteration on
+ * g = L Lᵀ, the contour {(*) = 1 − MM} is found along 12 directions over half a turn (by iteration on
  * the radius, using (*) ∝ s^p locally), interpolated linearly in angle and shrunk by 1 %, and G is the
  * largest-area centred ellipse inside it (a search over the ellipse's orientation and aspect ratio,
  * its size then set by the tightest direction). Where the quadratic metric were exact and the cutoff

@@ -3,14 +3,15 @@ import type { MetricSample } from "./metric.js";
 
 /**
  * The match model whose second-order expansion is the metric. Around a point θ, write the phase of a
- * neighbour θ + Δ as Ψ(θ) + Δ·∂Ψ/∂θ (linear in Δ; exact at 1.5PN in the chirp times, where Ψ is linear
- * in τ0 and τ3, Sathyaprakash 1994). Its match with θ, maximised over coalescence phase and time, is
+ * neighbour θ + Δ as Ψ(θ) + Δ·∂Ψ/∂θ (linear in Δ; the Newtonian and 1.5PN terms of Ψ are exactly
+ * linear in τ0 and τ3, Sathyaprakash 1994, the others nearly so). Its match with θ, maximised over
+ * coalescence phase and time, is
  *   A(Δ) = max_t |J[exp(i(Δ·ψ + 2πf t))]|,
  * with J and ψ = ∂Ψ/∂θ as in metric.ts. This is the ambiguity function of Owen, Phys. Rev. D 53, 6749
  * (1996), Sec. II, for the linearised phase; expanding 1 − A to second order in Δ gives the metric
  * (Owen 1996, Eqs. (2.22), (2.27)), but A keeps the higher orders, which matter from mismatches of a
- * few per cent on: along the nearly degenerate direction the quadratic metric over-predicts 1 − A by
- * up to ≈ 40 % at 0.05 (test/reference/bank.test.ts measures both against directly computed matches).
+ * few per cent on: along the nearly degenerate direction a quadratic prediction of 0.05 overstates the
+ * mismatch by up to 0.022 (test/reference/bank.test.ts measures both against directly computed matches).
  */
 export interface TangentMatch {
   /** The metric sample (quadratic metric, cutoff and its sensitivity) at the point. */
