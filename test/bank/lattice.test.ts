@@ -5,6 +5,10 @@ import {
   buildBank,
   buildBankWithReport,
   chirpTimesFromComponents,
+  chooseMatchGrid,
+  createMatchComputer,
+  createTaylorF2Generator,
+  iscoFrequencyHz,
   createChirpTimeMetric,
   createMassRegion,
   placementMetric,
@@ -105,6 +109,38 @@ describe("hexagonal lattice placement", () => {
     const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fminHz: 30, psd: ajith2011 });
     const r = verifyBank(bank, { draws: 400, seed: "band-rows", psd: ajith2011 });
     expect(r.fractionAboveMinimalMatch).toBe(1);
+  });
+
+  it("covers the region's corners, where the band's edges kink (3–10 M_sun from 20 Hz, brute-force matches)", () => {
+    // Uniform draws rarely land in a corner; these 60 seeded draws all do (near (mMax, mMin), the
+    // heavy equal-mass end and the light equal-mass end). Measured: worst fitting factor 0.9728.
+    const fLow = 20;
+    const bank = buildBank({ massRangeSolar: [3, 10], matchFloor: 0.97, fminHz: fLow, psd: ajith2011 });
+    const grid = chooseMatchGrid({ fHighHz: iscoFrequencyHz(6), lagSpanS: 4 });
+    const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fLow });
+    const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
+    const sig = new Float64Array(2 * grid.nBins);
+    const tpl = new Float64Array(2 * grid.nBins);
+    const rng = seedrandom("corners");
+    for (let k = 0; k < 60; k++) {
+      let m1: number;
+      let m2: number;
+      if (k % 3 === 0) [m1, m2] = [10 * (1 - 0.04 * rng()), 3 * (1 + 0.3 * rng())];
+      else if (k % 3 === 1) {
+        m1 = 10 * (1 - 0.03 * rng());
+        m2 = m1 * (1 - 0.1 * rng());
+      } else [m1, m2] = [3 * (1 + 0.3 * rng()), 3 * (1 + 0.02 * rng())];
+      if (m2 > m1) [m1, m2] = [m2, m1];
+      gen.generate(sig, fLow, m1, m2);
+      const ct = chirpTimesFromComponents(m1, m2, fLow);
+      let best = 0;
+      for (const t of bank.templates) {
+        if (Math.abs(t.tau0 - ct.tau0) > 0.03 * ct.tau0) continue;
+        gen.generate(tpl, fLow, t.primaryMass, t.secondaryMass);
+        best = Math.max(best, mc.match(sig, tpl, iscoFrequencyHz(m1 + m2), iscoFrequencyHz(t.primaryMass + t.secondaryMass)).match);
+      }
+      expect(best).toBeGreaterThanOrEqual(0.97);
+    }
   });
 
   it("rejects bad settings with one-line InputErrors naming the parameter", () => {

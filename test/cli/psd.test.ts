@@ -73,6 +73,7 @@ describe("chirpsieve psd", () => {
     // Each run starts a node process (~2 s on a loaded machine), so only a few cases are run here.
     expectUsageError(["psd", strainFile, "--segment", "64"], "--segment");
     expectUsageError(["psd", strainFile, "--segment", "four"], "--segment");
+    expectUsageError(["psd", strainFile, "--segment", "0.0001"], "--segment: 0.0001 s is 0 samples");
     expectUsageError(["psd", strainFile, "--out", join(dir, "no-such-dir", "p.csv")], "--out");
   });
 });

@@ -70,6 +70,9 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
   const fs = strain.sampleRate;
   const wanted = Math.round(segmentSeconds * fs);
+  if (wanted < 16) {
+    throw new UsageError(`--segment: ${segmentSeconds} s is ${wanted} samples at ${fs} Hz; a PSD estimate needs segments of at least 16 samples`);
+  }
   let segmentLength = 4;
   while (segmentLength < wanted) segmentLength *= 2;
   if (segmentLength > strain.data.length) {

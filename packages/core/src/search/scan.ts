@@ -35,7 +35,26 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
   if (o.threads !== undefined && !(Number.isInteger(o.threads) && o.threads >= 1)) {
     throw new InputError(`threads must be a positive integer (got ${o.threads})`);
   }
+  if (o.psd.kind === "estimate") {
+    // Welch needs segments of a few samples at least, and bins finer than the lowest frequency searched.
+    const seconds = o.psd.segmentSeconds;
+    const samples = Math.round(seconds * sampleRate);
+    if (!(samples >= MIN_PSD_SEGMENT_SAMPLES)) {
+      throw new InputError(
+        `--psd-segment: ${seconds} s is ${samples} samples at ${sampleRate} Hz; the PSD estimate needs at least ${MIN_PSD_SEGMENT_SAMPLES}`,
+      );
+    }
+    if (!(1 / seconds <= o.fMinHz)) {
+      throw new InputError(
+        `--psd-segment: ${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than fmin ${o.fMinHz} Hz; ` +
+          `use at least ${(1 / o.fMinHz).toPrecision(3)} s`,
+      );
+    }
+  }
 }
+
+/** Fewest samples in one Welch segment of a search's PSD estimate. */
+const MIN_PSD_SEGMENT_SAMPLES = 16;
 
 /** Chooses the segment plan for a series from the longest template and the inverse-PSD filter length. */
 export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: number): SegmentPlan {
@@ -55,10 +74,19 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
     size = Math.min(size, nextPowerOfTwo(length));
   }
   if (size <= invalidStart + invalidEnd) {
-    throw new InputError(
-      `the longest template lasts ${longest.toFixed(1)} s from ${o.fMinHz} Hz, too long for ${(size / sampleRate).toFixed(1)} s segments` +
-        (o.segmentSeconds === undefined ? " (the data is too short; raise --fmin or use heavier masses)" : "; use a longer --segment"),
-    );
+    // Name what dominates: the template, or the inverse-PSD filter (as long as the PSD segment).
+    const filterDominates = o.psd.kind === "estimate" && 2 * truncSeconds > longest;
+    const need =
+      `the longest template (${longest.toFixed(1)} s from ${o.fMinHz} Hz) and the inverse-PSD filter at both ends ` +
+      `(2 × ${truncSeconds.toFixed(1)} s${o.psd.kind === "estimate" ? ", the --psd-segment length" : ""}) ` +
+      `need more than ${(size / sampleRate).toFixed(1)} s segments`;
+    const remedy =
+      o.segmentSeconds !== undefined
+        ? "use a longer --segment"
+        : filterDominates
+          ? "the data is too short for that; use a shorter --psd-segment"
+          : "the data is too short for that; raise --fmin or use heavier masses";
+    throw new InputError(`${need}; ${remedy}`);
   }
   const plan = planSegments(length, size, invalidStart, invalidEnd);
   if (plan.segments.length === 0) {
