@@ -423,7 +423,15 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
     const strips = bandRows ? placeStrips({ region, chart, patch, patchIndex: pIndex, radius: r }) : null;
     points.push(...(strips && strips.length < here.length ? strips : here));
   });
-  return { points, patches };
+  // Rows of neighbouring pieces or patches can end on the same point: keep one of each.
+  const seen = new Set<string>();
+  const unique = points.filter((p) => {
+    const key = `${p.tau0.toPrecision(12)},${p.tau3.toPrecision(12)}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+  return { points: unique, patches };
 }
 
 /**
