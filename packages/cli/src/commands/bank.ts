@@ -1,5 +1,4 @@
 import type { Command } from "commander";
-import * as Plot from "@observablehq/plot";
 import cliProgress from "cli-progress";
 import {
   buildBankWithReport,
@@ -23,7 +22,6 @@ import {
 import { UsageError } from "../errors.js";
 import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
-import { renderSvg } from "../plot.js";
 import { VERSION } from "../version.js";
 
 interface RegionFlags {
@@ -127,7 +125,7 @@ export function registerBank(program: Command): void {
     .action(async (flags: SweepFlags) => {
       // The cost estimate times the FFT backend a scan would use (the SIMD one when it loads).
       await loadFftBackends();
-      runSweep(flags);
+      await runSweep(flags);
     });
 }
 
@@ -198,7 +196,7 @@ function pct(x: number, digits = 1): string {
   return `${(100 * x).toFixed(digits)}%`;
 }
 
-function runBuild(flags: BuildFlags, argv: string[]): void {
+async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   const region = parseRegion(flags);
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
@@ -207,7 +205,7 @@ function runBuild(flags: BuildFlags, argv: string[]): void {
   const { bank, report } = withTemplateLimitHint(() => buildBankWithReport({ ...region, matchFloor }));
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
-  if (flags.plot) writeFileAtomic(flags.plot, renderBankPlot(bank));
+  if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
   if (flags.json) {
     process.stdout.write(JSON.stringify({ file: flags.out, ...report, countOverVolumeEstimate: report.templateCount / report.volumeEstimate }) + "\n");
     return;
@@ -226,44 +224,7 @@ function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport):
   );
 }
 
-/** Two scatter plots side by side in one standalone SVG: (τ0, τ3) and (m1, m2). */
-function renderBankPlot(bank: TemplateBank): string {
-  const width = 520;
-  const height = 440;
-  const pts = bank.templates.map((t) => ({ tau0: t.tau0, tau3: t.tau3, m1: t.primaryMass, m2: t.secondaryMass }));
-  const r = pts.length > 5000 ? 0.6 : pts.length > 1000 ? 1 : 1.8;
-  const left = renderSvg({
-    width,
-    height,
-    marginLeft: 60,
-    marginBottom: 45,
-    x: { label: `τ0 (s) from ${bank.fminHz} Hz`, grid: true },
-    y: { label: "τ3 (s)", grid: true },
-    marks: [Plot.dot(pts, { x: "tau0", y: "tau3", r, fill: "steelblue", stroke: "none" })],
-  });
-  const right = renderSvg({
-    width,
-    height,
-    marginLeft: 60,
-    marginBottom: 45,
-    x: { label: "primary mass (M_sun)", grid: true },
-    y: { label: "secondary mass (M_sun)", grid: true },
-    marks: [Plot.dot(pts, { x: "m1", y: "m2", r, fill: "darkorange", stroke: "none" })],
-  });
-  const title = `${bank.templates.length} templates, ${bank.massRangeSolar[0]}–${bank.massRangeSolar[1]} M_sun, minimal match ${bank.matchFloor}, ${bank.noiseCurve} from ${bank.fminHz} Hz`;
-  const inner = (svg: string, x: number): string => svg.replace("<svg", `<svg x="${x}" y="24"`);
-  return (
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${2 * width}" height="${height + 24}" viewBox="0 0 ${2 * width} ${height + 24}">` +
-    `<text x="12" y="17" font-family="sans-serif" font-size="13">${escapeXml(title)}</text>` +
-    inner(left, 0) +
-    inner(right, width) +
-    `</svg>\n`
-  );
-}
 
-function escapeXml(s: string): string {
-  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;");
-}
 
 function progressBar(label: string): { update(done: number, total: number): void; stop(): void } {
   if (!process.stderr.isTTY) return { update() {}, stop() {} };
@@ -341,7 +302,7 @@ function verifyText(file: string, bank: TemplateBank, r: CoverageReport): string
   return lines.join("\n");
 }
 
-function runSweep(flags: SweepFlags): void {
+async function runSweep(flags: SweepFlags): Promise<void> {
   const region = parseRegion(flags);
   let floors: number[];
   try {
@@ -362,7 +323,7 @@ function runSweep(flags: SweepFlags): void {
   } finally {
     bar.stop();
   }
-  if (flags.plot) writeFileAtomic(flags.plot, renderSweepPlot(result, region));
+  if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderSweepPlot(result, region));
   if (flags.json) {
     process.stdout.write(JSON.stringify({ ...result, costIsEstimate: true }) + "\n");
     return;
@@ -389,27 +350,3 @@ function runSweep(flags: SweepFlags): void {
   process.stdout.write(lines.join("\n") + "\n");
 }
 
-/** Trade-off plot: estimated CPU hours per hour of data (or template count) against the rate loss. */
-function renderSweepPlot(result: SweepResult, region: RegionSettings): string {
-  const hasCost = result.rows.every((r) => r.cpuSecondsPerHour !== undefined);
-  const pts = result.rows.map((r) => ({
-    loss: 100 * r.rateLoss,
-    y: hasCost ? r.cpuSecondsPerHour! / 3600 : r.templateCount,
-    label: `MM ${r.matchFloor}`,
-  }));
-  return renderSvg({
-    width: 720,
-    height: 420,
-    marginLeft: 70,
-    marginRight: 80,
-    marginBottom: 45,
-    inset: 12,
-    x: { label: `expected loss of detection rate 1 − ⟨FF³⟩ (%), ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fminHz} Hz`, grid: true },
-    y: { type: "log", label: hasCost ? "estimated CPU hours per hour of data (measured here, scaled)" : "templates", grid: true, tickFormat: "~g" },
-    marks: [
-      Plot.line(pts, { x: "loss", y: "y", stroke: "steelblue" }),
-      Plot.dot(pts, { x: "loss", y: "y", fill: "steelblue" }),
-      Plot.text(pts, { x: "loss", y: "y", text: "label", dx: 8, textAnchor: "start", fontSize: 10 }),
-    ],
-  });
-}

@@ -1,5 +1,4 @@
 import type { Command } from "commander";
-import * as Plot from "@observablehq/plot";
 import {
   formatPsdTable,
   horizonDistance,
@@ -14,7 +13,6 @@ import {
 import { UsageError } from "../errors.js";
 import { checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag } from "../options.js";
-import { renderSvg } from "../plot.js";
 
 interface PsdFlags {
   segment: string;
@@ -108,7 +106,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
     ];
     writeFileAtomic(flags.out, formatPsdTable(estimate.frequencies, estimate.psd, comments));
   }
-  if (flags.plot) writeFileAtomic(flags.plot, renderAsdPlot(estimate, fMinHz, strain.file));
+  if (flags.plot) writeFileAtomic(flags.plot, (await import("../psdPlot.js")).renderAsdPlot(estimate, fMinHz, strain.file));
 
   if (flags.json) {
     const record = {
@@ -169,26 +167,3 @@ function summaryText(
   return lines.join("\n") + "\n";
 }
 
-/** SVG log–log plot of the amplitude spectral density √S(f), with the horizon's fmin marked. */
-function renderAsdPlot(estimate: WelchPsd, fMinHz: number, file: string): string {
-  const n = estimate.psd.length;
-  const stride = Math.max(1, Math.floor(n / 4000));
-  const points: { f: number; asd: number }[] = [];
-  for (let k = 1; k < n; k += stride) {
-    const s = estimate.psd[k];
-    if (s > 0 && Number.isFinite(s)) points.push({ f: estimate.frequencies[k], asd: Math.sqrt(s) });
-  }
-  const label = file.replace(/^.*[\\/]/, "");
-  return renderSvg({
-    width: 720,
-    height: 400,
-    marginLeft: 70,
-    marginBottom: 45,
-    x: { type: "log", label: `frequency (Hz) — ${label}, Welch ${estimate.average} of ${estimate.segments} segments` },
-    y: { type: "log", label: "amplitude spectral density (1/√Hz)", grid: true, tickFormat: "~e" },
-    marks: [
-      Plot.ruleX([fMinHz], { stroke: "gray", strokeDasharray: "4,4" }),
-      Plot.line(points, { x: "f", y: "asd", stroke: "steelblue" }),
-    ],
-  });
-}

@@ -30,7 +30,6 @@ import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js"
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import { campaignDocument, formatCampaignText, type CampaignDocument } from "../reportData.js";
-import { renderCampaignReport } from "../report.js";
 import { VERSION } from "../version.js";
 
 interface RecoverFlags extends SearchFlags {
@@ -248,7 +247,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
 
     const json = `${JSON.stringify(doc, null, 2)}\n`;
     if (flags.out) writeFileAtomic(flags.out, json);
-    if (flags.report) writeFileAtomic(flags.report, renderCampaignReport(doc));
+    if (flags.report) writeFileAtomic(flags.report, (await import("../report.js")).renderCampaignReport(doc));
     if (flags.json) process.stdout.write(json);
     else process.stdout.write(formatCampaignText(doc));
     for (const c of checks.filter((c) => !c.met)) process.stderr.write(`chirpsieve: requirement not met: ${c.rule}: ${c.detail}\n`);

@@ -35,7 +35,6 @@ import {
   formatCoincidencesCsv,
   formatCoincidencesTable,
 } from "../candidateFormat.js";
-import { writeScanPlots } from "../scanPlots.js";
 import { VERSION } from "../version.js";
 
 interface ScanFlags extends SearchFlags {
@@ -228,6 +227,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   }
   if (flags.plot) {
     mkdirSync(flags.plot, { recursive: true });
+    const { writeScanPlots } = await import("../scanPlots.js");
     await writeScanPlots(flags.plot, sources.length ? files : [], candidates, {
       templates, fMinHz, snrThreshold, chi2Bins, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
       open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }),
