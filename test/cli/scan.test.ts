@@ -55,6 +55,8 @@ describe("chirpsieve scan", () => {
     expect(t.code).toBe(0);
     expect(t.stdout).toContain("candidate");
     expect(t.stdout).toContain("not a detection");
+    expect(t.stdout).toMatch(/searched [\d.]+ s of [\d.]+ s of data/);
+    expect(t.stdout).toMatch(/no coalescence time can be searched in the first [\d.]+ s of a file/);
   });
 
   describe("bad input: one line on stderr, exit code 2, no output file", () => {

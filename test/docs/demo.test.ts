@@ -27,5 +27,10 @@ describe("npm run demo (the README's first command)", () => {
       expect(Math.abs(found[0].chirpMass / mc - 1)).toBeLessThan(0.02);
     }
     expect(candidates).toHaveLength(manifest.injections.length);
+    // The summary says how much of the 128 s file could hold a coalescence, and why not the rest.
+    const summary = lines.find((l) => l.type === "summary");
+    expect(summary.dataSeconds).toBe(128);
+    expect(summary.analysedSeconds).toBeCloseTo(summary.dataSeconds - summary.leadInSeconds - summary.tailSeconds, 1);
+    expect(summary.tailSeconds).toBe(4); // the PSD filter: one Welch segment (common practice, no source)
   });
 });

@@ -101,11 +101,20 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
     for (const r of rows) out.push(line(r));
   }
   out.push("");
+  const ofData = summary.dataSeconds === undefined ? "" : ` of ${Number(summary.dataSeconds).toFixed(1)} s`;
   out.push(
-    `searched ${Number(summary.analysedSeconds).toFixed(1)} s of data in ${summary.files} file(s) with ${summary.templates} templates ` +
+    `searched ${Number(summary.analysedSeconds).toFixed(1)} s${ofData} of data in ${summary.files} file(s) with ${summary.templates} templates ` +
       `(${summary.segments} segments of ${summary.segmentSamples} samples at ${summary.sampleRate} Hz; PSD ${summary.psd}; ` +
       `FFT ${summary.fftBackend}) in ${Number(summary.wallSeconds).toFixed(1)} s`,
   );
+  if (summary.leadInSeconds !== undefined) {
+    const lead = Number(summary.leadInSeconds);
+    const tail = Number(summary.tailSeconds);
+    out.push(
+      `no coalescence time can be searched in the first ${lead.toFixed(1)} s of a file (${(lead - tail).toFixed(1)} s of the longest ` +
+        `template before its coalescence plus ${tail.toFixed(1)} s of PSD filter) or in its last ${tail.toFixed(1)} s (PSD filter)`,
+    );
+  }
   if (Number(summary.skippedSeconds) > 0) out.push(`skipped ${Number(summary.skippedSeconds).toFixed(1)} s of data (non-finite samples)`);
   out.push(CANDIDATE_CAUTION);
   return out.join("\n") + "\n";

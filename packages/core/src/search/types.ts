@@ -94,6 +94,14 @@ export interface SearchSummary {
   segmentSamples: number;
   sampleRate: number;
   analysedSeconds: number;
+  /** Length of the input (s). */
+  dataSeconds: number;
+  /**
+   * Seconds at the start of the input in which no coalescence can be found: the longest template's
+   * duration before its coalescence plus the inverse-PSD filter; and at the end, the filter.
+   */
+  leadInSeconds: number;
+  tailSeconds: number;
   skippedSeconds: number;
   skipped: SkippedStretch[];
   fftBackend: FftBackendName;
