@@ -47,6 +47,9 @@ export async function openStrain(path: string, options: StrainOpenOptions = {}):
   checkPath(path);
   checkOpenOptions(options);
   const format = strainFormatOf(path, options.format);
+  if (options.dataset !== undefined && format !== "hdf5") {
+    throw new InputError(`${path}: --dataset ${options.dataset} applies only to HDF5 files; this is a ${format === "text" ? "text" : "raw " + format} file`);
+  }
   switch (format) {
     case "f32":
     case "f64":
