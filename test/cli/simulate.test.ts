@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
@@ -86,5 +86,12 @@ describe("chirpsieve simulate", () => {
     const bad = join(dir, "bad.json");
     writeFileSync(bad, JSON.stringify([oneInjection, { ...oneInjection, distance: -3 }]));
     expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject", bad]), /bad\.json: injection 1: distance/);
+    const late = join(dir, "late.json");
+    writeFileSync(late, JSON.stringify([{ ...oneInjection, coalescenceTime: 1000 }]));
+    expectOneLineError(
+      runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject", late]),
+      /--inject: .*late\.json: injection 0 coalesces at 1000, outside the simulated data \(0 to 16/,
+    );
+    expect(existsSync(out)).toBe(false);
   });
 });

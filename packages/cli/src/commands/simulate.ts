@@ -145,6 +145,14 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   let injections: Injection[] = [];
   if (flags.inject !== undefined) {
     injections = readInjectionFile(flags.inject);
+    // An injection that coalesces outside the data could never be recovered from it: refuse it.
+    const outside = injections.findIndex((inj) => !(inj.coalescenceTime >= start && inj.coalescenceTime <= start + duration));
+    if (outside >= 0) {
+      throw new UsageError(
+        `--inject: ${flags.inject}: injection ${outside} coalesces at ${injections[outside].coalescenceTime}, outside the simulated data ` +
+          `(${start} to ${start + duration}; set --start and --duration to cover it)`,
+      );
+    }
     injections.forEach((inj, i) => {
       try {
         inj.optimalSnr = optimalSnr(inj, psd, rate, fmin, detector);
