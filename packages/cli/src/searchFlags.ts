@@ -21,6 +21,7 @@ export interface SearchFlags {
   fmin: string;
   minSnr: string;
   chi2Bands: string;
+  chi2Allowance: string;
   clusterWindow: string;
   psdSegment: string;
   psdAverage: string;
@@ -38,6 +39,11 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
     .option("--fmin <Hz>", "low-frequency cutoff of templates and filter (Hz)", defaults.fmin)
     .option("--min-snr <rho>", "report peaks with SNR at or above this", "6")
     .option("--chi2-bands <p>", "frequency bands of the chi-squared discriminator (0 = off)", "16")
+    .option(
+      "--chi2-allowance <delta>",
+      "chi-squared a signal may carry from imperfect template match, as a fraction of SNR²: the reweighted SNR divides chi-squared by dof + delta·SNR² (0 = off; ~0.03 lets signals of another waveform model keep their SNR; larger values weaken glitch rejection)",
+      "0",
+    )
     .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
     .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
     .option("--psd-average <kind>", "Welch average: median or mean", "median")
@@ -50,6 +56,7 @@ export interface ParsedSearchFlags {
   fMinHz: number;
   snrThreshold: number;
   chi2Bins: number;
+  chi2Allowance: number;
   clusterWindowSeconds: number;
   psdSegmentSeconds: number;
   psdAverage: "median" | "mean";
@@ -65,6 +72,7 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
     fMinHz: parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true }),
     snrThreshold: parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true }),
     chi2Bins,
+    chi2Allowance: parseNumberFlag("--chi2-allowance", flags.chi2Allowance, { min: 0 }),
     clusterWindowSeconds: parseNumberFlag("--cluster-window", flags.clusterWindow, { min: 0, minExclusive: true }),
     psdSegmentSeconds: parseNumberFlag("--psd-segment", flags.psdSegment, { min: 0, minExclusive: true }),
     psdAverage: parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const),

@@ -32,6 +32,9 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
     throw new InputError(`chi-squared bands must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bins})`);
   }
   if (!(o.clusterWindowSeconds > 0)) throw new InputError(`the cluster window must be positive (got ${o.clusterWindowSeconds})`);
+  if (o.chi2Allowance !== undefined && !(o.chi2Allowance >= 0 && Number.isFinite(o.chi2Allowance))) {
+    throw new InputError(`the chi-squared allowance must be a number ≥ 0 (got ${o.chi2Allowance})`);
+  }
   if (o.threads !== undefined && !(Number.isInteger(o.threads) && o.threads >= 1)) {
     throw new InputError(`threads must be a positive integer (got ${o.threads})`);
   }
@@ -274,7 +277,7 @@ export async function searchSource(
           phase: Math.atan2(tr.im, tr.re),
           chi2,
           chi2Dof: dof,
-          reweightedSnr: reweightedSnr(peak.value, chi2, dof),
+          reweightedSnr: reweightedSnr(peak.value, chi2, dof, options.chi2Allowance ?? 0),
           primaryMass: t.primaryMass,
           secondaryMass: t.secondaryMass,
           chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,

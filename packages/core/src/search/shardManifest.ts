@@ -31,6 +31,7 @@ export interface SearchDescription {
   fMaxHz: number | null;
   snrThreshold: number;
   chi2Bins: number;
+  chi2Allowance: number;
   clusterWindowSeconds: number;
   /** e.g. "ajith2011" or "welch-median-4s" (the CLI's label). */
   psd: string;
@@ -155,6 +156,7 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     fMaxHz: options.fMaxHz ?? null,
     snrThreshold: options.snrThreshold,
     chi2Bins: options.chi2Bins,
+    chi2Allowance: options.chi2Allowance ?? 0,
     clusterWindowSeconds: options.clusterWindowSeconds,
     psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psd.segmentSeconds}s`,
     psdFingerprint:

@@ -36,6 +36,11 @@ export interface SearchOptions {
   readonly snrThreshold: number;
   /** Number of frequency bands p of the chi-squared discriminator (0 turns it off). */
   readonly chi2Bins: number;
+  /**
+   * Allowance δ ≥ 0 for the chi-squared of imperfectly matched signals: the reweighted SNR divides
+   * χ² by dof + δ ρ² instead of dof (filter/reweight.ts). Default 0 (Babak et al. 2013 exactly).
+   */
+  readonly chi2Allowance?: number;
   /** Keep the loudest peak within ± this many seconds, across time and the bank. */
   readonly clusterWindowSeconds: number;
   readonly psd: PsdSource;
