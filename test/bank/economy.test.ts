@@ -12,7 +12,7 @@ import {
 describe("economy of the placement", () => {
   it("a region many cells wide (1–10 M_sun from 10 Hz, MM 0.97) holds at most 1.3× its metric-volume estimate, and is covered", () => {
     // Metric-volume estimate: proper area ∫ sqrt(det g) dτ0 dτ3 over the hexagonal cell (3√3/2)(1 − MM)
-    // (Owen, Phys. Rev. D 53, 6749 (1996)). Measured: 41 814 templates, 0.73× that estimate (57 020),
+    // (Owen, Phys. Rev. D 53, 6749 (1996)). Measured: 41 736 templates, 0.73× that estimate (57 020),
     // because the lattice follows the minimal-match contour of the linearised-phase match (placementMetric.ts),
     // which from 10 Hz reaches up to ~2 metric radii along the nearly degenerate direction. Against the
     // area under those contours (31 937 cells) the count is 1.31×, and 1.08× that area plus its boundary
@@ -34,7 +34,7 @@ describe("economy where the region is thinner than a cell", () => {
     // The region is a band a fraction of a covering radius wide, so its area estimate (≈ 231 templates)
     // says little: the equal-mass edge alone, of proper length L under the placement metric, needs at
     // least ≈ L / (2r) ellipses of radius r to cover it (each covers a chord of at most 2r of a nearly
-    // straight curve; common practice, no source). Measured: bound 839, bank 903 (1.08×), 3.9× the area estimate.
+    // straight curve; common practice, no source). Measured: bound 839, bank 889 (1.06×), 3.85× the area estimate.
     const fmin = 40;
     const mm = 0.97;
     const { bank, report } = buildBankWithReport({ massRangeSolar: [1.2, 2], matchFloor: mm, fminHz: fmin, psd: ajith2011 });

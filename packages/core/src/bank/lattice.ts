@@ -25,6 +25,13 @@ export interface LatticePatch {
   etaHi: number;
   /** The conservative placement metric of the patch (placementMetric.ts), in chart coordinates. */
   metric: Metric2;
+  /**
+   * The placement metrics (chart coordinates) sampled over the patch: samples[i][j] at τ0 =
+   * sampleTau0[i] and η at the fraction j/(columns − 1) of [max(etaLo, η_low(τ0)), etaHi]; a row is
+   * null where the patch does not meet the region at that τ0.
+   */
+  sampleTau0: number[];
+  samples: (Metric2[] | null)[];
 }
 
 export interface LatticeOptions {
@@ -207,12 +214,20 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
       }
       return;
     }
+    const sampleTau0 = Array.from({ length: nT }, (_, i) => a + ((b - a) * i) / (nT - 1));
+    const samples: (Metric2[] | null)[] = sampleTau0.map(() => null);
+    for (const smp of grid) {
+      if (smp.tau0 !== sampleTau0[smp.i]) continue; // the between-samples fallback
+      (samples[smp.i] ??= new Array<Metric2>(nE))[smp.j] = smp.g;
+    }
     patches.push({
       tau0Lo: a,
       tau0Hi: b,
       etaLo: e1,
       etaHi: e2,
       metric: { g00: ref.g00 * lamMax, g01: ref.g01 * lamMax, g11: ref.g11 * lamMax },
+      sampleTau0,
+      samples,
     });
     patchAnchors.push([mid.tau0, region.tau3At(mid.tau0, mid.eta)]);
   };

@@ -1,7 +1,8 @@
 // Templates in rows along a thin band of the region: cheaper than a lattice where the band is narrow.
 import type { MassRegion } from "./massRegion.js";
 import type { PhaseChart } from "./phaseChart.js";
-import type { LatticePatch, LatticePoint } from "./lattice.js";
+import { metricRatioRange, type LatticePatch, type LatticePoint } from "./lattice.js";
+import type { Metric2 } from "./metric.js";
 
 export interface StripOptions {
   region: MassRegion;
@@ -23,8 +24,10 @@ const SUB_STEP = 1 / 12;
  * Covers the part of a patch inside the region, {τ0 ∈ [a, b], max(η1, η_low(τ0)) ≤ η ≤ η2}, with rows
  * of templates running along the band. The band is cut along τ0 into pieces of constant row count k;
  * in a piece, row i lies at the fraction (2i + 1)/(2k) of the band's η-extent and is responsible for the
- * sub-band between the fractions i/k and (i + 1)/k. In the patch's metric (whitened, so covering balls
- * are discs of radius r), a row of discs whose centres lie on the mid-line of a straight strip of
+ * sub-band between the fractions i/k and (i + 1)/k. Lengths are measured in the local placement
+ * metric: the patch's sampled metrics, made conservative over each sample cell (not the patch's single
+ * conservative metric, which the lattice needs and which can be 1.4× the local one). In a locally
+ * Euclidean metric, a row of discs of radius r whose centres lie on the mid-line of a straight strip of
  * half-width h covers the strip when neighbouring centres are at most 2 sqrt(r² − h²) apart (common
  * practice, no source). The march along each row measures h as the perpendicular distance from the row
  * to its sub-band's edges, keeps the largest h since the last template, and places the next template
@@ -42,14 +45,7 @@ const SUB_STEP = 1 / 12;
 export function placeStrips(options: StripOptions): LatticePoint[] | null {
   const { region, chart, patch, patchIndex, radius: r } = options;
   const maxRows = options.maxRows ?? 8;
-  const G = patch.metric;
-  const w00 = Math.sqrt(G.g00);
-  const w01 = G.g01 / w00;
-  const w11 = Math.sqrt(Math.max(G.g11 - w01 * w01, 1e-300));
-  const toU = (t0: number, eta: number): [number, number] => {
-    const [x0, x1] = chart.toX(t0, region.tau3At(t0, eta));
-    return [w00 * x0 + w01 * x1, w11 * x1];
-  };
+  const toX = (t0: number, eta: number): [number, number] => chart.toX(t0, region.tau3At(t0, eta));
   const { tau0Lo: a, tau0Hi: b, etaLo: e1, etaHi: e2 } = patch;
   // η_low on a grid over [a, b] (with the chain's kinks as nodes), interpolated linearly.
   const nodes: number[] = [];
@@ -94,22 +90,53 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
     const lo = low(t);
     return lo + (e2 - lo) * frac;
   };
-  // Unit tangent of the curve η = fraction of the band, at τ0 = t (central difference in τ0).
+  // The metric where the rows run: the patch's sampled placement metrics (lattice.ts), made
+  // conservative over the sample cell around the point (the cell corner's metric scaled by the largest
+  // generalised eigenvalue of the other corners against it); the patch's own metric where the
+  // patch was not sampled there.
+  const nT = patch.sampleTau0.length;
+  const metricAt = (t: number, frac: number): Metric2 => {
+    const rows = patch.samples;
+    if (nT < 2) return patch.metric;
+    const i0 = Math.min(nT - 2, Math.max(0, Math.floor(((t - a) / (b - a)) * (nT - 1))));
+    const lower = rows[i0];
+    const upper = rows[i0 + 1];
+    if (!lower || !upper) return patch.metric;
+    const nE = lower.length;
+    const j0 = Math.min(nE - 2, Math.max(0, Math.floor(frac * (nE - 1))));
+    const base = lower[j0];
+    let scale = 1;
+    for (const c of [lower[j0 + 1], upper[j0], upper[j0 + 1]]) scale = Math.max(scale, metricRatioRange(c, base)[1]);
+    return { g00: base.g00 * scale, g01: base.g01 * scale, g11: base.g11 * scale };
+  };
+  /** W v with M = Wᵀ W (W upper triangular): coordinates in which M is Euclidean. */
+  const whiten = (m: Metric2, v0: number, v1: number): [number, number] => {
+    const w00 = Math.sqrt(m.g00);
+    const w01 = m.g01 / w00;
+    const w11 = Math.sqrt(Math.max(m.g11 - w01 * w01, 1e-300));
+    return [w00 * v0 + w01 * v1, w11 * v1];
+  };
+  const length = (m: Metric2, p: [number, number], q: [number, number]): number => {
+    const [u0, u1] = whiten(m, q[0] - p[0], q[1] - p[1]);
+    return Math.hypot(u0, u1);
+  };
+  // Direction (chart coordinates) of the curve η = fraction of the band, at τ0 = t (central difference).
   const tangent = (t: number, frac: number): [number, number] => {
     const dt = 1e-4 * (bb - aa);
-    const p = toU(Math.max(aa, t - dt), etaAtFraction(Math.max(aa, t - dt), frac));
-    const q = toU(Math.min(bb, t + dt), etaAtFraction(Math.min(bb, t + dt), frac));
-    const d0 = q[0] - p[0];
-    const d1 = q[1] - p[1];
-    const n = Math.hypot(d0, d1);
-    return [d0 / n, d1 / n];
+    const p = toX(Math.max(aa, t - dt), etaAtFraction(Math.max(aa, t - dt), frac));
+    const q = toX(Math.min(bb, t + dt), etaAtFraction(Math.min(bb, t + dt), frac));
+    return [q[0] - p[0], q[1] - p[1]];
   };
-  const crossDistance = (p: [number, number], q: [number, number], t: [number, number]): number =>
-    Math.abs((q[0] - p[0]) * t[1] - (q[1] - p[1]) * t[0]);
+  // Distance of q from the line through p along the direction t, in the metric m.
+  const crossDistance = (p: [number, number], q: [number, number], t: [number, number], m: Metric2): number => {
+    const [d0, d1] = whiten(m, q[0] - p[0], q[1] - p[1]);
+    const [t0, t1] = whiten(m, t[0], t[1]);
+    return Math.abs(d0 * t1 - d1 * t0) / Math.hypot(t0, t1);
+  };
 
   // The band's perpendicular width at nodes along it; pieces of constant row count k between them.
   const nW = 64;
-  const widthAt = (t: number): number => crossDistance(toU(t, etaAtFraction(t, 0)), toU(t, e2), tangent(t, 0.5));
+  const widthAt = (t: number): number => crossDistance(toX(t, etaAtFraction(t, 0)), toX(t, e2), tangent(t, 0.5), metricAt(t, 0.5));
   const ts: number[] = [];
   const ws: number[] = [];
   for (let k = 0; k <= nW; k++) {
@@ -152,11 +179,12 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
       const fHi = (i + 1) / rows;
       const halfWidth = (t: number, p: [number, number]): number => {
         const tg = tangent(t, fMid);
-        return Math.max(crossDistance(p, toU(t, etaAtFraction(t, fLo)), tg), crossDistance(p, toU(t, etaAtFraction(t, fHi)), tg));
+        const m = metricAt(t, fMid);
+        return Math.max(crossDistance(p, toX(t, etaAtFraction(t, fLo)), tg, m), crossDistance(p, toX(t, etaAtFraction(t, fHi)), tg, m));
       };
       // March from hi down to lo in sub-steps of about SUB_STEP · r of arc length.
       let t = hi;
-      let p = toU(t, etaAtFraction(t, fMid));
+      let p = toX(t, etaAtFraction(t, fMid));
       place(t, etaAtFraction(t, fMid));
       let hMax = halfWidth(t, p);
       let arc = 0;
@@ -165,13 +193,13 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
       while (t > lo) {
         // Next sub-step: shrink dt until the arc step is at most SUB_STEP · r.
         let tn = Math.max(lo, t - dt);
-        let pn = toU(tn, etaAtFraction(tn, fMid));
-        let step = Math.hypot(pn[0] - p[0], pn[1] - p[1]);
+        let pn = toX(tn, etaAtFraction(tn, fMid));
+        let step = length(metricAt(tn, fMid), p, pn);
         for (let guard = 0; step > SUB_STEP * r && guard < 60; guard++) {
           dt *= 0.5;
           tn = Math.max(lo, t - dt);
-          pn = toU(tn, etaAtFraction(tn, fMid));
-          step = Math.hypot(pn[0] - p[0], pn[1] - p[1]);
+          pn = toX(tn, etaAtFraction(tn, fMid));
+          step = length(metricAt(tn, fMid), p, pn);
         }
         if (step < 0.5 * SUB_STEP * r) dt *= 1.5;
         const hn = halfWidth(tn, pn);
