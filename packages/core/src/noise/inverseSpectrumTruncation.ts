@@ -1,6 +1,16 @@
 import { InputError } from "../errors.js";
-import { createRealFft } from "../fft/index.js";
-import { createRealInverseFft } from "./realInverseFft.js";
+import { createRealFft, type RealFft } from "../fft/index.js";
+import { createRealInverseFft, type RealInverseFft } from "./realInverseFft.js";
+
+/**
+ * The transforms of the last size used, kept: a search truncates one PSD per segment, all of one size,
+ * and building the tables of a 2^21-point transform costs more than running it.
+ */
+let plans: { size: number; inverse: RealInverseFft; forward: RealFft } | undefined;
+function plansFor(size: number): { inverse: RealInverseFft; forward: RealFft } {
+  if (plans?.size !== size) plans = { size, inverse: createRealInverseFft(size), forward: createRealFft(size) };
+  return plans;
+}
 
 export interface InverseSpectrumTruncationOptions {
   /** Sample rate of the series the PSD describes (Hz); the grid is df = fs/N, N = 2·(bins − 1). */
@@ -64,13 +74,14 @@ export function truncateInverseSpectrum(psd: Float64Array, options: InverseSpect
     spec[2 * k] = k * df >= fLow && s > 0 && Number.isFinite(s) ? 1 / Math.sqrt(s) : 0;
   }
   const r = new Float64Array(n);
-  createRealInverseFft(n).inverse(spec, r);
+  const { inverse, forward } = plansFor(n);
+  inverse.inverse(spec, r);
   const half = length / 2;
   for (let i = 0; i < n; i++) {
     const lag = i <= n / 2 ? i : n - i; // |n| of the even impulse response
     r[i] = lag < half ? (r[i] / n) * 0.5 * (1 + Math.cos((2 * Math.PI * lag) / length)) : 0;
   }
-  createRealFft(n).forward(r, spec);
+  forward.forward(r, spec);
   const inverseAsd = new Float64Array(bins);
   const out = new Float64Array(bins);
   for (let k = 0; k < bins; k++) {
