@@ -19,6 +19,8 @@ describe("economy of the placement", () => {
     // layer (≈ 0.368 × perimeter / sqrt(1 − MM); metricVolume.ts).
     const { bank, report } = buildBankWithReport({ massRangeSolar: [1, 10], matchFloor: 0.97, fminHz: 10, psd: ajith2011 });
     expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(1.3);
+    // The README's "41 736 instead of 73 792" (the count before placement followed the contour).
+    expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(0.75);
     expect(report.templateCount).toBeGreaterThan(report.effectiveVolumeEstimate);
     expect(report.templateCount / report.effectiveVolumeEstimate).toBeLessThanOrEqual(1.4);
     expect(report.templateCount / report.boundaryAwareEstimate).toBeLessThanOrEqual(1.15);

@@ -1,4 +1,4 @@
-import { InputError } from "@chirpsieve/core";
+import { InputError, TemplateLimitError } from "@chirpsieve/core";
 
 /** A mistake in how the command was called (a flag's value, a missing flag). Exit code 2. */
 export class UsageError extends InputError {
@@ -29,4 +29,17 @@ export function describeFsError(err: Error): string {
   };
   if (e.code && e.path && what[e.code]) return `${e.path}: ${what[e.code]}`;
   return e.message.split("\n")[0];
+}
+
+/**
+ * Runs bank placement, turning a TemplateLimitError (the estimated count is above the limit) into a
+ * usage error on --mass-range that ends with `remedy`: what the user can change in this command.
+ */
+export function withTemplateLimit<T>(work: () => T, remedy: string): T {
+  try {
+    return work();
+  } catch (err) {
+    if (err instanceof TemplateLimitError) throw new UsageError(`--mass-range: ${err.message}; ${remedy}`);
+    throw err;
+  }
 }

@@ -3,13 +3,12 @@
 import type { Command } from "commander";
 import {
   buildBank,
-  TemplateLimitError,
   psdModelFromSpec,
   readBankFile,
   type FftBackendChoice,
   type SearchTemplate,
 } from "@chirpsieve/core";
-import { UsageError } from "./errors.js";
+import { UsageError, withTemplateLimit } from "./errors.js";
 import { parseChoiceFlag, parseNumberFlag } from "./options.js";
 
 /** Raw values of the shared flags, as commander hands them over. */
@@ -105,15 +104,10 @@ export function resolveTemplates(
   if (!massRangeSolar) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
-  let bank;
-  try {
-    bank = buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) });
-  } catch (err) {
-    if (err instanceof TemplateLimitError) {
-      throw new UsageError(`--mass-range: ${err.message}; narrow it, raise --fmin or lower --match-floor (or build a bank with \`chirpsieve bank\` and pass --bank)`);
-    }
-    throw err;
-  }
+  const bank = withTemplateLimit(
+    () => buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) }),
+    "narrow it, raise --fmin or lower --match-floor (or build a bank with `chirpsieve bank` and pass --bank)",
+  );
   return {
     templates: bank.templates,
     description: `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`,

@@ -3,7 +3,6 @@ import cliProgress from "cli-progress";
 import {
   buildBankWithReport,
   DEFAULT_MAX_TEMPLATES,
-  TemplateLimitError,
   iscoFrequencyHz,
   parseMatchFloorRange,
   psdModelFromSpec,
@@ -19,10 +18,13 @@ import {
   type SweepResult,
   type TemplateBank,
 } from "@chirpsieve/core";
-import { UsageError } from "../errors.js";
+import { UsageError, withTemplateLimit } from "../errors.js";
 import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
+
+/** What a user of `bank` can change when the bank would exceed --max-templates. */
+const LIMIT_REMEDY = "narrow it, raise --fmin, lower --match-floor or raise --max-templates";
 
 interface RegionFlags {
   massRange?: string;
@@ -176,17 +178,6 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   return { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz, maxTemplates };
 }
 
-/** Names the flags that change the answer when a bank would exceed --max-templates. */
-function withTemplateLimitHint<T>(work: () => T): T {
-  try {
-    return work();
-  } catch (err) {
-    if (err instanceof TemplateLimitError) {
-      throw new UsageError(`--mass-range: ${err.message}; narrow it, raise --fmin, lower --match-floor or raise --max-templates`);
-    }
-    throw err;
-  }
-}
 
 function fmt(x: number, digits = 4): string {
   return Number.isFinite(x) ? x.toPrecision(digits) : String(x);
@@ -202,7 +193,7 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
   checkOutputFile("--out", flags.out);
   if (flags.plot) checkOutputFile("--plot", flags.plot);
-  const { bank, report } = withTemplateLimitHint(() => buildBankWithReport({ ...region, matchFloor }));
+  const { bank, report } = withTemplateLimit(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
   if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
@@ -317,8 +308,9 @@ async function runSweep(flags: SweepFlags): Promise<void> {
   const bar = progressBar("sweep");
   let result: SweepResult;
   try {
-    result = withTemplateLimitHint(() =>
-      sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) }),
+    result = withTemplateLimit(
+      () => sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) }),
+      LIMIT_REMEDY,
     );
   } finally {
     bar.stop();

@@ -9,6 +9,7 @@ export * from "./metricVolume.js";
 export * from "./templateBank.js";
 export * from "./bankFile.js";
 export * from "./match.js";
+export * from "./goldenSection.js";
 export * from "./templateIndex.js";
 export * from "./verify.js";
 export * from "./scanCost.js";

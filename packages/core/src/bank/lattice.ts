@@ -1,9 +1,10 @@
 // Hexagonal (A2) lattice placement of templates over a mass region in chirp-time coordinates.
 import { InputError } from "../errors.js";
 import type { MassRegion } from "./massRegion.js";
-import type { ChirpTimeMetric, Metric2 } from "./metric.js";
+import { metricFactor, type ChirpTimeMetric, type Metric2 } from "./metric.js";
 import { placementMetric } from "./placementMetric.js";
 import { placeStrips } from "./stripPlacement.js";
+import { goldenSectionMax } from "./goldenSection.js";
 import { chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
 import type { PhaseChart } from "./phaseChart.js";
 
@@ -55,9 +56,7 @@ export interface LatticePlacement {
 /** Generalised eigenvalues (min, max) of the pencil (a, b): the range of (xᵀ a x)/(xᵀ b x). */
 export function metricRatioRange(a: Metric2, b: Metric2): [number, number] {
   // Whiten by b = Wᵀ W (W upper triangular), then the eigenvalues of W⁻ᵀ a W⁻¹.
-  const w00 = Math.sqrt(b.g00);
-  const w01 = b.g01 / w00;
-  const w11 = Math.sqrt(Math.max(b.g11 - w01 * w01, 1e-300));
+  const { w00, w01, w11 } = metricFactor(b);
   // W⁻¹ = [[1/w00, −w01/(w00 w11)], [0, 1/w11]]
   const i00 = 1 / w00;
   const i01 = -w01 / (w00 * w11);
@@ -239,9 +238,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   const walkStep = r / 8;
   patches.forEach((patch, pIndex) => {
     const G = patch.metric;
-    const w00 = Math.sqrt(G.g00);
-    const w01 = G.g01 / w00;
-    const w11 = Math.sqrt(G.g11 - w01 * w01);
+    const { w00, w01, w11 } = metricFactor(G);
     // u = W x (whitened chart coordinates of this patch's metric).
     const toU = (t0: number, t3: number): [number, number] => {
       const [x0, x1] = chart.toX(t0, t3);
@@ -524,33 +521,15 @@ function projectOntoBoundary(
         kBest = k;
       }
     }
-    let a = wLo + ((wHi - wLo) * Math.max(0, kBest - 1)) / n;
-    let b = wLo + ((wHi - wLo) * Math.min(n, kBest + 1)) / n;
-    const gr = (Math.sqrt(5) - 1) / 2;
-    let x1 = b - gr * (b - a);
-    let x2 = a + gr * (b - a);
-    let f1 = dist2(x1);
-    let f2 = dist2(x2);
-    for (let it = 0; it < 32; it++) {
-      if (f1 > f2) {
-        a = x1;
-        x1 = x2;
-        f1 = f2;
-        x2 = a + gr * (b - a);
-        f2 = dist2(x2);
-      } else {
-        b = x2;
-        x2 = x1;
-        f2 = f1;
-        x1 = b - gr * (b - a);
-        f1 = dist2(x1);
-      }
-    }
-    const sBest = f1 < f2 ? x1 : x2;
-    const dFinal = Math.min(f1, f2, dBest);
+    const a = wLo + ((wHi - wLo) * Math.max(0, kBest - 1)) / n;
+    const b = wLo + ((wHi - wLo) * Math.min(n, kBest + 1)) / n;
+    const nearest = goldenSectionMax((x) => -dist2(x), a, b, 32);
+    const sBest = nearest.x;
+    const dRefined = -nearest.value;
+    const dFinal = Math.min(dRefined, dBest);
     if (dFinal < bestD) {
       bestD = dFinal;
-      best = curve(dFinal === dBest && dBest < Math.min(f1, f2) ? wLo + ((wHi - wLo) * kBest) / n : sBest);
+      best = curve(dFinal === dBest && dBest < dRefined ? wLo + ((wHi - wLo) * kBest) / n : sBest);
     }
   }
   return best;

@@ -3,6 +3,7 @@ import { InputError } from "../errors.js";
 import { createComplexFft } from "../fft/create.js";
 import type { ComplexFft } from "../fft/types.js";
 import type { PsdModel } from "../noise/psdModel.js";
+import { goldenSectionMax } from "./goldenSection.js";
 
 /** A frequency grid f_k = k·dfHz, k = 0..nBins−1, and the size of the inverse FFT over it. */
 export interface MatchGrid {
@@ -182,32 +183,10 @@ export function createMatchComputer(options: MatchComputerOptions): MatchCompute
     if (refine) {
       curLast = kLast;
       // Golden-section search for the maximum of |z(t)|² on [t_{j−1}, t_{j+1}].
-      const g = (Math.sqrt(5) - 1) / 2;
-      let lo = tBest - dt;
-      let hi = tBest + dt;
-      let x1 = hi - g * (hi - lo);
-      let x2 = lo + g * (hi - lo);
-      let f1 = modulusAt(x1);
-      let f2 = modulusAt(x2);
-      for (let it = 0; it < 18; it++) {
-        if (f1 < f2) {
-          lo = x1;
-          x1 = x2;
-          f1 = f2;
-          x2 = lo + g * (hi - lo);
-          f2 = modulusAt(x2);
-        } else {
-          hi = x2;
-          x2 = x1;
-          f2 = f1;
-          x1 = hi - g * (hi - lo);
-          f1 = modulusAt(x1);
-        }
-      }
-      const fm = Math.max(f1, f2);
-      if (fm > best) {
-        best = fm;
-        tBest = f1 > f2 ? x1 : x2;
+      const peak = goldenSectionMax(modulusAt, tBest - dt, tBest + dt, 18);
+      if (peak.value > best) {
+        best = peak.value;
+        tBest = peak.x;
       }
     }
     let lag = tBest;

@@ -64,6 +64,16 @@ export function metricDistanceSquared(g: Metric2, dTau0: number, dTau3: number):
   return g.g00 * dTau0 * dTau0 + 2 * g.g01 * dTau0 * dTau3 + g.g11 * dTau3 * dTau3;
 }
 
+/**
+ * The Cholesky factor of g, g = Wᵀ W with W = [[w00, w01], [0, w11]] upper triangular: u = W Δ are
+ * coordinates in which g is Euclidean (|u|² = Δᵀ g Δ). Common practice, no source.
+ */
+export function metricFactor(g: Metric2): { w00: number; w01: number; w11: number } {
+  const w00 = Math.sqrt(g.g00);
+  const w01 = g.g01 / w00;
+  return { w00, w01, w11: Math.sqrt(Math.max(g.g11 - w01 * w01, 1e-300)) };
+}
+
 /** √det g, the proper-area density of the metric in the (τ0, τ3) plane (s⁻²). */
 export function metricDensity(g: Metric2): number {
   return Math.sqrt(Math.max(0, g.g00 * g.g11 - g.g01 * g.g01));

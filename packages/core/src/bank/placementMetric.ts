@@ -1,5 +1,5 @@
 // The quadratic form the lattice is laid with: the largest ellipse inside the minimal-match contour.
-import type { Metric2 } from "./metric.js";
+import { metricFactor, type Metric2 } from "./metric.js";
 import type { TangentMatch } from "./tangentMatch.js";
 
 /** Directions (over half a turn) in which the contour is found; it is symmetric under Δ → −Δ (A(−Δ) = A(Δ)). */
@@ -34,9 +34,8 @@ export function placementMetric(tangent: TangentMatch, tau0: number, tau3: numbe
   const { g, cutoffSensitivity } = tangent.sample;
   const target = 1 - minimalMatch;
   const r = Math.sqrt(target);
-  const l00 = Math.sqrt(g.g00);
-  const l10 = g.g01 / l00;
-  const l11 = Math.sqrt(Math.max(g.g11 - l10 * l10, 1e-300));
+  // g = L Lᵀ with L = Wᵀ lower triangular (metricFactor).
+  const { w00: l00, w01: l10, w11: l11 } = metricFactor(g);
   const u0 = -1 / tau0;
   const u1 = 1 / tau3;
   const radii = new Float64Array(N_DIRECTIONS);

@@ -2,7 +2,7 @@
 import type { MassRegion } from "./massRegion.js";
 import type { PhaseChart } from "./phaseChart.js";
 import { metricRatioRange, type LatticePatch, type LatticePoint } from "./lattice.js";
-import type { Metric2 } from "./metric.js";
+import { metricFactor, type Metric2 } from "./metric.js";
 
 export interface StripOptions {
   region: MassRegion;
@@ -109,11 +109,9 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
     for (const c of [lower[j0 + 1], upper[j0], upper[j0 + 1]]) scale = Math.max(scale, metricRatioRange(c, base)[1]);
     return { g00: base.g00 * scale, g01: base.g01 * scale, g11: base.g11 * scale };
   };
-  /** W v with M = Wᵀ W (W upper triangular): coordinates in which M is Euclidean. */
+  /** W v with M = Wᵀ W (metric.ts metricFactor): coordinates in which M is Euclidean. */
   const whiten = (m: Metric2, v0: number, v1: number): [number, number] => {
-    const w00 = Math.sqrt(m.g00);
-    const w01 = m.g01 / w00;
-    const w11 = Math.sqrt(Math.max(m.g11 - w01 * w01, 1e-300));
+    const { w00, w01, w11 } = metricFactor(m);
     return [w00 * v0 + w01 * v1, w11 * v1];
   };
   const length = (m: Metric2, p: [number, number], q: [number, number]): number => {

@@ -2,7 +2,7 @@
 import { InputError } from "../errors.js";
 import type { PsdModel } from "../noise/psdModel.js";
 import { createChirpTimeMetric } from "./metric.js";
-import { createMassRegion } from "./massRegion.js";
+import { createMassRegion, type MassRegion } from "./massRegion.js";
 import { placeA2Lattice } from "./lattice.js";
 import { boundaryLayerEstimate, hexagonCellArea, regionProperArea, regionProperPerimeter } from "./metricVolume.js";
 import { placementMetric } from "./placementMetric.js";
@@ -144,18 +144,15 @@ export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> &
  */
 export function buildBankWithReport(options: BuildBankOptions): { bank: TemplateBank; report: BankPlacementReport } {
   checkBankOptions(options);
-  checkTemplateLimit(options);
   const { fminHz, psd, matchFloor } = options;
   const [mMin, mMax] = options.massRangeSolar;
-  const q = options.maxMassRatio;
-  const region = createMassRegion(
-    { minMassSolar: mMin, maxMassSolar: mMax, maxTotalMassSolar: options.maxTotalMassSolar, maxMassRatio: q },
-    fminHz,
-  );
+  const region = regionOf(options);
   const metric = createChirpTimeMetric({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, pointsPerEFold: 60 });
   const properArea = regionProperArea(region, (t0, t3) => metric.at(t0, t3));
   const cell = hexagonCellArea(matchFloor);
   const properPerimeter = regionProperPerimeter(region, (t0, t3) => metric.at(t0, t3));
+  // Refuse before the placement, the only slow part, from the same area and perimeter the report gives.
+  checkTemplateLimit(options, properArea / cell + boundaryLayerEstimate(properPerimeter, matchFloor));
   const chart = createPhaseChart({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, region });
   const placement = placeA2Lattice({ region, metric, chart, minimalMatch: matchFloor, tolerance: options.tolerance, bandRows: options.bandRows });
   const templates: Template[] = placement.points.map((p) => {
@@ -203,11 +200,7 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
  */
 export function estimateTemplateCount(options: BuildBankOptions): number {
   checkBankOptions(options);
-  const [mMin, mMax] = options.massRangeSolar;
-  const region = createMassRegion(
-    { minMassSolar: mMin, maxMassSolar: mMax, maxTotalMassSolar: options.maxTotalMassSolar, maxMassRatio: options.maxMassRatio },
-    options.fminHz,
-  );
+  const region = regionOf(options);
   const metric = createChirpTimeMetric({ psd: options.psd, fLowHz: options.fminHz, fHighHz: options.fmaxHz, pointsPerEFold: 60 });
   const area = regionProperArea(region, (t0, t3) => metric.at(t0, t3));
   const perimeter = regionProperPerimeter(region, (t0, t3) => metric.at(t0, t3), 100);
@@ -215,12 +208,11 @@ export function estimateTemplateCount(options: BuildBankOptions): number {
 }
 
 /**
- * Throws TemplateLimitError, before any placement work, when the estimated count
- * (estimateTemplateCount) exceeds options.maxTemplates (default DEFAULT_MAX_TEMPLATES).
+ * Throws TemplateLimitError, before any placement work, when the estimated count (by default
+ * estimateTemplateCount) exceeds options.maxTemplates (default DEFAULT_MAX_TEMPLATES).
  */
-export function checkTemplateLimit(options: BuildBankOptions): void {
+export function checkTemplateLimit(options: BuildBankOptions, estimate = estimateTemplateCount(options)): void {
   const limit = options.maxTemplates ?? DEFAULT_MAX_TEMPLATES;
-  const estimate = estimateTemplateCount(options);
   if (!(estimate <= limit)) {
     const [mMin, mMax] = options.massRangeSolar;
     throw new TemplateLimitError(
@@ -230,6 +222,15 @@ export function checkTemplateLimit(options: BuildBankOptions): void {
       limit,
     );
   }
+}
+
+/** The mass region the options describe. */
+function regionOf(options: BuildBankOptions): MassRegion {
+  const [mMin, mMax] = options.massRangeSolar;
+  return createMassRegion(
+    { minMassSolar: mMin, maxMassSolar: mMax, maxTotalMassSolar: options.maxTotalMassSolar, maxMassRatio: options.maxMassRatio },
+    options.fminHz,
+  );
 }
 
 /** Builds a bank (see {@link buildBankWithReport}). */
