@@ -72,6 +72,13 @@ export function registerBank(program: Command): void {
         "is `chirpsieve bank build --mass-range ...`.",
     );
 
+  // The random signals of `verify` and `sweep`.
+  const withDraws = (cmd: Command): Command =>
+    cmd
+      .option("--signal <model>", "taylorf2 (the bank's own model: coverage) or pn-time (TaylorT4: cost of the approximant)", "taylorf2")
+      .option("--draw-space <space>", "draw uniformly in component masses (masses) or in chirp times (chirp-times)", "masses")
+      .option("--seed <seed>", "seed of the draws", "1");
+
   const withRegion = (cmd: Command): Command =>
     cmd
       .option("--mass-range <min:max>", "component masses, solar masses, e.g. 1:3")
@@ -97,19 +104,17 @@ export function registerBank(program: Command): void {
     .option("--json", "print the placement summary as JSON")
     .action((flags: BuildFlags) => runBuild(flags, process.argv.slice(2)));
 
-  bank
+  const verify = bank
     .command("verify")
     .description("Fitting factors of random signals against a bank: the fraction reaching its minimal match, percentiles, rate loss, worst points.")
     .argument("<bank-file>", "bank file written by `chirpsieve bank build`")
-    .option("--draws <n>", "number of random signals", "1000")
-    .option("--signal <model>", "taylorf2 (the bank's own model: coverage) or pn-time (TaylorT4: cost of the approximant)", "taylorf2")
-    .option("--draw-space <space>", "draw uniformly in component masses (masses) or in chirp times (chirp-times)", "masses")
-    .option("--seed <seed>", "seed of the draws", "1")
+    .option("--draws <n>", "number of random signals", "1000");
+  withDraws(verify)
     .option("--json", "print the report as JSON")
     .option("--require <fraction>", "exit with code 1 when fewer than this fraction of draws reach the minimal match")
     .action((file: string, flags: VerifyFlags) => runVerify(file, flags));
 
-  withRegion(
+  const sweep = withRegion(
     bank
       .command("sweep")
       .description(
@@ -118,10 +123,8 @@ export function registerBank(program: Command): void {
       ),
   )
     .option("--match-floor <range>", "minimal matches MIN:MAX:STEP (or one value)", "0.90:0.99:0.01")
-    .option("--draws <n>", "random signals per bank", "200")
-    .option("--signal <model>", "taylorf2 or pn-time", "taylorf2")
-    .option("--draw-space <space>", "masses or chirp-times", "masses")
-    .option("--seed <seed>", "seed of the draws", "1")
+    .option("--draws <n>", "random signals per bank", "200");
+  withDraws(sweep)
     .option("--json", "print the table as JSON")
     .option("--plot <file>", "SVG of the trade-off: scan cost (or template count) against rate loss")
     .action(async (flags: SweepFlags) => {
@@ -130,8 +133,6 @@ export function registerBank(program: Command): void {
       await runSweep(flags);
     });
 }
-
-/** Fails early, naming the flag, when a file cannot be written into its directory. */
 
 interface RegionSettings {
   massRangeSolar: [number, number];
