@@ -99,8 +99,11 @@ export function metricRatioRange(a: Metric2, b: Metric2): [number, number] {
  * which keeps the part of their cell inside the region covered because the region is locally convex
  * (as Cokelaer (2007) keeps boundary templates on the physical boundary); so every template lies within
  * the requested limits. A moved point within 0.05 r of another template of its patch is dropped.
- * Thin patches: where rows along the band (stripPlacement.ts) need fewer templates than the patch's
- * lattice with its boundary layer, the rows are kept instead (`bandRows`, default on).
+ * Rows instead: where staggered rows along the band (stripPlacement.ts) need fewer templates than a
+ * patch's lattice with its boundary layer, the patch takes rows (`bandRows`, default on); neighbouring
+ * patches that take rows (along τ0, same η-range) are covered by one run of rows, which pays for the
+ * corners at a τ0-side only at the run's two ends. A run whose rows cannot be laid, or need more
+ * templates than its lattices, keeps the lattices.
  * Deterministic: no randomness; the lattice of a patch is anchored at a sample point of the patch.
  */
 export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
@@ -234,6 +237,8 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
 
   // ---- Lattices ------------------------------------------------------------------------------
   const points: LatticePoint[] = [];
+  const latticePoints: LatticePoint[][] = [];
+  const useRows: boolean[] = [];
   const rowStep = (spacing * Math.sqrt(3)) / 2;
   const walkStep = r / 8;
   patches.forEach((patch, pIndex) => {
@@ -431,10 +436,37 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
         remember(q);
       }
     }
-    // A thin patch is covered more cheaply by rows along the band (stripPlacement.ts): keep the smaller.
-    const strips = bandRows ? placeStrips({ region, chart, patch, patchIndex: pIndex, radius: r }) : null;
-    points.push(...(strips && strips.length < here.length ? strips : here));
+    latticePoints.push(here);
+    // A thin patch is covered more cheaply by rows along the band (stripPlacement.ts); compared here
+    // without the ends' clearance, which a run of such patches pays only at its two ends.
+    const strips = bandRows ? placeStrips({ region, chart, patches: [patch], patchIndex: pIndex, radius: r, clearEnds: false }) : null;
+    useRows.push(strips !== null && strips.length < here.length);
   });
+  // Runs of neighbouring patches (along τ0, same η-range) that take rows are covered as one band; a
+  // run whose rows cannot be laid (or need more templates than its lattices) keeps the lattices.
+  const order = patches.map((_, i) => i).sort((p, q) => patches[p].tau0Lo - patches[q].tau0Lo || patches[p].etaLo - patches[q].etaLo);
+  const done = new Set<number>();
+  for (let n = 0; n < order.length; n++) {
+    const first = order[n];
+    if (done.has(first)) continue;
+    done.add(first);
+    if (!useRows[first]) {
+      points.push(...latticePoints[first]);
+      continue;
+    }
+    const run = [first];
+    for (;;) {
+      const tail = patches[run[run.length - 1]];
+      const next = order.find((i) => !done.has(i) && useRows[i] && patches[i].tau0Lo === tail.tau0Hi && patches[i].etaLo === tail.etaLo && patches[i].etaHi === tail.etaHi);
+      if (next === undefined) break;
+      done.add(next);
+      run.push(next);
+    }
+    const rows = placeStrips({ region, chart, patches: run.map((i) => patches[i]), patchIndex: first, radius: r });
+    const latticeCount = run.reduce((sum, i) => sum + latticePoints[i].length, 0);
+    if (rows && rows.length < latticeCount) points.push(...rows);
+    else for (const i of run) points.push(...latticePoints[i]);
+  }
   // Rows of neighbouring pieces or patches can end on the same point: keep one of each.
   const seen = new Set<string>();
   const unique = points.filter((p) => {
