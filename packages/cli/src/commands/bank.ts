@@ -211,8 +211,8 @@ function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport):
   return (
     `${file}: ${r.templateCount} templates for ${a}–${b} M_sun from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
     `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}); ` +
-    `area under the minimal-match contours the lattice follows plus boundary layer ${r.boundaryAwareEstimate.toFixed(0)} ` +
-    `(count/that ${(r.templateCount / r.boundaryAwareEstimate).toFixed(2)}), ${r.patchCount} lattice patch${r.patchCount === 1 ? "" : "es"}`
+    `area under the minimal-match contours the placement follows plus a lattice's boundary layer ${r.boundaryAwareEstimate.toFixed(0)} ` +
+    `(count/that ${(r.templateCount / r.boundaryAwareEstimate).toFixed(2)}), ${r.patchCount} patch${r.patchCount === 1 ? "" : "es"} (lattices or rows along the band)`
   );
 }
 
