@@ -23,7 +23,7 @@ export interface StripOptions {
   clearEnds?: boolean;
   /** Covering radius sqrt(1 − MM) in the patch's metric. */
   radius: number;
-  /** Largest number of rows tried (default 8); wider bands are left to the lattice. */
+  /** Largest number of rows tried (default 16); wider bands are left to the lattice. */
   maxRows?: number;
 }
 
@@ -78,7 +78,7 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
   const { region, chart, patches, patchIndex, radius: r } = options;
   const patch = patches[0];
   const clearEnds = options.clearEnds ?? true;
-  const maxRows = options.maxRows ?? 8;
+  const maxRows = options.maxRows ?? 16;
   const toX = (t0: number, eta: number): [number, number] => chart.toX(t0, region.tau3At(t0, eta));
   const { tau0Lo: a, etaLo: e1, etaHi: e2 } = patch;
   const b = patches[patches.length - 1].tau0Hi;

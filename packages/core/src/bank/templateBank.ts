@@ -193,9 +193,9 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
 /**
  * The template count a bank over this region needs, roughly: the metric-volume estimate (proper area
  * over the hexagonal cell; Owen 1996) plus the boundary layer (metricVolume.ts), both under the
- * quadratic metric. Measured against placed banks at MM 0.97 it is 0.89–1.71× the count: high for
+ * quadratic metric. Measured against placed banks at MM 0.97 it is 0.89–1.74× the count: high for
  * wide regions from low fmin (whose placement follows the wider minimal-match contour; 1–10 M_sun from
- * 10 Hz: 1.66×) and for bands a few cells wide or less (covered by rows with no boundary layer; 1.2–2
+ * 10 Hz: 1.74×) and for bands a few cells wide or less (covered by rows with no boundary layer; 1.2–2
  * M_sun from 40 Hz: 1.71×), low for heavy ones (whose ISCO cutoff narrows the contours; 5–30 M_sun
  * from 20 Hz: 0.89×). It is an upper-side guide, not a prediction. It takes well under a second, so
  * absurd requests are refused at once.
