@@ -93,7 +93,6 @@ export function createPhaseChart(options: PhaseChartOptions): PhaseChart {
   // Samples over the region in (τ0, η).
   const a = new Float64Array(8);
   const b = new Float64Array(8);
-  const c = new Float64Array(N_BASIS);
   const coefficients = (mSolar: number, eta: number, out: Float64Array): void => {
     taylorF2PhaseCoefficientsInto(eta, pnOrder, a, b);
     const pm = Math.PI * mSolar * T_SUN;
