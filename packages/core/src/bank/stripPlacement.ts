@@ -136,8 +136,8 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
     return lo + (e2 - lo) * frac;
   };
   // The metric where the rows run: the sampled placement metrics of the patch holding τ0 (lattice.ts),
-  // interpolated bilinearly in (τ0, band fraction) between the 9 × 5 samples (the interpolation's
-  // error is within the checks' 1% margin; direct matches check the result); the patch's own
+  // interpolated bilinearly in (τ0, band fraction) between the 9 × 5 samples (not conservative:
+  // coverage rests on the checks' 1% margin, measured with direct matches); the patch's own
   // (conservative) metric where it was not sampled there.
   const metricAt = (t: number, frac: number): Metric2 => {
     let pi = 0;
