@@ -1,7 +1,7 @@
 // Hexagonal (A2) lattice placement of templates over a mass region in chirp-time coordinates.
 import { InputError } from "../errors.js";
 import type { MassRegion } from "./massRegion.js";
-import { metricFactor, type ChirpTimeMetric, type Metric2 } from "./metric.js";
+import { metricDistanceSquared, metricFactor, type ChirpTimeMetric, type Metric2 } from "./metric.js";
 import { placementMetric } from "./placementMetric.js";
 import { placeStrips } from "./stripPlacement.js";
 import { goldenSectionMax } from "./goldenSection.js";
@@ -123,11 +123,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
     const dens = Math.sqrt(Math.max(0, gTau.g00 * gTau.g11 - gTau.g01 * gTau.g01)) * ((0.6 * tau3) / eta);
     return { g: chart.pullBack(gTau, tau0, tau3), density: dens };
   };
-  const distRef = (g: Metric2, p: [number, number], q: [number, number]): number => {
-    const d0 = p[0] - q[0];
-    const d1 = p[1] - q[1];
-    return Math.sqrt(g.g00 * d0 * d0 + 2 * g.g01 * d0 * d1 + g.g11 * d1 * d1);
-  };
+  const distRef = (g: Metric2, p: [number, number], q: [number, number]): number => Math.sqrt(metricDistanceSquared(g, p[0] - q[0], p[1] - q[1]));
   const cellArea = 1.5 * Math.sqrt(3) * r * r;
 
   // ---- Patches -------------------------------------------------------------------------------
@@ -446,8 +442,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   // run whose rows cannot be laid (or need more templates than its lattices) keeps the lattices.
   const order = patches.map((_, i) => i).sort((p, q) => patches[p].tau0Lo - patches[q].tau0Lo || patches[p].etaLo - patches[q].etaLo);
   const done = new Set<number>();
-  for (let n = 0; n < order.length; n++) {
-    const first = order[n];
+  for (const first of order) {
     if (done.has(first)) continue;
     done.add(first);
     if (!useRows[first]) {
@@ -467,7 +462,8 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
     if (rows && rows.length < latticeCount) points.push(...rows);
     else for (const i of run) points.push(...latticePoints[i]);
   }
-  // Rows of neighbouring pieces or patches can end on the same point: keep one of each.
+  // Neighbouring pieces of rows share their end normal and can put a template on the same point
+  // (the middle row of an odd row count): keep one of each.
   const seen = new Set<string>();
   const unique = points.filter((p) => {
     const key = `${p.tau0.toPrecision(12)},${p.tau3.toPrecision(12)}`;

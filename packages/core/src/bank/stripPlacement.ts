@@ -2,7 +2,7 @@
 import type { MassRegion } from "./massRegion.js";
 import type { PhaseChart } from "./phaseChart.js";
 import type { LatticePatch, LatticePoint } from "./lattice.js";
-import { metricFactor, type Metric2 } from "./metric.js";
+import { metricDistanceSquared, metricFactor, type Metric2 } from "./metric.js";
 import { triangleCoveringRadius } from "./triangleCover.js";
 import { goldenSectionMax } from "./goldenSection.js";
 
@@ -82,39 +82,41 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
   const toX = (t0: number, eta: number): [number, number] => chart.toX(t0, region.tau3At(t0, eta));
   const { tau0Lo: a, etaLo: e1, etaHi: e2 } = patch;
   const b = patches[patches.length - 1].tau0Hi;
-  // η_low on a grid over [a, b] (with the chain's kinks as nodes), interpolated linearly.
-  const nodes: number[] = [];
-  const nGrid = Math.min(4096, 256 * patches.length);
-  for (let k = 0; k <= nGrid; k++) nodes.push(a + ((b - a) * k) / nGrid);
-  for (const t of region.chainTau0) if (t > a && t < b) nodes.push(t);
-  nodes.sort((p, q) => p - q);
-  const lows = nodes.map((t) => Math.max(e1, region.etaLow(t)));
-  const inBand = lows.map((lo) => lo <= e2);
-  // The band must be one piece: a sub-range [aa, bb] of τ0 where the patch meets the region.
-  const first = inBand.indexOf(true);
-  const last = inBand.lastIndexOf(true);
-  if (first < 0) return [];
-  for (let k = first; k <= last; k++) if (!inBand[k]) return null;
-  // The same beyond [a, b], where the rows' normals and the run's ends reach: a quarter of its length
-  // on either side (inside the region's range), 64 nodes each.
+  // η_low on a grid (with the chain's kinks as nodes), interpolated linearly: over [a, b], and a
+  // quarter of its length beyond either side (inside the region's range, 64 nodes each), where the
+  // rows' normals and the run's ends reach.
   const aL = Math.max(region.tau0Min, a - 0.25 * (b - a));
   const bR = Math.min(region.tau0Max, b + 0.25 * (b - a));
-  const extNodes = [...nodes];
-  for (let k = 0; k < 64; k++) extNodes.push(aL + ((a - aL) * k) / 64, b + ((bR - b) * (k + 1)) / 64);
-  for (const t of region.chainTau0) if ((t > aL && t < a) || (t > b && t < bR)) extNodes.push(t);
-  extNodes.sort((p, q) => p - q);
-  const extLows = extNodes.map((t) => Math.max(e1, region.etaLow(t)));
+  const nodes: number[] = [];
+  const nGrid = Math.min(4096, 256 * patches.length);
+  for (let k = 0; k <= nGrid; k++) nodes.push(k === nGrid ? b : a + ((b - a) * k) / nGrid);
+  for (let k = 0; k < 64; k++) nodes.push(aL + ((a - aL) * k) / 64, b + ((bR - b) * (k + 1)) / 64);
+  for (const t of region.chainTau0) if (t > aL && t < bR && t !== a && t !== b) nodes.push(t);
+  nodes.sort((p, q) => p - q);
+  const lows = nodes.map((t) => Math.max(e1, region.etaLow(t)));
+  // The band must be one piece: a sub-range [aa, bb] of τ0 where the patch meets the region.
+  const iA = nodes.indexOf(a);
+  const iB = nodes.lastIndexOf(b);
+  let first = -1;
+  let last = -1;
+  for (let k = iA; k <= iB; k++) {
+    if (lows[k] > e2) continue;
+    if (first < 0) first = k;
+    else if (last < k - 1) return null;
+    last = k;
+  }
+  if (first < 0) return [];
   const low = (t: number): number => {
     if (t < aL || t > bR) return Math.min(e2, Math.max(e1, region.etaLow(t)));
     let lo = 0;
-    let hi = extNodes.length - 1;
+    let hi = nodes.length - 1;
     while (hi - lo > 1) {
       const m = (lo + hi) >> 1;
-      if (extNodes[m] <= t) lo = m;
+      if (nodes[m] <= t) lo = m;
       else hi = m;
     }
-    const f = extNodes[hi] > extNodes[lo] ? (t - extNodes[lo]) / (extNodes[hi] - extNodes[lo]) : 0;
-    return Math.min(e2, extLows[lo] + f * (extLows[hi] - extLows[lo]));
+    const f = nodes[hi] > nodes[lo] ? (t - nodes[lo]) / (nodes[hi] - nodes[lo]) : 0;
+    return Math.min(e2, lows[lo] + f * (lows[hi] - lows[lo]));
   };
   // Where the band starts and ends inside [a, b] (between grid nodes: bisection on the exact η_low).
   const edgeBetween = (tIn: number, tOut: number): number => {
@@ -127,8 +129,8 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
     }
     return p;
   };
-  const aa = first > 0 ? edgeBetween(nodes[first], nodes[first - 1]) : a;
-  const bb = last < nodes.length - 1 ? edgeBetween(nodes[last], nodes[last + 1]) : b;
+  const aa = first > iA ? edgeBetween(nodes[first], nodes[first - 1]) : a;
+  const bb = last < iB ? edgeBetween(nodes[last], nodes[last + 1]) : b;
   if (!(bb > aa)) return [];
 
   const etaAtFraction = (t: number, frac: number): number => {
@@ -141,7 +143,12 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
   // (conservative) metric where it was not sampled there.
   const metricAt = (t: number, frac: number): Metric2 => {
     let pi = 0;
-    while (pi < patches.length - 1 && t > patches[pi].tau0Hi) pi++;
+    let pj = patches.length - 1;
+    while (pi < pj) {
+      const m = (pi + pj) >> 1;
+      if (t > patches[m].tau0Hi) pi = m + 1;
+      else pj = m;
+    }
     const here = patches[pi];
     const nT = here.sampleTau0.length;
     const rows = here.samples;
@@ -173,10 +180,8 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
     const { w00, w01, w11 } = metricFactor(m);
     return [w00 * v0 + w01 * v1, w11 * v1];
   };
-  const length = (m: Metric2, p: [number, number], q: [number, number]): number => {
-    const [u0, u1] = whiten(m, q[0] - p[0], q[1] - p[1]);
-    return Math.hypot(u0, u1);
-  };
+  const length = (m: Metric2, p: [number, number], q: [number, number]): number =>
+    Math.sqrt(metricDistanceSquared(m, q[0] - p[0], q[1] - p[1]));
   // Direction (chart coordinates) of the curve η = fraction of the band, at τ0 = t: the chart step
   // over τ0 ∈ [t − dTau, t + dTau] (central difference).
   const dTau = 1e-4 * (bb - aa);
@@ -237,13 +242,12 @@ export function placeStrips(options: StripOptions): LatticePoint[] | null {
 
   // The band's perpendicular width at nodes along it; pieces of constant row count k between them.
   const nW = 64;
-  const widthAt = (t: number): number => across(t)[ACROSS];
   const ts: number[] = [];
   const ws: number[] = [];
   for (let k = 0; k <= nW; k++) {
     const t = aa + ((bb - aa) * k) / nW;
     ts.push(t);
-    ws.push(widthAt(t));
+    ws.push(across(t)[ACROSS]);
   }
   const rowsFor = (w: number): number => {
     let best = 0;
