@@ -101,9 +101,9 @@ export function metricRatioRange(a: Metric2, b: Metric2): [number, number] {
  * the requested limits. A moved point within 0.05 r of another template of its patch is dropped.
  * Rows instead: where staggered rows along the band (stripPlacement.ts) need fewer templates than a
  * patch's lattice with its boundary layer, the patch takes rows (`bandRows`, default on); neighbouring
- * patches that take rows (along τ0, same η-range) are covered by one run of rows, which pays for the
- * corners at a τ0-side only at the run's two ends. A run whose rows cannot be laid, or need more
- * templates than its lattices, keeps the lattices.
+ * patches (along τ0, same η-range) are covered by one run of rows, which pays for the corners at a
+ * τ0-side only at the run's two ends. The choice is made per run, by each patch's share of the run's
+ * rows; a run whose rows cannot be laid keeps the lattices where rows fail patch by patch.
  * Deterministic: no randomness; the lattice of a patch is anchored at a sample point of the patch.
  */
 export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
@@ -234,7 +234,6 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   // ---- Lattices ------------------------------------------------------------------------------
   const points: LatticePoint[] = [];
   const latticePoints: LatticePoint[][] = [];
-  const useRows: boolean[] = [];
   const rowStep = (spacing * Math.sqrt(3)) / 2;
   const walkStep = r / 8;
   patches.forEach((patch, pIndex) => {
@@ -433,34 +432,70 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
       }
     }
     latticePoints.push(here);
-    // A thin patch is covered more cheaply by rows along the band (stripPlacement.ts); compared here
-    // without the ends' clearance, which a run of such patches pays only at its two ends.
-    const strips = bandRows ? placeStrips({ region, chart, patches: [patch], patchIndex: pIndex, radius: r, clearEnds: false }) : null;
-    useRows.push(strips !== null && strips.length < here.length);
   });
-  // Runs of neighbouring patches (along τ0, same η-range) that take rows are covered as one band; a
-  // run whose rows cannot be laid (or need more templates than its lattices) keeps the lattices.
+  // Runs of neighbouring patches (along τ0, same η-range) are covered by one band of rows, which pays
+  // for the corners at a τ0-side only at the run's two ends. Decided per run: the run takes its rows
+  // when they are fewer than its lattices and every inner patch's share of them (templates by τ0) is
+  // smaller than its own lattice; the end patches' shares hold the ends' clearance, which any run pays.
+  // Otherwise each patch decides alone (its rows laid without that clearance, against its lattice),
+  // and the patches that take rows are laid again as runs; a run that then fails keeps its lattices.
   const order = patches.map((_, i) => i).sort((p, q) => patches[p].tau0Lo - patches[q].tau0Lo || patches[p].etaLo - patches[q].etaLo);
+  const latticeCount = (run: number[]): number => run.reduce((sum, i) => sum + latticePoints[i].length, 0);
+  const latticeOf = (run: number[]): void => {
+    for (const i of run) points.push(...latticePoints[i]);
+  };
+  const layRun = (run: number[]): LatticePoint[] | null =>
+    placeStrips({ region, chart, patches: run.map((i) => patches[i]), patchIndex: run[0], radius: r });
+  const coverRun = (run: number[]): void => {
+    const rows = layRun(run);
+    if (rows !== null && rows.length < latticeCount(run)) {
+      const share = new Array<number>(run.length).fill(0);
+      for (const p of rows) {
+        let k = 0;
+        while (k < run.length - 1 && p.tau0 >= patches[run[k]].tau0Hi) k++;
+        share[k]++;
+      }
+      if (run.every((i, k) => k === 0 || k === run.length - 1 || share[k] < latticePoints[i].length)) {
+        points.push(...rows);
+        return;
+      }
+    }
+    if (run.length === 1) return latticeOf(run);
+    let piece: number[] = [];
+    const flush = (): void => {
+      if (piece.length === 0) return;
+      const again = layRun(piece);
+      if (again !== null && again.length < latticeCount(piece)) points.push(...again);
+      else latticeOf(piece);
+      piece = [];
+    };
+    for (const i of run) {
+      const alone = placeStrips({ region, chart, patches: [patches[i]], patchIndex: i, radius: r, clearEnds: false });
+      if (alone !== null && alone.length < latticePoints[i].length) piece.push(i);
+      else {
+        flush();
+        latticeOf([i]);
+      }
+    }
+    flush();
+  };
   const done = new Set<number>();
   for (const first of order) {
     if (done.has(first)) continue;
     done.add(first);
-    if (!useRows[first]) {
-      points.push(...latticePoints[first]);
+    if (!bandRows) {
+      latticeOf([first]);
       continue;
     }
     const run = [first];
     for (;;) {
       const tail = patches[run[run.length - 1]];
-      const next = order.find((i) => !done.has(i) && useRows[i] && patches[i].tau0Lo === tail.tau0Hi && patches[i].etaLo === tail.etaLo && patches[i].etaHi === tail.etaHi);
+      const next = order.find((i) => !done.has(i) && patches[i].tau0Lo === tail.tau0Hi && patches[i].etaLo === tail.etaLo && patches[i].etaHi === tail.etaHi);
       if (next === undefined) break;
       done.add(next);
       run.push(next);
     }
-    const rows = placeStrips({ region, chart, patches: run.map((i) => patches[i]), patchIndex: first, radius: r });
-    const latticeCount = run.reduce((sum, i) => sum + latticePoints[i].length, 0);
-    if (rows && rows.length < latticeCount) points.push(...rows);
-    else for (const i of run) points.push(...latticePoints[i]);
+    coverRun(run);
   }
   // Neighbouring pieces of rows share their end normal and can put a template on the same point
   // (the middle row of an odd row count): keep one of each.
