@@ -117,11 +117,19 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   const fLow = region.fLowHz;
 
   // Effective metric in chart coordinates, and the proper-area density in (τ0, η) at that point.
+  // Remembered by exact (τ0, η): a split patch's halves share about half their sample points with it.
+  const sampled = new Map<number, Map<number, { g: Metric2; density: number }>>();
   const sampleAt = (tau0: number, eta: number): { g: Metric2; density: number } => {
+    let column = sampled.get(tau0);
+    const known = column?.get(eta);
+    if (known) return known;
     const tau3 = region.tau3At(tau0, eta);
     const gTau = placementMetric(metric.tangent(tau0, tau3), tau0, tau3, minimalMatch);
     const dens = Math.sqrt(Math.max(0, gTau.g00 * gTau.g11 - gTau.g01 * gTau.g01)) * ((0.6 * tau3) / eta);
-    return { g: chart.pullBack(gTau, tau0, tau3), density: dens };
+    const smp = { g: chart.pullBack(gTau, tau0, tau3), density: dens };
+    if (!column) sampled.set(tau0, (column = new Map()));
+    column.set(eta, smp);
+    return smp;
   };
   const distRef = (g: Metric2, p: [number, number], q: [number, number]): number => Math.sqrt(metricDistanceSquared(g, p[0] - q[0], p[1] - q[1]));
   const cellArea = 1.5 * Math.sqrt(3) * r * r;
