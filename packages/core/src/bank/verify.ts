@@ -314,13 +314,19 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
 /**
  * Spectra of TaylorT4 signals on the coarse match grid: h+ of an optimally oriented source (ι = 0),
  * from 0.85 fmin (its 4-cycle start taper lies below the band) to the ISCO, sampled at a power of two
- * ≥ 2.2 × the grid's top frequency, in a series of a power-of-two duration ≥ the signal + 1 s; its real
- * FFT holds the grid's frequencies as every m-th bin (m = grid spacing × series duration).
+ * ≥ 2.2 × the grid's top frequency, in a series of a power-of-two duration ≥ the signal + 1 s. The
+ * grid's frequencies are every m-th bin of that series' DFT (m = grid spacing × series duration),
+ * which is the DFT of the series folded onto L = N / m samples, x_L[j] = Σ_l x[j + l L] (sampling
+ * a spectrum aliases the time series; common practice, no source): one L-point FFT, planned once.
  */
 function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: number, fTop: number): {
   make(m1: number, m2: number, out: Float64Array): void;
 } {
   const fs = Math.pow(2, Math.ceil(Math.log2(2.2 * fTop)));
+  const foldedLength = Math.round(fs / grid.dfHz);
+  const fft = createRealFft(foldedLength);
+  const folded = new Float64Array(foldedLength);
+  const spec = new Float64Array(foldedLength + 2);
   return {
     make(m1, m2, out) {
       const fStart = 0.85 * fmin;
@@ -337,21 +343,18 @@ function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: nu
         sampleRate: fs,
         fStartHz: fStart,
       });
-      const series = new Float64Array(n);
+      folded.fill(0);
       for (let i = 0; i < w.hPlus.length; i++) {
         const j = w.startIndex + i;
-        if (j >= 0 && j < n) series[j] = w.hPlus[i];
+        if (j >= 0 && j < n) folded[j % foldedLength] += w.hPlus[i];
       }
-      const fft = createRealFft(n);
-      const spec = new Float64Array(n + 2);
-      fft.forward(series, spec);
-      const step = Math.round(grid.dfHz * seconds);
+      fft.forward(folded, spec);
       out.fill(0);
       const dt = 1 / fs;
-      for (let k = 0; k < grid.nBins && k * step <= n / 2; k++) {
+      for (let k = 0; k < grid.nBins && k <= foldedLength / 2; k++) {
         // Scale by dt so the values approximate the continuous transform (irrelevant to the match).
-        out[2 * k] = spec[2 * k * step] * dt;
-        out[2 * k + 1] = spec[2 * k * step + 1] * dt;
+        out[2 * k] = spec[2 * k] * dt;
+        out[2 * k + 1] = spec[2 * k + 1] * dt;
       }
     },
   };
