@@ -104,6 +104,9 @@ describe("chirpsieve bank", () => {
       [["bank", "--mass-range", "3:1", "--fmin", "30", "--out", out], /--mass-range: MIN must be below MAX/],
       [["bank", ...region, "--match-floor", "1.5", "--out", out], /--match-floor/],
       [["bank", "--mass-range", "8:20", "--fmin", "500", "--out", out], /--fmin: .*ISCO/],
+      // Too narrow a band to tell chirps apart (templateBank.ts, MIN_FMAX_OVER_FMIN and MIN_ISCO_OVER_FMIN).
+      [["bank", ...region, "--fmax", "24", "--out", out], /--fmax: 24 Hz must be at least 26 Hz \(1\.3 × fmin 20 Hz\)/],
+      [["scan", demoStrain, "--mass-range", "1:3", "--fmin", "700"], /--fmin: 700 Hz must be at most 666\.2 Hz: the heaviest binary/],
       [["bank", "verify", broken], /broken\.json: templates\[0\] is missing "secondaryMass"/],
       // Refused from the count estimate before any placement (these would run for minutes or forever).
       [["bank", "--mass-range", "1e-9:1e-8", "--fmin", "30", "--out", out], /--mass-range: .* needs about 3\.2e\+27 templates, more than the limit of 1000000/],

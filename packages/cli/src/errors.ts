@@ -1,4 +1,4 @@
-import { InputError, TemplateLimitError } from "@chirpsieve/core";
+import { BandError, InputError, TemplateLimitError } from "@chirpsieve/core";
 
 /** A mistake in how the command was called (a flag's value, a missing flag). Exit code 2. */
 export class UsageError extends InputError {
@@ -33,13 +33,15 @@ export function describeFsError(err: Error): string {
 
 /**
  * Runs bank placement, turning a TemplateLimitError (the estimated count is above the limit) into a
- * usage error on --mass-range that ends with `remedy`: what the user can change in this command.
+ * usage error on --mass-range that ends with `remedy`: what the user can change in this command; and
+ * a BandError (too narrow a band) into one on --fmin or --fmax.
  */
 export function withTemplateLimit<T>(work: () => T, remedy: string): T {
   try {
     return work();
   } catch (err) {
     if (err instanceof TemplateLimitError) throw new UsageError(`--mass-range: ${err.message}; ${remedy}`);
+    if (err instanceof BandError) throw new UsageError(`${err.option === "fmaxHz" ? "--fmax" : "--fmin"}: ${err.detail}`);
     throw err;
   }
 }

@@ -3,7 +3,7 @@ import cliProgress from "cli-progress";
 import {
   buildBankWithReport,
   DEFAULT_MAX_TEMPLATES,
-  iscoFrequencyHz,
+  checkBankOptions,
   parseMatchFloorRange,
   psdModelFromSpec,
   readBankFile,
@@ -168,15 +168,11 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   if (fminHz < psd.fMinHz) {
     throw new UsageError(`--fmin: ${fminHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
   }
-  const heaviest = Math.min(2 * massRangeSolar[1], maxTotalMassSolar ?? Infinity);
-  const fIsco = iscoFrequencyHz(heaviest);
-  if (!(fminHz < fIsco)) {
-    throw new UsageError(
-      `--fmin: ${fminHz} Hz must be below ${fIsco.toFixed(1)} Hz, the ISCO frequency of the heaviest binary in range (${heaviest} M_sun)`,
-    );
-  }
   const maxTemplates = parseNumberFlag("--max-templates", flags.maxTemplates, { min: 1, integer: true });
-  return { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz, maxTemplates };
+  const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz, maxTemplates };
+  // The band rules (core's MIN_ISCO_OVER_FMIN, MIN_FMAX_OVER_FMIN) checked here, before any work, with the flag named.
+  withTemplateLimit(() => checkBankOptions(settings), LIMIT_REMEDY);
+  return settings;
 }
 
 
@@ -209,8 +205,10 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
 function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport): string {
   const [a, b] = bank.massRangeSolar;
   return (
-    `${file}: ${r.templateCount} templates for ${a}–${b} M_sun from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
-    `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}); ` +
+    `${file}: ${r.templateCount} template${r.templateCount === 1 ? "" : "s"} for ${a}–${b} M_sun from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
+    (r.volumeEstimate >= 1
+      ? `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}); `
+      : `metric-volume estimate ${r.volumeEstimate.toPrecision(2)} (the region is thinner than one template's cell, so its area says little); `) +
     `area under the minimal-match contours the placement follows plus a lattice's boundary layer ${r.boundaryAwareEstimate.toFixed(0)} ` +
     `(count/that ${(r.templateCount / r.boundaryAwareEstimate).toFixed(2)}), ${r.patchCount} patch${r.patchCount === 1 ? "" : "es"} (lattices or rows along the band)`
   );

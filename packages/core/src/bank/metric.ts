@@ -59,6 +59,9 @@ export interface ChirpTimeMetric {
   tangent(tau0: number, tau3: number): TangentMatch;
 }
 
+/** Fewest quadrature steps across the band from fLow to the cutoff (see createChirpTimeMetric). */
+const MIN_BAND_NODES = 32;
+
 /** g_ij Δθ^i Δθ^j: the squared metric distance, i.e. the predicted mismatch 1 − match (Owen 1996). */
 export function metricDistanceSquared(g: Metric2, dTau0: number, dTau3: number): number {
   return g.g00 * dTau0 * dTau0 + 2 * g.g01 * dTau0 * dTau3 + g.g11 * dTau3 * dTau3;
@@ -172,10 +175,15 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     }
     ensureGrid(fUp);
     const lnUp = Math.log(fUp);
-    // Nodes 0..j lie below the cutoff; node j+1 is replaced by the cutoff itself.
-    let j = Math.floor((lnUp - lnF[0]) / h);
-    if (j >= nGrid - 1) j = nGrid - 2;
-    const lastStep = lnUp - lnF[j];
+    // Nodes 0..j lie below the cutoff; node j+1 is replaced by the cutoff itself. A band narrower
+    // than MIN_BAND_NODES steps of the shared grid gets its own uniform grid of that many steps
+    // instead: with a handful of nodes the variances left after projecting out time and phase are
+    // all rounding (and the metric indefinite).
+    const narrow = lnUp - lnF[0] < MIN_BAND_NODES * h;
+    const hBand = narrow ? (lnUp - lnF[0]) / MIN_BAND_NODES : h;
+    let j = narrow ? MIN_BAND_NODES : Math.floor((lnUp - lnF[0]) / h);
+    if (!narrow && j >= nGrid - 1) j = nGrid - 2;
+    const lastStep = narrow ? 0 : lnUp - lnF[j];
     const n = lastStep > 1e-12 ? j + 2 : j + 1;
     ensureScratch(n);
     lastN = n;
@@ -197,7 +205,11 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
       let lf: number;
       let wTrap: number;
       let wf: number;
-      if (q <= j) {
+      if (narrow) {
+        lf = q === j ? lnUp : lnF[0] + q * hBand;
+        wf = weightAt(Math.exp(lf));
+        wTrap = q === 0 || q === j ? hBand / 2 : hBand;
+      } else if (q <= j) {
         lf = lnF[q];
         wf = wGrid[q];
         // Trapezoid weights on nodes 0..j (uniform h) plus the last, shorter interval.
