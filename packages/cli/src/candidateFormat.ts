@@ -92,7 +92,7 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
     c.effectiveDistanceMpc.toFixed(1),
     c.file,
   ]);
-  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const widths = head.map((h, i) => rows.reduce((w, r) => Math.max(w, r[i].length), h.length));
   const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
   const out: string[] = [];
   out.push(`${candidates.length} candidate(s) with SNR ≥ ${summary.minSnr} (masses in M_sun; chi2/dof of the time-frequency discriminator)`);
@@ -151,7 +151,7 @@ export function formatCoincidencesTable(coincidences: Coincidence[], singles: nu
     c.chirpMass.toFixed(4),
     Object.entries(c.sites).map(([n, m]) => `${n} ${m.snr.toFixed(1)}`).join(", "),
   ]);
-  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const widths = head.map((h, i) => rows.reduce((w, r) => Math.max(w, r[i].length), h.length));
   const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
   const out = [`${coincidences.length} coincidence(s) between sites; ${singles} single-site candidate(s) not in any coincidence (in --json output)`];
   if (rows.length) {

@@ -155,7 +155,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
         onProgress: (done, total) => progress.update(i, sources.length, done, total),
         segmentHook: run?.hook(i),
       });
-      candidates.push(...r.candidates);
+      for (const c of r.candidates) candidates.push(c);
       summaries.push(r.summary);
     }
   } finally {

@@ -449,8 +449,12 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   // and the patches that take rows are laid again as runs; a run that then fails keeps its lattices.
   const order = patches.map((_, i) => i).sort((p, q) => patches[p].tau0Lo - patches[q].tau0Lo || patches[p].etaLo - patches[q].etaLo);
   const latticeCount = (run: number[]): number => run.reduce((sum, i) => sum + latticePoints[i].length, 0);
+  // Appended one by one: a spread of a run's rows (10⁵ and more) would overflow the call stack.
+  const append = (list: LatticePoint[]): void => {
+    for (const p of list) points.push(p);
+  };
   const latticeOf = (run: number[]): void => {
-    for (const i of run) points.push(...latticePoints[i]);
+    for (const i of run) append(latticePoints[i]);
   };
   const layRun = (run: number[]): LatticePoint[] | null =>
     placeStrips({ region, chart, patches: run.map((i) => patches[i]), patchIndex: run[0], radius: r });
@@ -464,7 +468,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
         share[k]++;
       }
       if (run.every((i, k) => k === 0 || k === run.length - 1 || share[k] < latticePoints[i].length)) {
-        points.push(...rows);
+        append(rows);
         return;
       }
     }
@@ -473,7 +477,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
     const flush = (): void => {
       if (piece.length === 0) return;
       const again = layRun(piece);
-      if (again !== null && again.length < latticeCount(piece)) points.push(...again);
+      if (again !== null && again.length < latticeCount(piece)) append(again);
       else latticeOf(piece);
       piece = [];
     };

@@ -90,7 +90,7 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
     const { bank, report } = buildBankWithReport({ ...options, matchFloor: mm });
     const v = verifyBank(bank, { draws, seed: options.seed, signal, drawSpace: options.drawSpace, psd: options.psd });
     if (options.measureCost !== false && !cost) {
-      const longest = Math.max(...bank.templates.map((t) => t.tau0));
+      const longest = bank.templates.reduce((m, t) => Math.max(m, t.tau0), 0);
       const top = Math.min(options.fmaxHz ?? Infinity, iscoFrequencyHz(2 * options.massRangeSolar[0]));
       cost = measureTemplateCost({ longestTemplateSeconds: longest, highestFrequencyHz: top, fminHz: options.fminHz });
     }

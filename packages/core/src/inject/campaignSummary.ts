@@ -71,8 +71,8 @@ function snrEdges(outcomes: readonly InjectionOutcome[], population: CampaignPop
   if (population.snrRange) return integerBinEdges(population.snrRange[0], population.snrRange[1], MAX_SNR_BINS);
   const snrs = outcomes.map((o) => o.optimalSnr).filter(Number.isFinite);
   if (snrs.length === 0) return [0, 1];
-  const lo = Math.min(...snrs);
-  const hi = Math.max(...snrs);
+  const lo = snrs.reduce((m, x) => Math.min(m, x), Infinity);
+  const hi = snrs.reduce((m, x) => Math.max(m, x), -Infinity);
   // Unit bins up to 20 above the lowest (where the curve rises), then one bin for the rest.
   const edges = integerBinEdges(lo, Math.min(hi, Math.floor(lo) + MAX_SNR_BINS), MAX_SNR_BINS);
   if (hi > edges[edges.length - 1]) edges.push(Math.ceil(hi));
@@ -82,8 +82,8 @@ function snrEdges(outcomes: readonly InjectionOutcome[], population: CampaignPop
 function distanceRange(outcomes: readonly InjectionOutcome[], population: CampaignPopulation): [number, number] {
   if (population.distanceMpc) return population.distanceMpc[1] > population.distanceMpc[0] ? population.distanceMpc : [population.distanceMpc[0], population.distanceMpc[0] * 1.000001];
   const d = outcomes.map((o) => o.distanceMpc);
-  const lo = Math.min(...d);
-  const hi = Math.max(...d);
+  const lo = d.reduce((m, x) => Math.min(m, x), Infinity);
+  const hi = d.reduce((m, x) => Math.max(m, x), -Infinity);
   return hi > lo ? [lo, hi] : [lo, lo * 1.000001];
 }
 

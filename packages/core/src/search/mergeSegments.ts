@@ -110,7 +110,7 @@ export function mergeSegmentRecords(layout: RunLayout, records: Iterable<Segment
       w,
     ).map(({ time: _t, ...c }) => c as Candidate);
     const fs = info.sampleRate;
-    merged.candidates.push(...candidates);
+    for (const c of candidates) merged.candidates.push(c);
     merged.perInput.push({ file: info.file, candidates: candidates.length, segments: info.segments, analysedSeconds: analysed / fs, skippedSeconds: skippedSamples / fs, skipped });
     merged.segments += info.segments;
     merged.analysedSeconds += analysed / fs;

@@ -1,0 +1,26 @@
+// Candidate tables for long runs: hundreds of thousands of rows (a day of data at a low threshold).
+import { describe, expect, it } from "vitest";
+import type { Candidate } from "@chirpsieve/core";
+import { formatCandidatesTable } from "../../packages/cli/src/candidateFormat.js";
+
+describe("candidate table", () => {
+  it("formats 300 000 candidates (no argument spread that would overflow the call stack)", () => {
+    const c: Candidate = {
+      coalescenceTime: 1000000000.5,
+      snr: 7.1,
+      phase: 0,
+      chi2: 10,
+      chi2Dof: 10,
+      reweightedSnr: 7.1,
+      primaryMass: 1.4,
+      secondaryMass: 1.3,
+      chirpMass: 1.17,
+      effectiveDistanceMpc: 100,
+      templateIndex: 0,
+      file: "x.f32",
+    };
+    const many = Array.from({ length: 300_000 }, (_, i) => ({ ...c, coalescenceTime: c.coalescenceTime + i }));
+    const text = formatCandidatesTable(many, { minSnr: 7 });
+    expect(text.split("\n").filter((l) => l.includes("x.f32")).length).toBe(300_000);
+  });
+});
