@@ -145,7 +145,7 @@ function summaryText(
   const lines: string[] = [];
   lines.push(`${strain.file}: ${strain.data.length} samples at ${fs} Hz (${fmt(strain.data.length / fs)} s)`);
   lines.push(
-    `PSD: Welch ${estimate.average} of ${estimate.segments} segments of ${segmentSeconds} s (Hann window, 50% overlap), df = ${fmt(estimate.df)} Hz`,
+    `PSD: Welch ${estimate.average} of ${estimate.segments} segment${estimate.segments === 1 ? "" : "s"} of ${segmentSeconds} s (Hann window, 50% overlap), df = ${fmt(estimate.df)} Hz`,
   );
   if (horizon) {
     lines.push(
