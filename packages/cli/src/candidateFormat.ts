@@ -115,7 +115,7 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
         `template before its coalescence plus ${tail.toFixed(1)} s of PSD filter) or in its last ${tail.toFixed(1)} s (PSD filter)`,
     );
   }
-  if (Number(summary.skippedSeconds) > 0) out.push(`skipped ${Number(summary.skippedSeconds).toFixed(1)} s of data (non-finite samples)`);
+  if (Number(summary.skippedSeconds) > 0) out.push(`skipped ${Number(summary.skippedSeconds).toFixed(1)} s of data (non-finite or corrupt samples)`);
   out.push(CANDIDATE_CAUTION);
   return out.join("\n") + "\n";
 }

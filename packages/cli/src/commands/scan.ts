@@ -79,7 +79,7 @@ export function registerScan(program: Command): void {
     .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
     .option("--json", "same as --format jsonl to stdout")
     .option("--plot <dir>", "write SVG plots of the SNR around the loudest candidates and of the PSD into this directory")
-    .option("--skip-bad-data", "skip (and report) segments with non-finite samples instead of stopping")
+    .option("--skip-bad-data", "skip (and report) segments with non-finite or corrupt (over 1e8 times the median) samples instead of stopping")
     .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
     .option("--start <s>", "start time for one-column text files or HDF5 files without one")
     .option("--dataset <path>", "HDF5 dataset holding the strain")

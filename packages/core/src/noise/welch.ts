@@ -133,7 +133,7 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
  * is ≤ and everything after ≥ (Hoare's selection, "FIND", Commun. ACM 4, 321 (1961), with a
  * median-of-three pivot); returns v[k]. Expected O(n) instead of the O(n log n) of a full sort.
  */
-function selectInPlace(v: Float64Array, k: number): number {
+export function selectInPlace(v: Float64Array, k: number): number {
   let lo = 0;
   let hi = v.length - 1;
   while (hi > lo) {

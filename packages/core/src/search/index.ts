@@ -5,6 +5,7 @@ export * from "./templateTiming.js";
 export * from "./segmentPsd.js";
 export * from "./segmentFilter.js";
 export * from "./scan.js";
+export * from "./corruptSample.js";
 export * from "./arraySource.js";
 export * from "./snrAround.js";
 export * from "./segmentWeights.js";

@@ -9,6 +9,7 @@ import { chirpMass } from "../physics/masses.js";
 import { clusterByTime } from "./cluster.js";
 import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
 import { segmentPsd } from "./segmentPsd.js";
+import { CORRUPT_OVER_MEDIAN, firstCorruptSample } from "./corruptSample.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
 import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
@@ -126,8 +127,10 @@ interface PreparedSegment {
   /** The segment's samples, zero-padded to the segment length. */
   data: Float64Array;
   dataLength: number;
-  /** Index of the first non-finite sample, or −1. */
+  /** Index of the first non-finite or corrupt sample (corruptSample.ts), or −1. */
   bad: number;
+  /** What is wrong with it: "non-finite", or its value against the segment's median. */
+  badWhat: string;
   /** The segment's PSD when it was estimated ahead. */
   psd?: Float64Array;
 }
@@ -185,6 +188,7 @@ export async function searchSource(
   let pool: SearchPool | undefined;
   const inlineSigmas = new Float64Array(templates.length);
   const buffers = [new Float64Array(n), new Float64Array(n)];
+  const magnitudes = new Float64Array(n); // scratch of firstCorruptSample (one prepare runs at a time)
   const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMass, t.secondaryMass, options.fMinHz));
   const hook = options.segmentHook;
   // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
@@ -204,9 +208,16 @@ export async function searchSource(
         break;
       }
     }
-    if (bad >= 0 && !options.skipNonFinite) throw new InputError(`${source.file}: non-finite sample at index ${seg.start + bad}`);
+    let badWhat = "non-finite";
+    if (bad < 0) {
+      bad = firstCorruptSample(raw, magnitudes);
+      badWhat = `${bad >= 0 ? raw[bad].toExponential(2) : ""}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the segment's median magnitude`;
+    }
+    if (bad >= 0 && !options.skipNonFinite) {
+      throw new InputError(`${source.file}: sample at index ${seg.start + bad} (t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s) is ${badWhat}; corrupt data are rejected`);
+    }
     const psd = withPsd && bad < 0 ? segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples) : undefined;
-    return { seg, data, dataLength: raw.length, bad, psd };
+    return { seg, data, dataLength: raw.length, bad, badWhat, psd };
   };
 
   const all: Candidate[] = [];
@@ -228,7 +239,7 @@ export async function searchSource(
         skipped.push({
           startTime: source.startTime + seg.searchStart / fs,
           endTime: source.startTime + seg.searchEnd / fs,
-          reason: `non-finite sample at t = ${(source.startTime + (seg.start + cur.bad) / fs).toFixed(4)} s`,
+          reason: `${cur.badWhat === "non-finite" ? "non-finite sample" : `sample of ${cur.badWhat}`} at t = ${(source.startTime + (seg.start + cur.bad) / fs).toFixed(4)} s`,
         });
         skippedSamples += searchSamples;
         hook?.done(segIndex, { searchSamples, skipped: skipped[skipped.length - 1], triggers: [], survivors: [], candidates: [] });

@@ -1,0 +1,28 @@
+// Samples no detector can record: far above the noise of their segment.
+import { selectInPlace } from "../noise/welch.js";
+
+/**
+ * A sample is corrupt when its magnitude exceeds this many times the segment's median absolute
+ * sample (0.674 σ for Gaussian noise). 10⁸ is far beyond any signal or instrumental glitch we know of
+ * (those reach 10²–10⁴ σ), and below where the single-precision FFT overflows: a sample 10^10 times
+ * the noise makes the whitened spectrum X/S exceed 3.4e38 in float32 and the filter output turn to
+ * NaN, which silently dropped every candidate of the segment. Ours; common practice, no source.
+ */
+export const CORRUPT_OVER_MEDIAN = 1e8;
+
+/**
+ * Index of the first sample of `samples` whose magnitude exceeds CORRUPT_OVER_MEDIAN times the
+ * median magnitude, or −1 (also when the median is 0: a mostly zero-filled stretch has no noise
+ * level to compare with). `scratch` (at least samples.length long) is overwritten.
+ */
+export function firstCorruptSample(samples: Float64Array, scratch: Float64Array): number {
+  const n = samples.length;
+  if (n === 0) return -1;
+  const mags = scratch.subarray(0, n);
+  for (let i = 0; i < n; i++) mags[i] = Math.abs(samples[i]);
+  const median = selectInPlace(mags, n >> 1);
+  if (!(median > 0)) return -1;
+  const limit = CORRUPT_OVER_MEDIAN * median;
+  for (let i = 0; i < n; i++) if (Math.abs(samples[i]) > limit) return i;
+  return -1;
+}
