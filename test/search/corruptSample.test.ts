@@ -42,7 +42,7 @@ describe("corrupt samples", () => {
     );
     const { candidates, summary } = await searchSource(arraySource(data, FS, 0, "x.f32"), { ...opts, skipNonFinite: true });
     expect(summary.skipped.length).toBeGreaterThan(0);
-    expect(summary.skipped[0].reason).toMatch(/^sample of 1\.00e\+30, over 1e\+8 times the segment's median magnitude at t = 0\.4883 s$/);
+    expect(summary.skipped[0].reason).toBe("sample (t = 0.4883 s) is 1.00e+30, over 1e+8 times the segment's median magnitude");
     // The other segments are searched as if nothing were wrong: the injection is found as in clean data.
     data[1000] = 0;
     const clean = await searchSource(arraySource(data, FS, 0, "x.f32"), opts);

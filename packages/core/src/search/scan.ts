@@ -129,7 +129,7 @@ interface PreparedSegment {
   dataLength: number;
   /** Index of the first non-finite or corrupt sample (corruptSample.ts), or −1. */
   bad: number;
-  /** What is wrong with it: "non-finite", or its value against the segment's median. */
+  /** Its time and what is wrong with it ("(t = … s) is non-finite", or its value against the segment's median). */
   badWhat: string;
   /** The segment's PSD when it was estimated ahead. */
   psd?: Float64Array;
@@ -208,14 +208,13 @@ export async function searchSource(
         break;
       }
     }
-    let badWhat = "non-finite";
-    if (bad < 0) {
-      bad = firstCorruptSample(raw, magnitudes);
-      badWhat = `${bad >= 0 ? raw[bad].toExponential(2) : ""}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the segment's median magnitude`;
-    }
-    if (bad >= 0 && !options.skipNonFinite) {
-      throw new InputError(`${source.file}: sample at index ${seg.start + bad} (t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s) is ${badWhat}; corrupt data are rejected`);
-    }
+    if (bad < 0) bad = firstCorruptSample(raw, magnitudes);
+    // "sample at index i (t = … s) is <what>": the error, and (without the index) the skip reason.
+    const badWhat =
+      bad < 0
+        ? ""
+        : `(t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s) is ${Number.isFinite(raw[bad]) ? `${raw[bad].toExponential(2)}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the segment's median magnitude` : "non-finite"}`;
+    if (bad >= 0 && !options.skipNonFinite) throw new InputError(`${source.file}: sample at index ${seg.start + bad} ${badWhat}; corrupt data are rejected`);
     const psd = withPsd && bad < 0 ? segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples) : undefined;
     return { seg, data, dataLength: raw.length, bad, badWhat, psd };
   };
@@ -239,7 +238,7 @@ export async function searchSource(
         skipped.push({
           startTime: source.startTime + seg.searchStart / fs,
           endTime: source.startTime + seg.searchEnd / fs,
-          reason: `${cur.badWhat === "non-finite" ? "non-finite sample" : `sample of ${cur.badWhat}`} at t = ${(source.startTime + (seg.start + cur.bad) / fs).toFixed(4)} s`,
+          reason: `sample ${cur.badWhat}`,
         });
         skippedSamples += searchSamples;
         hook?.done(segIndex, { searchSamples, skipped: skipped[skipped.length - 1], triggers: [], survivors: [], candidates: [] });
