@@ -10,19 +10,28 @@ import { selectInPlace } from "../noise/welch.js";
  */
 export const CORRUPT_OVER_MEDIAN = 1e8;
 
+/** Most samples the median magnitude is taken from (evenly strided): at a factor of 10⁸, a rough median is enough. */
+const MEDIAN_SAMPLES = 65536;
+
 /**
  * Index of the first sample of `samples` whose magnitude exceeds CORRUPT_OVER_MEDIAN times the
- * median magnitude, or −1 (also when the median is 0: a mostly zero-filled stretch has no noise
- * level to compare with). `scratch` (at least samples.length long) is overwritten.
+ * median magnitude (of at most MEDIAN_SAMPLES evenly strided samples), or −1 (also when that median
+ * is 0: a mostly zero-filled stretch has no noise level to compare with).
  */
-export function firstCorruptSample(samples: Float64Array, scratch: Float64Array): number {
+export function firstCorruptSample(samples: Float64Array): number {
   const n = samples.length;
   if (n === 0) return -1;
-  const mags = scratch.subarray(0, n);
-  for (let i = 0; i < n; i++) mags[i] = Math.abs(samples[i]);
-  const median = selectInPlace(mags, n >> 1);
+  const stride = Math.ceil(n / MEDIAN_SAMPLES);
+  const mags = new Float64Array(Math.ceil(n / stride));
+  for (let i = 0, k = 0; i < n; i += stride, k++) mags[k] = Math.abs(samples[i]);
+  const median = selectInPlace(mags, mags.length >> 1);
   if (!(median > 0)) return -1;
   const limit = CORRUPT_OVER_MEDIAN * median;
   for (let i = 0; i < n; i++) if (Math.abs(samples[i]) > limit) return i;
   return -1;
+}
+
+/** What is wrong with a bad sample's value: "non-finite", or how far above the median it lies. */
+export function describeBadSample(value: number): string {
+  return Number.isFinite(value) ? `${value.toExponential(2)}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the segment's median magnitude` : "non-finite";
 }

@@ -9,7 +9,7 @@ import { chirpMass } from "../physics/masses.js";
 import { clusterByTime } from "./cluster.js";
 import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
 import { segmentPsd } from "./segmentPsd.js";
-import { CORRUPT_OVER_MEDIAN, firstCorruptSample } from "./corruptSample.js";
+import { describeBadSample, firstCorruptSample } from "./corruptSample.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
 import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
@@ -188,7 +188,6 @@ export async function searchSource(
   let pool: SearchPool | undefined;
   const inlineSigmas = new Float64Array(templates.length);
   const buffers = [new Float64Array(n), new Float64Array(n)];
-  const magnitudes = new Float64Array(n); // scratch of firstCorruptSample (one prepare runs at a time)
   const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMass, t.secondaryMass, options.fMinHz));
   const hook = options.segmentHook;
   // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
@@ -208,12 +207,9 @@ export async function searchSource(
         break;
       }
     }
-    if (bad < 0) bad = firstCorruptSample(raw, magnitudes);
+    if (bad < 0) bad = firstCorruptSample(raw);
     // "sample at index i (t = … s) is <what>": the error, and (without the index) the skip reason.
-    const badWhat =
-      bad < 0
-        ? ""
-        : `(t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s) is ${Number.isFinite(raw[bad]) ? `${raw[bad].toExponential(2)}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the segment's median magnitude` : "non-finite"}`;
+    const badWhat = bad < 0 ? "" : `(t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s) is ${describeBadSample(raw[bad])}`;
     if (bad >= 0 && !options.skipNonFinite) throw new InputError(`${source.file}: sample at index ${seg.start + bad} ${badWhat}; corrupt data are rejected`);
     const psd = withPsd && bad < 0 ? segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples) : undefined;
     return { seg, data, dataLength: raw.length, bad, badWhat, psd };
