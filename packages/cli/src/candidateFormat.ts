@@ -92,14 +92,9 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
     c.effectiveDistanceMpc.toFixed(1),
     c.file,
   ]);
-  const widths = head.map((h, i) => rows.reduce((w, r) => Math.max(w, r[i].length), h.length));
-  const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
   const out: string[] = [];
   out.push(`${candidates.length} candidate(s) with SNR ≥ ${summary.minSnr} (masses in M_sun; chi2/dof of the time-frequency discriminator)`);
-  if (rows.length) {
-    out.push(line(head));
-    for (const r of rows) out.push(line(r));
-  }
+  if (rows.length) for (const l of alignedTable(head, rows)) out.push(l);
   out.push("");
   const ofData = summary.dataSeconds === undefined ? "" : ` of ${Number(summary.dataSeconds).toFixed(1)} s`;
   out.push(
@@ -151,13 +146,8 @@ export function formatCoincidencesTable(coincidences: Coincidence[], singles: nu
     c.chirpMass.toFixed(4),
     Object.entries(c.sites).map(([n, m]) => `${n} ${m.snr.toFixed(1)}`).join(", "),
   ]);
-  const widths = head.map((h, i) => rows.reduce((w, r) => Math.max(w, r[i].length), h.length));
-  const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
   const out = [`${coincidences.length} coincidence(s) between sites; ${singles} single-site candidate(s) not in any coincidence (in --json output)`];
-  if (rows.length) {
-    out.push(line(head));
-    for (const r of rows) out.push(line(r));
-  }
+  if (rows.length) for (const l of alignedTable(head, rows)) out.push(l);
   out.push("");
   out.push(
     `background: ${bg.slides} time slides, ${bg.backgroundSeconds.toFixed(0)} s of background livetime over ${bg.foregroundSeconds.toFixed(1)} s of coincident data ` +
@@ -165,4 +155,16 @@ export function formatCoincidencesTable(coincidences: Coincidence[], singles: nu
   );
   out.push(CANDIDATE_CAUTION);
   return out.join("\n") + "\n";
+}
+
+/**
+ * The header and rows as lines, columns right-aligned to their widest cell (the last column left as
+ * is), two spaces apart. Widths by a running maximum: a spread over 10⁵ rows would overflow the stack.
+ */
+function alignedTable(head: string[], rows: string[][]): string[] {
+  const widths = head.map((h, i) => rows.reduce((w, r) => Math.max(w, r[i].length), h.length));
+  const line = (r: string[]) => r.map((v, i) => (i === r.length - 1 ? v : v.padStart(widths[i]))).join("  ");
+  const lines = [line(head)];
+  for (const r of rows) lines.push(line(r));
+  return lines;
 }

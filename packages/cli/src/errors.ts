@@ -32,11 +32,12 @@ export function describeFsError(err: Error): string {
 }
 
 /**
- * Runs bank placement, turning a TemplateLimitError (the estimated count is above the limit) into a
- * usage error on --mass-range that ends with `remedy`: what the user can change in this command; and
- * a BandError (too narrow a band) into one on --fmin or --fmax.
+ * Runs bank placement (or its option check), turning core's bank errors into usage errors on the flag
+ * to change: a TemplateLimitError (the estimated count is above the limit) into one on --mass-range
+ * that ends with `remedy`, what the user can change in this command; a BandError (too narrow a band)
+ * into one on --fmin or --fmax.
  */
-export function withTemplateLimit<T>(work: () => T, remedy: string): T {
+export function withBankFlagErrors<T>(work: () => T, remedy: string): T {
   try {
     return work();
   } catch (err) {

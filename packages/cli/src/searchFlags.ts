@@ -8,7 +8,7 @@ import {
   type FftBackendChoice,
   type SearchTemplate,
 } from "@chirpsieve/core";
-import { UsageError, withTemplateLimit } from "./errors.js";
+import { UsageError, withBankFlagErrors } from "./errors.js";
 import { parseChoiceFlag, parseNumberFlag } from "./options.js";
 
 /** Raw values of the shared flags, as commander hands them over. */
@@ -104,7 +104,7 @@ export function resolveTemplates(
   if (!massRangeSolar) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
-  const bank = withTemplateLimit(
+  const bank = withBankFlagErrors(
     () => buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) }),
     "narrow it, raise --fmin or lower --match-floor (or build a bank with `chirpsieve bank` and pass --bank)",
   );

@@ -18,7 +18,7 @@ import {
   type SweepResult,
   type TemplateBank,
 } from "@chirpsieve/core";
-import { UsageError, withTemplateLimit } from "../errors.js";
+import { UsageError, withBankFlagErrors } from "../errors.js";
 import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
@@ -171,7 +171,7 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   const maxTemplates = parseNumberFlag("--max-templates", flags.maxTemplates, { min: 1, integer: true });
   const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz, maxTemplates };
   // The band rules (core's MIN_ISCO_OVER_FMIN, MIN_FMAX_OVER_FMIN) checked here, before any work, with the flag named.
-  withTemplateLimit(() => checkBankOptions(settings), LIMIT_REMEDY);
+  withBankFlagErrors(() => checkBankOptions(settings), LIMIT_REMEDY);
   return settings;
 }
 
@@ -190,7 +190,7 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
   checkOutputFile("--out", flags.out);
   if (flags.plot) checkOutputFile("--plot", flags.plot);
-  const { bank, report } = withTemplateLimit(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
+  const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
   if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
@@ -307,7 +307,7 @@ async function runSweep(flags: SweepFlags): Promise<void> {
   const bar = progressBar("sweep");
   let result: SweepResult;
   try {
-    result = withTemplateLimit(
+    result = withBankFlagErrors(
       () => sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) }),
       LIMIT_REMEDY,
     );
