@@ -106,7 +106,7 @@ describe("economy of the placement", () => {
     // layer (≈ 0.368 × perimeter / sqrt(1 − MM); metricVolume.ts).
     const { bank, report } = buildBankWithReport({ massRangeSolar: [1, 10], matchFloor: 0.97, fminHz: 10, psd: ajith2011 });
     expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(1.3);
-    // The README's "38 055 instead of 73 792" (the count before placement followed the contour).
+    // The README's "38 055 templates, 0.67× its metric-volume estimate".
     expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(0.75);
     expect(report.templateCount).toBeGreaterThan(report.effectiveVolumeEstimate);
     expect(report.templateCount / report.effectiveVolumeEstimate).toBeLessThanOrEqual(1.25);
