@@ -51,12 +51,12 @@ describe("merging shards gives the unsharded result", () => {
 });
 
 describe("merging shards of a run that skips bad data", () => {
-  it("a segment with a NaN, skipped by every shard that covers it: same candidates and the same skipped stretch", async () => {
+  it("a NaN sample, left out by every shard that covers it: same candidates and the same left-out stretch", async () => {
     const [a, b] = syntheticInputs();
     const data = await a.read(0, a.length);
     data[30_000] = Number.NaN;
     const inputs = [arraySource(data, a.sampleRate, a.startTime, a.file), b];
-    const options = runOptions({ skipNonFinite: true });
+    const options = runOptions({ badData: "exclude" });
     const single = await searchSource(inputs[0], options);
     const singleB = await searchSource(inputs[1], options);
     expect(single.summary.skipped).toHaveLength(1);

@@ -3,6 +3,8 @@
 import type { Command } from "commander";
 import {
   buildBank,
+  DEFAULT_GATE_SETTINGS,
+  type GateSettings,
   psdModelFromSpec,
   readBankFile,
   type FftBackendChoice,
@@ -27,6 +29,9 @@ export interface SearchFlags {
   segment?: string;
   fft: string;
   threads?: string;
+  gateThreshold: string;
+  gateHalfWidth: string;
+  gateTaper: string;
 }
 
 /** Adds the shared search flags to a command (`--fmin` default differs between commands). */
@@ -47,7 +52,10 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
     .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
     .option("--psd-average <kind>", "Welch average: median or mean", "median")
     .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
-    .option("--threads <n>", "worker threads filtering the bank (default: the number of cores; small jobs use 1)");
+    .option("--threads <n>", "worker threads filtering the bank (default: the number of cores; small jobs use 1)")
+    .option("--gate-threshold <sigma>", "gate (zero) whitened data beyond this many standard deviations before filtering: loud transients (0 = off)", String(DEFAULT_GATE_SETTINGS.thresholdSigma))
+    .option("--gate-half-width <s>", "half-width of the zeroed stretch around a gated transient (s)", String(DEFAULT_GATE_SETTINGS.halfWidthSeconds))
+    .option("--gate-taper <s>", "cosine taper on each side of a gate (s)", String(DEFAULT_GATE_SETTINGS.taperSeconds));
 }
 
 /** The shared flags, parsed and checked; every error names its flag. */
@@ -62,6 +70,8 @@ export interface ParsedSearchFlags {
   segmentSeconds: number | undefined;
   fftChoice: FftBackendChoice;
   threads: number | undefined;
+  /** null: gating off. */
+  gating: GateSettings | null;
 }
 
 export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
@@ -78,7 +88,18 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
     segmentSeconds: flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true }),
     fftChoice: parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const),
     threads: flags.threads === undefined ? undefined : parseNumberFlag("--threads", flags.threads, { min: 1, max: 1024, integer: true }),
+    gating: parseGateFlags(flags),
   };
+}
+
+/** --gate-threshold (0 = off), --gate-half-width, --gate-taper. */
+function parseGateFlags(flags: SearchFlags): GateSettings | null {
+  const thresholdSigma = parseNumberFlag("--gate-threshold", flags.gateThreshold, { min: 0 });
+  const halfWidthSeconds = parseNumberFlag("--gate-half-width", flags.gateHalfWidth, { min: 0 });
+  const taperSeconds = parseNumberFlag("--gate-taper", flags.gateTaper, { min: 0 });
+  if (thresholdSigma === 0) return null;
+  if (thresholdSigma < 5) throw new UsageError(`--gate-threshold: ${thresholdSigma} σ would gate Gaussian noise itself; use at least 5, or 0 for no gating`);
+  return { thresholdSigma, halfWidthSeconds, taperSeconds };
 }
 
 /**

@@ -120,7 +120,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
   const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
@@ -177,13 +177,14 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       fftBackend,
       matchWindowSeconds,
       perBatch: perBatch ?? null,
+      gating,
     };
     const fingerprint = campaignFingerprint(args);
 
     const options: CampaignOptions = {
       population: { count, massRangeSolar, snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
       data: strainFiles.length ? { kind: "strain", sources } : { kind: "simulated", psd: noiseModel!, sampleRate: rate },
-      search: { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend, threads },
+      search: { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend, threads, gating },
       detector,
       matchWindowSeconds,
       injectionsPerBatch: perBatch,

@@ -20,6 +20,10 @@ import {
   journalPathFor,
   parseShardSpec,
   startScanRun,
+  joinContiguousInputs,
+  readIntervalFile,
+  InputError,
+  type SearchInput,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
@@ -48,6 +52,8 @@ interface ScanFlags extends SearchFlags {
   plot?: string;
   quiet?: boolean;
   skipBadData?: boolean;
+  keepTimes?: string;
+  dropTimes?: string;
   rate?: string;
   start?: string;
   dataset?: string;
@@ -79,7 +85,9 @@ export function registerScan(program: Command): void {
     .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
     .option("--json", "same as --format jsonl to stdout")
     .option("--plot <dir>", "write SVG plots of the SNR around the loudest candidates and of the PSD into this directory")
-    .option("--skip-bad-data", "skip (and report) segments with non-finite or corrupt (over 1e8 times the median) samples instead of stopping")
+    .option("--skip-bad-data", "leave out (and report) stretches of non-finite, zero-filled or constant, or corrupt (over 1e8 times the median) samples, plus the filter lengths around them, and search the rest, instead of stopping")
+    .option("--keep-times <file>", "search only inside the intervals listed in this file (lines of `start end` in seconds of the data's time base; # comments)")
+    .option("--drop-times <file>", "never search inside the intervals listed in this file (same format)")
     .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
     .option("--start <s>", "start time for one-column text files or HDF5 files without one")
     .option("--dataset <path>", "HDF5 dataset holding the strain")
@@ -109,7 +117,9 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
+  const analysisIntervals = flags.keepTimes === undefined ? undefined : readIntervalFile(flags.keepTimes);
+  const excludedIntervals = flags.dropTimes === undefined ? undefined : readIntervalFile(flags.dropTimes);
   const format = chooseCandidateFormat(flags);
   // A shard creates its output directory itself (every task of a job array may race to do so).
   if (flags.out && !flags.shard) checkOutputFile("--out", flags.out, [...strainInputPaths(files), ...(flags.bank ? [flags.bank] : []), ...(flags.sites ? [flags.sites] : [])]);
@@ -133,28 +143,41 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const fftBackend = resolveFftBackend(fftChoice);
   const sources: StrainSource[] = [];
   for (const f of files) {
-    sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }));
+    // Bad samples are found by the search's screening, which reports them as stretches.
+    sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }));
   }
-  const searchOptions = { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend, skipNonFinite: !!flags.skipBadData };
+  // Files of one site whose samples continue each other are searched as one stream (no lead-in
+  // lost at their boundaries); --site files are one per site.
+  const streams: SearchInput[] = network.length > 0 ? sources : joinContiguousInputs(sources);
+  const searchOptions = {
+    templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
+    badData: flags.skipBadData ? ("exclude" as const) : ("reject" as const), analysisIntervals, excludedIntervals, gating,
+  };
   const run = shard || flags.resume
-    ? await startScanRun({
-        version: VERSION, inputs: sources, options: searchOptions, shard,
+    ? await withBadDataHint(() => startScanRun({
+        version: VERSION, inputs: streams, options: searchOptions, shard,
         journalPath: flags.resume ? journalPathFor(flags.out!) : undefined,
         arguments: { bank: bankDescription, rate, start, dataset: flags.dataset },
-      })
+      }))
     : undefined;
   const progress = createProgress(!flags.quiet, "scan");
   const candidates: Candidate[] = [];
   const summaries: SearchSummary[] = [];
   const wallStart = performance.now();
   try {
-    for (const [i, source] of sources.entries()) {
-      const r = await searchSource(source, {
+    for (const [i, stream] of streams.entries()) {
+      const r = await withBadDataHint(() => searchSource(stream, {
         ...searchOptions,
         threads, // not part of the run id: results do not depend on it
-        onProgress: (done, total) => progress.update(i, sources.length, done, total),
+        onProgress: (done, total) => progress.update(i, streams.length, done, total),
         segmentHook: run?.hook(i),
-      });
+      }));
+      if (r.summary.unsearchable) {
+        // One input that cannot be searched is the user's to fix; among several it is reported and passed over.
+        const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --psd-segment" : "raise --fmin, use heavier masses or longer data";
+        if (streams.length === 1) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
+        if (!flags.quiet) process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
+      }
       for (const c of r.candidates) candidates.push(c);
       summaries.push(r.summary);
     }
@@ -173,22 +196,39 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const merged = run?.result();
   if (merged) {
     candidates.splice(0, candidates.length, ...merged.candidates);
-    merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped }));
+    merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped, gates: p.gates }));
   }
+  const uniform = <T,>(values: T[]): T | null => (values.length > 0 && values.every((v) => v === values[0]) ? values[0] : null);
   const summary: Record<string, unknown> = {
     type: "summary",
     files: files.length,
     templates: templates.length,
     bank: bankDescription,
     segments: summaries.reduce((a, s) => a + s.segments, 0),
-    segmentSamples: summaries[0]?.segmentSamples ?? 0,
-    sampleRate: summaries[0]?.sampleRate ?? 0,
+    // One value when every stream shares it, else null (each stream's is under `streams`).
+    segmentSamples: uniform(summaries.map((s) => s.segmentSamples)),
+    sampleRate: uniform(summaries.map((s) => s.sampleRate)),
     analysedSeconds: summaries.reduce((a, s) => a + s.analysedSeconds, 0),
     dataSeconds: summaries.reduce((a, s) => a + s.dataSeconds, 0),
     leadInSeconds: Math.max(0, ...summaries.map((s) => s.leadInSeconds)),
     tailSeconds: Math.max(0, ...summaries.map((s) => s.tailSeconds)),
     skippedSeconds: summaries.reduce((a, s) => a + s.skippedSeconds, 0),
     skipped: summaries.flatMap((s) => s.skipped.map((k) => ({ file: s.file, ...k }))),
+    lostToEdgesSeconds: summaries.reduce((a, s) => a + s.lostToEdgesSeconds, 0),
+    gates: summaries.flatMap((s) => s.gates.map((g) => ({ file: s.file, ...g }))),
+    streams: summaries.map((s) => ({
+      file: s.file,
+      sampleRate: s.sampleRate,
+      segments: s.segments,
+      segmentSamples: s.segmentSamples,
+      dataSeconds: s.dataSeconds,
+      analysedSeconds: s.analysedSeconds,
+      skippedSeconds: s.skippedSeconds,
+      lostToEdgesSeconds: s.lostToEdgesSeconds,
+      intervals: s.intervals,
+      gates: s.gates.length,
+      ...(s.unsearchable ? { unsearchable: s.unsearchable } : {}),
+    })),
     candidates: candidates.length,
     minSnr: snrThreshold,
     chi2Allowance,
@@ -234,11 +274,23 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     const { writeScanPlots } = await import("../scanPlots.js");
     await writeScanPlots(flags.plot, sources.length ? files : [], candidates, {
       templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
-      open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }),
+      open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }),
     });
   }
 }
 
+
+/** Runs a search step, adding the flag that lets bad data be left out to core's refusal of it. */
+async function withBadDataHint<T>(work: () => Promise<T>): Promise<T> {
+  try {
+    return await work();
+  } catch (err) {
+    if (err instanceof InputError && err.parameter === "badData") {
+      throw new UsageError(`${err.message}; pass --skip-bad-data to leave such stretches out and search the rest`);
+    }
+    throw err;
+  }
+}
 
 interface NetworkSite {
   name: string;

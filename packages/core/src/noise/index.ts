@@ -7,3 +7,4 @@ export * from "./welch.js";
 export * from "./inverseSpectrumTruncation.js";
 export * from "./whiten.js";
 export * from "./horizon.js";
+export * from "./gating.js";

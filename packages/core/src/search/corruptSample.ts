@@ -14,20 +14,31 @@ export const CORRUPT_OVER_MEDIAN = 1e8;
 const MEDIAN_SAMPLES = 65536;
 
 /**
- * Index of the first sample of `samples` whose magnitude exceeds CORRUPT_OVER_MEDIAN times the
- * median magnitude (of at most MEDIAN_SAMPLES evenly strided samples), or −1 (also when that median
- * is 0: a mostly zero-filled stretch has no noise level to compare with).
+ * Median magnitude of `samples`, from at most MEDIAN_SAMPLES evenly strided samples (non-finite
+ * ones count as larger than any finite one); 0 for an empty or mostly zero array.
  */
-export function firstCorruptSample(samples: Float64Array): number {
+export function medianMagnitude(samples: Float64Array): number {
   const n = samples.length;
-  if (n === 0) return -1;
+  if (n === 0) return 0;
   const stride = Math.ceil(n / MEDIAN_SAMPLES);
   const mags = new Float64Array(Math.ceil(n / stride));
-  for (let i = 0, k = 0; i < n; i += stride, k++) mags[k] = Math.abs(samples[i]);
-  const median = selectInPlace(mags, mags.length >> 1);
-  if (!(median > 0)) return -1;
+  for (let i = 0, k = 0; i < n; i += stride, k++) {
+    const m = Math.abs(samples[i]);
+    mags[k] = m === m ? m : Infinity;
+  }
+  return selectInPlace(mags, mags.length >> 1);
+}
+
+/**
+ * Index of the first sample of `samples` whose magnitude exceeds CORRUPT_OVER_MEDIAN times the
+ * median magnitude (medianMagnitude), or −1 (also when that median is 0: a mostly zero-filled
+ * stretch has no noise level to compare with).
+ */
+export function firstCorruptSample(samples: Float64Array): number {
+  const median = medianMagnitude(samples);
+  if (!(median > 0) || !Number.isFinite(median)) return -1;
   const limit = CORRUPT_OVER_MEDIAN * median;
-  for (let i = 0; i < n; i++) if (Math.abs(samples[i]) > limit) return i;
+  for (let i = 0; i < samples.length; i++) if (Math.abs(samples[i]) > limit) return i;
   return -1;
 }
 

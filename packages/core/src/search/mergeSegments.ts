@@ -1,12 +1,19 @@
 import { InputError } from "../errors.js";
 import { clusterByTime } from "./cluster.js";
 import type { RecordedCandidate, SegmentRecord } from "./shardRecord.js";
-import type { Candidate, SkippedStretch } from "./types.js";
+import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
 
 /** The shape of a run that records are merged into. */
 export interface RunLayout {
   /** Per input file, in the run's order: its name (as candidates carry it), segment count and sample rate. */
-  readonly inputs: readonly { readonly file: string; readonly segments: number; readonly sampleRate: number }[];
+  readonly inputs: readonly {
+    readonly file: string;
+    readonly segments: number;
+    readonly sampleRate: number;
+    /** What the plan left out before any segment (bad data, excluded intervals), and its seconds. */
+    readonly skipped?: readonly SkippedStretch[];
+    readonly skippedSeconds?: number;
+  }[];
   readonly templateCount: number;
   readonly clusterWindowSeconds: number;
 }
@@ -16,7 +23,7 @@ export interface MergedScan {
   /** Per input in order, each clustered across its segments (as searchSource returns them), concatenated. */
   candidates: Candidate[];
   /** Per input: candidates, segments and searched/skipped seconds (like SearchSummary). */
-  perInput: { file: string; candidates: number; segments: number; analysedSeconds: number; skippedSeconds: number; skipped: SkippedStretch[] }[];
+  perInput: { file: string; candidates: number; segments: number; analysedSeconds: number; skippedSeconds: number; skipped: SkippedStretch[]; gates: GateRecord[] }[];
   segments: number;
   analysedSeconds: number;
   skippedSeconds: number;
@@ -56,7 +63,8 @@ export function mergeSegmentRecords(layout: RunLayout, records: Iterable<Segment
   const merged: MergedScan = { candidates: [], perInput: [], segments: 0, analysedSeconds: 0, skippedSeconds: 0, skipped: [] };
   for (const [input, info] of layout.inputs.entries()) {
     const all: Candidate[] = [];
-    const skipped: SkippedStretch[] = [];
+    const skipped: SkippedStretch[] = (info.skipped ?? []).map((k) => ({ ...k }));
+    const gates: GateRecord[] = [];
     let analysed = 0;
     let skippedSamples = 0;
     for (let s = 0; s < info.segments; s++) {
@@ -82,6 +90,11 @@ export function mergeSegmentRecords(layout: RunLayout, records: Iterable<Segment
         continue;
       }
       analysed += recs[0].searchSamples;
+      // Segments overlap: a transient in the overlap is gated in both, and recorded once (as searchSource does).
+      for (const g of recs[0].gates ?? []) {
+        const last = gates[gates.length - 1];
+        if (!last || Math.abs(last.time - g.time) > g.zeroedSeconds / 2) gates.push({ ...g });
+      }
       if (recs.length === 1) {
         for (const c of recs[0].candidates) all.push(plain(c));
         continue;
@@ -111,10 +124,11 @@ export function mergeSegmentRecords(layout: RunLayout, records: Iterable<Segment
     ).map(({ time: _t, ...c }) => c as Candidate);
     const fs = info.sampleRate;
     for (const c of candidates) merged.candidates.push(c);
-    merged.perInput.push({ file: info.file, candidates: candidates.length, segments: info.segments, analysedSeconds: analysed / fs, skippedSeconds: skippedSamples / fs, skipped });
+    const skippedSeconds = (info.skippedSeconds ?? 0) + skippedSamples / fs;
+    merged.perInput.push({ file: info.file, candidates: candidates.length, segments: info.segments, analysedSeconds: analysed / fs, skippedSeconds, skipped, gates });
     merged.segments += info.segments;
     merged.analysedSeconds += analysed / fs;
-    merged.skippedSeconds += skippedSamples / fs;
+    merged.skippedSeconds += skippedSeconds;
     for (const k of skipped) merged.skipped.push({ file: info.file, ...k });
   }
   return merged;

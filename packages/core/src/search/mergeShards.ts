@@ -196,7 +196,7 @@ export function mergeShards(paths: readonly string[]): MergedShards {
   for (const f of files) for (const r of readShardRecords(f)) records.push(r);
   const merged = mergeSegmentRecords(
     {
-      inputs: first.inputs.map((i) => ({ file: i.file, segments: i.segments, sampleRate: i.sampleRate })),
+      inputs: first.inputs.map((i) => ({ file: i.file, segments: i.segments, sampleRate: i.sampleRate, skipped: i.skipped, skippedSeconds: i.skippedSeconds })),
       templateCount: first.search.templates,
       clusterWindowSeconds: first.search.clusterWindowSeconds,
     },

@@ -9,12 +9,14 @@ import { chirpMass } from "../physics/masses.js";
 import { clusterByTime } from "./cluster.js";
 import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
 import { segmentPsd } from "./segmentPsd.js";
-import { describeBadSample, firstCorruptSample } from "./corruptSample.js";
+import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
+import { describeBadStretch, screenInput } from "./dataQuality.js";
+import { planStream, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
 import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
-import type { Candidate, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
+import type { Candidate, GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
 
 /** Checks search options once, at the door. */
 export function validateSearchOptions(o: SearchOptions, sampleRate: number): void {
@@ -60,10 +62,31 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
 /** Fewest samples in one Welch segment of a search's PSD estimate. */
 const MIN_PSD_SEGMENT_SAMPLES = 16;
 
-/** Chooses the segment plan for a series from the longest template and the inverse-PSD filter length. */
-export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: number): SegmentPlan {
+/** Segment length and the padding each segment loses at its ends, for a search of `length` samples. */
+export interface SegmentLayout {
+  readonly size: number;
+  readonly invalidStart: number;
+  readonly invalidEnd: number;
+  /** Why no segment fits in `length` samples (when set, nothing can be searched). */
+  readonly unsearchable?: string;
+  /** What needs most of the length: the longest template, or the inverse-PSD filter (an estimate's segment). */
+  readonly limitedBy: "template" | "filter";
+}
+
+/** Longest template (s) of the bank from fmin. */
+function longestTemplateSeconds(o: SearchOptions): number {
   let longest = 0;
   for (const t of o.templates) longest = Math.max(longest, templateDurationSeconds(t.primaryMass, t.secondaryMass, o.fMinHz));
+  return longest;
+}
+
+/**
+ * Chooses the segment length for data whose longest stretch is `length` samples, from the longest
+ * template and the inverse-PSD filter length. A segment length the caller asked for that cannot
+ * hold both is an InputError; data too short for them is reported in `unsearchable`.
+ */
+export function chooseSegmentLayout(o: SearchOptions, sampleRate: number, length: number): SegmentLayout {
+  const longest = longestTemplateSeconds(o);
   const truncSeconds = truncationSeconds(o);
   const invalidStart = Math.ceil((longest + truncSeconds) * sampleRate);
   const invalidEnd = Math.ceil(truncSeconds * sampleRate);
@@ -71,35 +94,73 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
   if (o.segmentSeconds !== undefined) {
     // Never longer than the data needs (zero padding beyond it buys nothing), nor than 2^26 samples.
     size = Math.min(nextPowerOfTwo(Math.round(o.segmentSeconds * sampleRate)), Math.max(nextPowerOfTwo(length), nextPowerOfTwo(invalidStart + invalidEnd + 1)));
-    if (size > 2 ** 26) throw new InputError(`segment of ${o.segmentSeconds} s at ${sampleRate} Hz is more than 2^26 samples; use a shorter --segment`);
+    if (size > 2 ** 26) throw new InputError(`segment of ${o.segmentSeconds} s at ${sampleRate} Hz is more than 2^26 samples; use a shorter segment`);
   } else {
     // Four times the padding keeps ≥ ~3/4 of each segment searchable; at least 64 s.
     size = nextPowerOfTwo(Math.max(4 * (invalidStart + invalidEnd), 64 * sampleRate));
-    size = Math.min(size, nextPowerOfTwo(length));
+    size = Math.min(size, Math.max(nextPowerOfTwo(length), 1));
   }
+  const limitedBy = o.psd.kind === "estimate" && 2 * truncSeconds > longest ? "filter" : "template";
+  const need = `templates need ${(longest + truncSeconds).toFixed(1)} s of data before a coalescence (the longest, ${longest.toFixed(1)} s from ${o.fMinHz} Hz, and the inverse-PSD filter) and ${truncSeconds.toFixed(1)} s after`;
   if (size <= invalidStart + invalidEnd) {
-    // Name what dominates: the template, or the inverse-PSD filter (as long as the PSD segment).
-    const filterDominates = o.psd.kind === "estimate" && 2 * truncSeconds > longest;
-    const need =
-      `the longest template (${longest.toFixed(1)} s from ${o.fMinHz} Hz) and the inverse-PSD filter at both ends ` +
-      `(2 × ${truncSeconds.toFixed(1)} s${o.psd.kind === "estimate" ? ", the --psd-segment length" : ""}) ` +
-      `need more than ${(size / sampleRate).toFixed(1)} s segments`;
-    const remedy =
-      o.segmentSeconds !== undefined
-        ? "use a longer --segment"
-        : filterDominates
-          ? "the data is too short for that; use a shorter --psd-segment"
-          : "the data is too short for that; raise --fmin or use heavier masses";
-    throw new InputError(`${need}; ${remedy}`);
+    if (o.segmentSeconds !== undefined) {
+      throw new InputError(`a segment of ${(size / sampleRate).toFixed(1)} s is too short: ${need}; use a longer segment`);
+    }
+    return { size: Math.max(size, 2), invalidStart, invalidEnd, limitedBy, unsearchable: `${(length / sampleRate).toFixed(1)} s of data is too short to search: ${need}` };
   }
-  const plan = planSegments(length, size, invalidStart, invalidEnd);
-  if (plan.segments.length === 0) {
+  if (length <= invalidStart + invalidEnd) {
+    return { size, invalidStart, invalidEnd, limitedBy, unsearchable: `${(length / sampleRate).toFixed(1)} s of data is too short to search: ${need}` };
+  }
+  return { size, invalidStart, invalidEnd, limitedBy };
+}
+
+/**
+ * Chooses the segment plan for a whole clean series of `length` samples (no exclusions): the
+ * layout of chooseSegmentLayout tiled by planSegments. Data too short to search is an InputError.
+ */
+export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: number): SegmentPlan {
+  const layout = chooseSegmentLayout(o, sampleRate, length);
+  if (layout.unsearchable) throw new InputError(`${layout.unsearchable}; raise the low-frequency cutoff, use heavier masses or longer data`);
+  return planSegments(length, layout.size, layout.invalidStart, layout.invalidEnd);
+}
+
+/** A search's plan of one input: its bad data, what is left out, and the segments of the rest. */
+export interface SearchPlan extends StreamPlan {
+  /** Why nothing can be searched, when `segments` is empty. */
+  readonly unsearchable?: string;
+  /** What needs most of a segment: the longest template, or the inverse-PSD filter. */
+  readonly limitedBy: "template" | "filter";
+}
+
+/**
+ * Plans the search of one input: screens it for unusable samples (dataQuality.ts; an InputError
+ * naming the input and the first bad stretch when `badData` is "reject"), leaves out those stretches
+ * and the excluded or non-analysis intervals, and tiles each remaining interval with segments
+ * (streamPlan.ts) of one length chosen for the longest interval.
+ */
+export async function planSearch(source: SearchInput, o: SearchOptions): Promise<SearchPlan> {
+  const fs = source.sampleRate;
+  const policy = o.badData ?? "reject";
+  const bad = policy === "ignore" ? [] : await screenInput(source);
+  if (bad.length > 0 && policy === "reject") {
+    const b = bad[0];
+    const t0 = source.startTime + b.start / fs;
     throw new InputError(
-      `the data (${(length / sampleRate).toFixed(1)} s) is too short to search: templates need ${(longest + truncSeconds).toFixed(1)} s of data ` +
-        `before a coalescence and the inverse-PSD filter ${truncSeconds.toFixed(1)} s at each end; raise --fmin, use heavier masses or a longer file`,
+      `${source.file}: ${describeBadStretch(b)} at t = ${t0.toFixed(4)} s (samples ${b.start}–${b.end - 1}, ${((b.end - b.start) / fs).toPrecision(3)} s)` +
+        `${bad.length > 1 ? ` and ${bad.length - 1} more bad stretch(es)` : ""}; bad data are rejected unless the search is told to leave them out`,
+      "badData",
     );
   }
-  return plan;
+  const badData: ExcludedRange[] = bad.map((b) => ({ start: b.start, end: b.end, reason: describeBadStretch(b) }));
+  const exclusions = { analysisIntervals: o.analysisIntervals, excludedIntervals: o.excludedIntervals, badData };
+  // The segment length follows the longest valid interval: plan once to find the intervals.
+  const probe = planStream(source.length, fs, source.startTime, 2, 0, 0, exclusions);
+  const longest = probe.intervals.reduce((m, iv) => Math.max(m, iv.end - iv.start), 0);
+  const layout = chooseSegmentLayout(o, fs, Math.max(longest, 1));
+  const plan = planStream(source.length, fs, source.startTime, layout.size, layout.invalidStart, layout.invalidEnd, exclusions);
+  if (plan.segments.length > 0) return { ...plan, limitedBy: layout.limitedBy };
+  const why = longest === 0 ? "nothing is left after the exclusions" : (layout.unsearchable ?? "no valid interval is long enough to search");
+  return { ...plan, unsearchable: why, limitedBy: layout.limitedBy };
 }
 
 /** Length (s) of the inverse-PSD filter the segments are padded for. */
@@ -115,7 +176,7 @@ const SMALL_JOB = 2 ** 25;
  * defaultSearchThreads() unless the whole job is so small (< 2^25 template-samples, ~0.2 s of
  * FFTs) that starting workers would cost more than they save.
  */
-function searchThreads(o: SearchOptions, plan: SegmentPlan): number {
+function searchThreads(o: SearchOptions, plan: { segments: readonly Segment[]; size: number }): number {
   const count = o.templates.length;
   if (o.threads !== undefined) return Math.min(o.threads, count);
   if (count * plan.segments.length * plan.size < SMALL_JOB) return 1;
@@ -127,12 +188,10 @@ interface PreparedSegment {
   /** The segment's samples, zero-padded to the segment length. */
   data: Float64Array;
   dataLength: number;
-  /** Index of the first non-finite or corrupt sample (corruptSample.ts), or −1. */
-  bad: number;
-  /** Its time and what is wrong with it ("(t = … s) is non-finite", or its value against the segment's median). */
-  badWhat: string;
-  /** The segment's PSD when it was estimated ahead. */
-  psd?: Float64Array;
+  /** The segment's PSD (estimated ahead, while workers filter the previous segment). */
+  psd: Float64Array;
+  /** Gates applied to `data`. */
+  gates: GateRecord[];
 }
 
 interface RawTrigger extends Trigger {
@@ -158,8 +217,34 @@ export async function searchSource(
   const fs = source.sampleRate;
   validateSearchOptions(options, fs);
   const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "auto");
-  const plan = chooseSegmentPlan(options, fs, source.length);
+  const plan = await planSearch(source, options);
   const n = plan.size;
+  const skipped: SkippedStretch[] = plan.excluded.map((r) => ({
+    startTime: source.startTime + r.start / fs,
+    endTime: source.startTime + r.end / fs,
+    reason: r.reason,
+  }));
+  const summaryOf = (analysedSamples: number, gates: GateRecord[], threads: number): SearchSummary => ({
+    file: source.file,
+    templates: options.templates.length,
+    segments: plan.segments.length,
+    segmentSamples: n,
+    sampleRate: fs,
+    analysedSeconds: analysedSamples / fs,
+    dataSeconds: source.length / fs,
+    leadInSeconds: plan.invalidStart / fs,
+    tailSeconds: plan.invalidEnd / fs,
+    skippedSeconds: plan.excludedSamples / fs,
+    skipped,
+    lostToEdgesSeconds: plan.edgeSamples / fs,
+    intervals: plan.intervals.length,
+    gates,
+    ...(plan.unsearchable ? { unsearchable: plan.unsearchable, unsearchableLimitedBy: plan.limitedBy } : {}),
+    fftBackend: backend,
+    threads,
+    wallSeconds: (performance.now() - wallStart) / 1000,
+  });
+  if (plan.segments.length === 0) return { candidates: [], summary: summaryOf(0, [], 1) };
   const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);
   const templates = options.templates;
   const threads = searchThreads(options, plan);
@@ -192,37 +277,38 @@ export async function searchSource(
   const hook = options.segmentHook;
   // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
   const todo = hook ? hook.segments(plan.segments.length) : plan.segments.map((_, i) => i);
+  const gating = options.gating === undefined ? DEFAULT_GATE_SETTINGS : options.gating;
+  const gater: Gater | undefined = gating ? createGater(n, fs, backend) : undefined;
+  // A model PSD is the same for every segment: evaluated once.
+  let modelPsd: Float64Array | undefined;
 
-  /** Reads segment i into buffers[i % 2]; with `withPsd`, also its PSD (done while workers filter the previous one). */
-  const prepare = async (i: number, withPsd: boolean): Promise<PreparedSegment> => {
+  /** Reads segment i into buffers[i % 2], estimates its PSD and gates loud transients (done while workers filter the previous one). */
+  const prepare = async (i: number): Promise<PreparedSegment> => {
     const seg = plan.segments[todo[i]];
     const data = buffers[i % 2];
-    const raw = await source.read(seg.start, Math.min(seg.dataLength, source.length - seg.start));
+    const raw = await source.read(seg.start, seg.dataLength);
     data.fill(0);
     data.set(raw);
-    let bad = -1;
-    for (let j = 0; j < raw.length; j++) {
-      if (!Number.isFinite(raw[j])) {
-        bad = j;
-        break;
+    const psd =
+      options.psd.kind === "model"
+        ? (modelPsd ??= segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples))
+        : segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples);
+    const gates: GateRecord[] = [];
+    if (gater && gating) {
+      for (const g of gater.apply(data, raw.length, psd, options.fMinHz, fMax, gating)) {
+        gates.push({ time: source.startTime + (seg.start + g.peakSample) / fs, zeroedSeconds: (g.zeroEnd - g.zeroStart) / fs, peakSigma: g.peakSigma });
       }
     }
-    if (bad < 0) bad = firstCorruptSample(raw);
-    // "sample at index i (t = … s) is <what>": the error, and (without the index) the skip reason.
-    const badWhat = bad < 0 ? "" : `(t = ${(source.startTime + (seg.start + bad) / fs).toFixed(4)} s) is ${describeBadSample(raw[bad])}`;
-    if (bad >= 0 && !options.skipNonFinite) throw new InputError(`${source.file}: sample at index ${seg.start + bad} ${badWhat}; corrupt data are rejected`);
-    const psd = withPsd && bad < 0 ? segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples) : undefined;
-    return { seg, data, dataLength: raw.length, bad, badWhat, psd };
+    return { seg, data, dataLength: raw.length, psd, gates };
   };
 
   const all: Candidate[] = [];
-  const skipped: SkippedStretch[] = [];
+  const gates: GateRecord[] = [];
   let analysed = 0;
-  let skippedSamples = 0;
   let done = 0;
   const total = todo.length;
   try {
-    let next: Promise<PreparedSegment> | undefined = total > 0 ? prepare(0, false) : undefined;
+    let next: Promise<PreparedSegment> | undefined = total > 0 ? prepare(0) : undefined;
     for (let step = 0; step < total; step++) {
       const segIndex = todo[step];
       const cur = await next!;
@@ -230,17 +316,10 @@ export async function searchSource(
       const seg = cur.seg;
       const searchSamples = seg.searchEnd - seg.searchStart;
       const hasNext = step + 1 < total;
-      if (cur.bad >= 0) {
-        skipped.push({
-          startTime: source.startTime + seg.searchStart / fs,
-          endTime: source.startTime + seg.searchEnd / fs,
-          reason: `sample ${cur.badWhat}`,
-        });
-        skippedSamples += searchSamples;
-        hook?.done(segIndex, { searchSamples, skipped: skipped[skipped.length - 1], triggers: [], survivors: [], candidates: [] });
-        options.onProgress?.(++done, total);
-        if (hasNext) next = prepare(step + 1, false);
-        continue;
+      // Segments overlap: a transient in the overlap is gated in both, and recorded once.
+      for (const g of cur.gates) {
+        const last = gates[gates.length - 1];
+        if (!last || Math.abs(last.time - g.time) > g.zeroedSeconds / 2) gates.push(g);
       }
       const spec = filter.load(cur.data, cur.dataLength, cur.psd);
       const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
@@ -258,7 +337,7 @@ export async function searchSource(
         const running = pool.run(segIndex, filter.weights, peaks, part.from, part.to);
         running.catch(() => {}); // awaited just below
         if (hasNext) {
-          next = prepare(step + 1, true);
+          next = prepare(step + 1);
           next.catch(() => {}); // awaited at the top of the next iteration
         }
         triggers = await running;
@@ -289,12 +368,12 @@ export async function searchSource(
           chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
           effectiveDistanceMpc: tr.sigma / peak.value,
           templateIndex: tr.templateIndex,
-          file: source.file,
+          file: source.fileAt ? source.fileAt(tr.time) : source.file,
         });
       }
-      hook?.done(segIndex, { searchSamples, triggers: timed, survivors: kept, candidates: all.slice(first) });
+      hook?.done(segIndex, { searchSamples, gates: cur.gates, triggers: timed, survivors: kept, candidates: all.slice(first) });
       options.onProgress?.(++done, total);
-      if (hasNext && next === undefined) next = prepare(step + 1, false);
+      if (hasNext && next === undefined) next = prepare(step + 1);
     }
   } finally {
     inline?.dispose();
@@ -305,23 +384,5 @@ export async function searchSource(
     all.map((c) => ({ ...c, time: c.coalescenceTime })),
     options.clusterWindowSeconds,
   ).map(({ time: _t, ...c }) => c as Candidate);
-  return {
-    candidates,
-    summary: {
-      file: source.file,
-      templates: templates.length,
-      segments: plan.segments.length,
-      segmentSamples: n,
-      sampleRate: fs,
-      analysedSeconds: analysed / fs,
-      dataSeconds: source.length / fs,
-      leadInSeconds: plan.invalidStart / fs,
-      tailSeconds: plan.invalidEnd / fs,
-      skippedSeconds: skippedSamples / fs,
-      skipped,
-      fftBackend: backend,
-      threads,
-      wallSeconds: (performance.now() - wallStart) / 1000,
-    },
-  };
+  return { candidates, summary: summaryOf(analysed, gates, threads) };
 }

@@ -1,4 +1,4 @@
-import type { Candidate, SkippedStretch } from "./types.js";
+import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
 
 /** A window peak of one template in one segment, as the per-segment clustering sees it. */
 export interface SegmentPeak {
@@ -15,8 +15,10 @@ export interface SegmentPeak {
 export interface SegmentOutcome {
   /** Samples of the segment's searched range (searchEnd − searchStart), whether searched or skipped. */
   readonly searchSamples: number;
-  /** Set when the segment was skipped for non-finite samples. */
+  /** Set when the segment was skipped (records of earlier versions; bad data are now left out before segments are planned). */
   readonly skipped?: SkippedStretch;
+  /** Loud transients gated out of the segment before filtering. */
+  readonly gates?: readonly GateRecord[];
   /** Window peaks of the templates filtered in this segment, before clustering. */
   readonly triggers: readonly SegmentPeak[];
   /** The survivors of the per-segment clustering of `triggers`, in its output order ... */

@@ -3,7 +3,10 @@ import { closeSync, openSync, readSync, statSync } from "node:fs";
 import { basename, dirname, extname, join } from "node:path";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
-import { chooseSegmentPlan, truncationSeconds } from "./scan.js";
+import { planSearch, truncationSeconds } from "./scan.js";
+import type { TimeInterval } from "./streamPlan.js";
+import type { SkippedStretch } from "./types.js";
+import type { GateSettings } from "../noise/gating.js";
 import type { ShardSpec, WorkBlock } from "./shardWork.js";
 import type { SearchInput, SearchOptions } from "./types.js";
 
@@ -20,6 +23,11 @@ export interface RunInput {
   /** Segments of the run's plan for this input, and their length (samples). */
   segments: number;
   segmentSamples: number;
+  /** Stretches the plan leaves out (bad data, excluded intervals), with reasons, and their seconds. */
+  skipped: SkippedStretch[];
+  skippedSeconds: number;
+  /** Seconds of valid data lost to the filter's lead-in and tail at the valid intervals' edges. */
+  lostToEdgesSeconds: number;
 }
 
 /** The search settings that shape the result (recorded in manifests and hashed into the run id). */
@@ -40,7 +48,10 @@ export interface SearchDescription {
   truncationSeconds: number;
   segmentSeconds: number | null;
   fftBackend: FftBackendName;
-  skipNonFinite: boolean;
+  badData: "reject" | "exclude" | "ignore";
+  analysisIntervals: readonly TimeInterval[] | null;
+  excludedIntervals: readonly TimeInterval[] | null;
+  gating: GateSettings | "default" | null;
 }
 
 /** The JSON file beside a shard's candidate file (see shardRun.ts, mergeShards.ts). */
@@ -124,7 +135,7 @@ export async function describeInputs(inputs: readonly { source: SearchInput; pat
   for (const { source, path } of inputs) {
     const p = path ?? source.file;
     const byFile = isFile(p);
-    const plan = chooseSegmentPlan(options, source.sampleRate, source.length);
+    const plan = await planSearch(source, options);
     out.push({
       file: source.file,
       sha256: byFile ? fileSha256(p) : await samplesSha256(source),
@@ -134,6 +145,9 @@ export async function describeInputs(inputs: readonly { source: SearchInput; pat
       startTime: source.startTime,
       segments: plan.segments.length,
       segmentSamples: plan.size,
+      skipped: plan.excluded.map((r) => ({ startTime: source.startTime + r.start / source.sampleRate, endTime: source.startTime + r.end / source.sampleRate, reason: r.reason })),
+      skippedSeconds: plan.excludedSamples / source.sampleRate,
+      lostToEdgesSeconds: plan.edgeSamples / source.sampleRate,
     });
   }
   return out;
@@ -166,7 +180,10 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     truncationSeconds: truncationSeconds(options),
     segmentSeconds: options.segmentSeconds ?? null,
     fftBackend: resolveFftBackend(options.fftBackend ?? "auto"),
-    skipNonFinite: !!options.skipNonFinite,
+    badData: options.badData ?? "reject",
+    analysisIntervals: options.analysisIntervals ?? null,
+    excludedIntervals: options.excludedIntervals ?? null,
+    gating: options.gating === undefined ? "default" : options.gating,
   };
 }
 

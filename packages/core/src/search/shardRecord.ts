@@ -1,5 +1,5 @@
 import type { SegmentOutcome, SegmentPeak } from "./shardHook.js";
-import type { Candidate, SkippedStretch } from "./types.js";
+import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
 
 /** A candidate as a shard records it: with the sample and the raw |z| the per-segment clustering used. */
 export interface RecordedCandidate extends Candidate {
@@ -28,6 +28,8 @@ export interface SegmentRecord {
   /** Samples of the segment's searched range (analysed, or skipped when `skipped` is set). */
   searchSamples: number;
   skipped?: SkippedStretch;
+  /** Loud transients gated out of the segment before filtering. */
+  gates?: GateRecord[];
   /** Survivors of the clustering over this record's templates, in its output order. */
   candidates: RecordedCandidate[];
   /**
@@ -139,6 +141,7 @@ export function segmentRecord(
     candidates,
   };
   if (outcome.skipped) record.skipped = { ...outcome.skipped };
+  if (outcome.gates && outcome.gates.length > 0) record.gates = outcome.gates.map((g) => ({ ...g }));
   if (templates[0] > 0 || templates[1] < templateCount - 1) {
     record.peaks = decidingPeaks(outcome.triggers, outcome.survivors, windowSeconds).map((p) => [p.time, p.snr, p.templateIndex, p.index]);
   }

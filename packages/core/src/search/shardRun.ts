@@ -100,7 +100,7 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
   }
   const resumedSegments = records.size;
   const layout: RunLayout = {
-    inputs: inputs.map((i) => ({ file: i.file, segments: i.segments, sampleRate: i.sampleRate })),
+    inputs: inputs.map((i) => ({ file: i.file, segments: i.segments, sampleRate: i.sampleRate, skipped: i.skipped, skippedSeconds: i.skippedSeconds })),
     templateCount: T,
     clusterWindowSeconds: W,
   };

@@ -1,6 +1,8 @@
 import type { FftBackendChoice, FftBackendName } from "../fft/types.js";
 import type { PsdModel } from "../noise/psdModel.js";
+import type { GateSettings } from "../noise/gating.js";
 import type { SegmentHook } from "./shardHook.js";
+import type { TimeInterval } from "./streamPlan.js";
 
 /**
  * What the search reads: a uniformly sampled series read in pieces (io's StrainSource fits).
@@ -12,6 +14,8 @@ export interface SearchInput {
   readonly startTime: number;
   readonly length: number;
   read(offset: number, count: number): Promise<Float64Array>;
+  /** The file holding time t (s), for inputs joined from several files; default `file`. */
+  fileAt?(time: number): string;
 }
 
 /** A template the search filters with: component masses in solar masses. */
@@ -50,8 +54,22 @@ export interface SearchOptions {
   readonly segmentSeconds?: number;
   /** FFT backend: "auto" (default: pffft once loadFftBackends() has loaded it in this thread, else fft.js), "pffft" or "fftjs". */
   readonly fftBackend?: FftBackendChoice;
-  /** Skip (and report) segments holding non-finite samples instead of failing. */
-  readonly skipNonFinite?: boolean;
+  /**
+   * What to do with stretches of unusable samples — non-finite, constant or zero-filled, corrupt
+   * (search/dataQuality.ts): "reject" (default) makes them an InputError naming the input and the
+   * stretch; "exclude" leaves them out (and reports them), with the filter lengths they force, and
+   * searches the rest; "ignore" does not look (noise-free simulations, which are mostly zeros).
+   */
+  readonly badData?: "reject" | "exclude" | "ignore";
+  /** Search only inside these time intervals (s, the input's time base); default everywhere. */
+  readonly analysisIntervals?: readonly TimeInterval[];
+  /** Never search inside these time intervals. */
+  readonly excludedIntervals?: readonly TimeInterval[];
+  /**
+   * Gating of loud transients before filtering (noise/gating.ts); default DEFAULT_GATE_SETTINGS,
+   * null turns it off.
+   */
+  readonly gating?: GateSettings | null;
   /**
    * Worker threads that filter the bank (≥ 1; 1 filters on the calling thread). Default
    * os.availableParallelism() when the library runs compiled (1 when it runs as TypeScript source,
@@ -91,6 +109,16 @@ export interface SkippedStretch {
   reason: string;
 }
 
+/** A gate applied to the data before filtering (noise/gating.ts). */
+export interface GateRecord {
+  /** Time of the loudest whitened excursion (s, the input's time base). */
+  time: number;
+  /** Length of the zeroed stretch (s); cosine tapers lie outside it. */
+  zeroedSeconds: number;
+  /** Its |whitened| peak in robust standard deviations. */
+  peakSigma: number;
+}
+
 /** What a scan of one input covered. */
 export interface SearchSummary {
   file: string;
@@ -107,8 +135,20 @@ export interface SearchSummary {
    */
   leadInSeconds: number;
   tailSeconds: number;
+  /** Seconds left out before filtering: bad data, excluded intervals, outside the analysis intervals. */
   skippedSeconds: number;
+  /** The stretches left out, each with its reason (stretches of different reasons may overlap). */
   skipped: SkippedStretch[];
+  /** Seconds of valid data where no coalescence time can be searched: the filter's lead-in and tail at each interval's edges. */
+  lostToEdgesSeconds: number;
+  /** Valid intervals searched separately (1 for clean data). */
+  intervals: number;
+  /** Loud transients gated out before filtering. */
+  gates: GateRecord[];
+  /** Why nothing could be searched, when `segments` is 0 ... */
+  unsearchable?: string;
+  /** ... and what needed most of the data: the longest template, or the inverse-PSD filter. */
+  unsearchableLimitedBy?: "template" | "filter";
   fftBackend: FftBackendName;
   /** Threads that filtered the bank. */
   threads: number;
