@@ -99,7 +99,7 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
   const ofData = summary.dataSeconds === undefined ? "" : ` of ${Number(summary.dataSeconds).toFixed(1)} s`;
   out.push(
     `searched ${Number(summary.analysedSeconds).toFixed(1)} s${ofData} of data in ${summary.files} file(s) with ${summary.templates} templates ` +
-      `(${summary.segments} segments of ${summary.segmentSamples} samples at ${summary.sampleRate} Hz; PSD ${summary.psd}; ` +
+      `(${summary.segments} segment${summary.segments === 1 ? "" : "s"}${summary.sampleRate === null ? ", per stream below" : ` of ${summary.segmentSamples} samples at ${summary.sampleRate} Hz`}; PSD ${summary.psd}; ` +
       `FFT ${summary.fftBackend}) in ${Number(summary.wallSeconds).toFixed(1)} s`,
   );
   if (summary.leadInSeconds !== undefined) {
@@ -110,7 +110,25 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
         `template before its coalescence plus ${tail.toFixed(1)} s of PSD filter) or in its last ${tail.toFixed(1)} s (PSD filter)`,
     );
   }
-  if (Number(summary.skippedSeconds) > 0) out.push(`skipped ${Number(summary.skippedSeconds).toFixed(1)} s of data (non-finite or corrupt samples)`);
+  if (Number(summary.skippedSeconds) > 0) {
+    const skipped = (summary.skipped as { reason: string }[] | undefined) ?? [];
+    const reasons = [...new Set(skipped.map((k) => k.reason))].join("; ");
+    out.push(`left out ${Number(summary.skippedSeconds).toFixed(1)} s of data in ${skipped.length} stretch(es) before filtering (${reasons})`);
+  }
+  if (Number(summary.skippedSeconds) > 0 && summary.lostToEdgesSeconds !== undefined) {
+    out.push(`lost ${Number(summary.lostToEdgesSeconds).toFixed(1)} s of valid data to the filter's lead-in and tail at the edges of files and of left-out stretches`);
+  }
+  const gates = (summary.gates as { time: number; peakSigma: number }[] | undefined) ?? [];
+  if (gates.length > 0) {
+    const list = gates.slice(0, 5).map((g) => `${g.time.toFixed(3)} s (${g.peakSigma.toFixed(0)} σ)`).join(", ");
+    out.push(`gated ${gates.length} loud transient(s) before filtering: ${list}${gates.length > 5 ? ", …" : ""}`);
+  }
+  const streams = (summary.streams as { file: string; sampleRate: number; segments: number; segmentSamples: number; unsearchable?: string }[] | undefined) ?? [];
+  if (streams.length > 1) {
+    for (const st of streams) {
+      out.push(`  ${st.file}: ${st.unsearchable ? `not searched (${st.unsearchable})` : `${st.segments} segment${st.segments === 1 ? "" : "s"} of ${st.segmentSamples} samples at ${st.sampleRate} Hz`}`);
+    }
+  }
   out.push(CANDIDATE_CAUTION);
   return out.join("\n") + "\n";
 }

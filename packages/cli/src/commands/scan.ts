@@ -173,9 +173,9 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
         segmentHook: run?.hook(i),
       }));
       if (r.summary.unsearchable) {
-        // One input that cannot be searched is the user's to fix; among several it is reported and passed over.
         const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --psd-segment" : "raise --fmin, use heavier masses or longer data";
-        if (streams.length === 1) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
+        // Too short by itself is the user's to fix; left with nothing by the exclusions they asked for is reported.
+        if (streams.length === 1 && r.summary.skipped.length === 0) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
         if (!flags.quiet) process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
       }
       for (const c of r.candidates) candidates.push(c);
