@@ -11,7 +11,7 @@ import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./
 import { segmentPsd } from "./segmentPsd.js";
 import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
 import { describeBadStretch, screenInput } from "./dataQuality.js";
-import { planStream, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
+import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
 import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
@@ -154,8 +154,7 @@ export async function planSearch(source: SearchInput, o: SearchOptions): Promise
   const badData: ExcludedRange[] = bad.map((b) => ({ start: b.start, end: b.end, reason: describeBadStretch(b) }));
   const exclusions = { analysisIntervals: o.analysisIntervals, excludedIntervals: o.excludedIntervals, badData };
   // The segment length follows the longest valid interval: plan once to find the intervals.
-  const probe = planStream(source.length, fs, source.startTime, 2, 0, 0, exclusions);
-  const longest = probe.intervals.reduce((m, iv) => Math.max(m, iv.end - iv.start), 0);
+  const longest = validIntervals(source.length, fs, source.startTime, exclusions).intervals.reduce((m, iv) => Math.max(m, iv.end - iv.start), 0);
   const layout = chooseSegmentLayout(o, fs, Math.max(longest, 1));
   const plan = planStream(source.length, fs, source.startTime, layout.size, layout.invalidStart, layout.invalidEnd, exclusions);
   if (plan.segments.length > 0) return { ...plan, limitedBy: layout.limitedBy };

@@ -65,22 +65,16 @@ function union(ranges: readonly { start: number; end: number }[]): { start: numb
 }
 
 /**
- * Leaves out of an input of `length` samples everything outside the analysis intervals, inside the
- * excluded intervals, or unusable, and tiles each remaining (valid) interval with segments of
- * `size` samples as planSegments does for a whole input: each interval loses `invalidStart`
- * samples at its start (the longest template and the inverse-PSD filter) and `invalidEnd` at its
- * end (the filter), the least the filter's wrap-around forces (Allen et al., Phys. Rev. D 85,
- * 122006 (2012), Sec. VII; common practice). An interval too short for both searches nothing.
+ * The valid intervals of an input of `length` samples: what is left after leaving out everything
+ * outside the analysis intervals, inside the excluded intervals, or unusable; and the stretches
+ * left out, each with its reason, sorted by start.
  */
-export function planStream(
+export function validIntervals(
   length: number,
   sampleRate: number,
   startTime: number,
-  size: number,
-  invalidStart: number,
-  invalidEnd: number,
   exclusions: StreamExclusions = {},
-): StreamPlan {
+): { intervals: { start: number; end: number }[]; excluded: ExcludedRange[] } {
   const excluded: ExcludedRange[] = [];
   if (exclusions.analysisIntervals) {
     const inside = union(exclusions.analysisIntervals.map((iv) => intervalSamples(iv, startTime, sampleRate, length)));
@@ -97,14 +91,34 @@ export function planStream(
   }
   for (const b of exclusions.badData ?? []) excluded.push(b);
   excluded.sort((a, b) => a.start - b.start || a.end - b.end);
-  const gone = union(excluded);
   const intervals: { start: number; end: number }[] = [];
   let at = 0;
-  for (const r of gone) {
+  for (const r of union(excluded)) {
     if (r.start > at) intervals.push({ start: at, end: r.start });
     at = Math.max(at, r.end);
   }
   if (at < length) intervals.push({ start: at, end: length });
+  return { intervals, excluded };
+}
+
+/**
+ * Leaves out of an input of `length` samples everything outside the analysis intervals, inside the
+ * excluded intervals, or unusable (validIntervals), and tiles each remaining interval with segments of
+ * `size` samples as planSegments does for a whole input: each interval loses `invalidStart`
+ * samples at its start (the longest template and the inverse-PSD filter) and `invalidEnd` at its
+ * end (the filter), the least the filter's wrap-around forces (Allen et al., Phys. Rev. D 85,
+ * 122006 (2012), Sec. VII; common practice). An interval too short for both searches nothing.
+ */
+export function planStream(
+  length: number,
+  sampleRate: number,
+  startTime: number,
+  size: number,
+  invalidStart: number,
+  invalidEnd: number,
+  exclusions: StreamExclusions = {},
+): StreamPlan {
+  const { intervals, excluded } = validIntervals(length, sampleRate, startTime, exclusions);
   const segments: Segment[] = [];
   let searched = 0;
   let valid = 0;
