@@ -8,6 +8,7 @@ import {
   createGater,
   interpolatePsd,
   loadFftBackends,
+  optimalSnrOfSeries,
   searchSource,
 } from "@chirpsieve/core";
 import { chirpMassGrid, standardSearch } from "./fixtures.js";
@@ -55,5 +56,41 @@ describe("gating", () => {
     expect(on.summary.gates).toEqual([]);
     expect(on.candidates.length).toBeGreaterThan(0); // SNR 5.5 is reached by noise alone: the comparison is not empty
     expect(on.candidates).toEqual(off.candidates);
+  });
+});
+
+describe("glitches from SNR 50 to 500", () => {
+  /** Adds a sine-Gaussian (Q ≈ 9 at f0) of optimal SNR `snr` centred at t0. */
+  function addGlitch(data: Float64Array, t0: number, f0: number, snr: number): void {
+    const tau = 9 / (Math.SQRT2 * Math.PI * f0);
+    const g = new Float64Array(data.length);
+    for (let i = Math.floor((t0 - 6 * tau) * FS); i <= Math.ceil((t0 + 6 * tau) * FS); i++) {
+      const t = i / FS - t0;
+      g[i] = Math.exp(-(t * t) / (tau * tau)) * Math.sin(2 * Math.PI * f0 * t);
+    }
+    const scale = snr / optimalSnrOfSeries(g, ajith2011, FS, FMIN);
+    for (let i = 0; i < data.length; i++) data[i] += scale * g[i];
+  }
+
+  it("raise no candidate with reweighted SNR above 6 (gated when loud, down-weighted by chi-squared otherwise)", async () => {
+    const o = { ...standardSearch(chirpMassGrid(1.1, 1.3, 0.005, [0.9]).concat(chirpMassGrid(6, 9, 0.01, [0.8])), FMIN, 6), segmentSeconds: 128 };
+    const data = colouredNoise(ajith2011, 256 * FS, FS, "gate-glitches");
+    const glitches = [
+      { t: 60, f0: 120, snr: 50 },
+      { t: 100, f0: 250, snr: 100 },
+      { t: 140, f0: 90, snr: 200 },
+      { t: 180, f0: 150, snr: 500 },
+    ];
+    for (const g of glitches) addGlitch(data, g.t, g.f0, g.snr);
+    const { candidates, summary } = await searchSource(arraySource(data, FS), o);
+    for (const g of glitches) {
+      const near = candidates.filter((c) => Math.abs(c.coalescenceTime - g.t) < 2);
+      expect(near.filter((c) => c.reweightedSnr > 6), `glitch of SNR ${g.snr} at ${g.t} s`).toEqual([]);
+    }
+    // The loudest are gated (measured here: SNR 200 and 500 cross 20 σ), and each gate is reported once.
+    const gated = summary.gates.map((x) => Math.round(x.time));
+    expect(gated).toContain(140);
+    expect(gated).toContain(180);
+    expect(new Set(gated).size).toBe(gated.length);
   });
 });

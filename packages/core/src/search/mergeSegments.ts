@@ -1,5 +1,6 @@
 import { InputError } from "../errors.js";
 import { clusterByTime } from "./cluster.js";
+import { addGate } from "./gateList.js";
 import type { RecordedCandidate, SegmentRecord } from "./shardRecord.js";
 import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
 
@@ -91,10 +92,7 @@ export function mergeSegmentRecords(layout: RunLayout, records: Iterable<Segment
       }
       analysed += recs[0].searchSamples;
       // Segments overlap: a transient in the overlap is gated in both, and recorded once (as searchSource does).
-      for (const g of recs[0].gates ?? []) {
-        const last = gates[gates.length - 1];
-        if (!last || Math.abs(last.time - g.time) > g.zeroedSeconds / 2) gates.push({ ...g });
-      }
+      for (const g of recs[0].gates ?? []) addGate(gates, g);
       if (recs.length === 1) {
         for (const c of recs[0].candidates) all.push(plain(c));
         continue;

@@ -11,6 +11,7 @@ import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./
 import { segmentPsd } from "./segmentPsd.js";
 import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
 import { describeBadStretch, screenInput } from "./dataQuality.js";
+import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
@@ -316,10 +317,7 @@ export async function searchSource(
       const searchSamples = seg.searchEnd - seg.searchStart;
       const hasNext = step + 1 < total;
       // Segments overlap: a transient in the overlap is gated in both, and recorded once.
-      for (const g of cur.gates) {
-        const last = gates[gates.length - 1];
-        if (!last || Math.abs(last.time - g.time) > g.zeroedSeconds / 2) gates.push(g);
-      }
+      for (const g of cur.gates) addGate(gates, g);
       const spec = filter.load(cur.data, cur.dataLength, cur.psd);
       const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
       const part = hook ? hook.templates(segIndex) : { from: 0, to: templates.length };
