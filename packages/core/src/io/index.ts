@@ -4,3 +4,5 @@ export * from "./strainFormat.js";
 export * from "./strainFile.js";
 export * from "./memoryStrain.js";
 export * from "./readTextInput.js";
+export * from "./constantSeries.js";
+export * from "./strainUnits.js";
