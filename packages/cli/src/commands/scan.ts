@@ -25,6 +25,7 @@ import { UsageError } from "../errors.js";
 import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
+import { constantInputReason, nonStrainInputs, openStrainInput } from "../strainInputs.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import {
   CANDIDATE_CAUTION,
@@ -79,7 +80,7 @@ export function registerScan(program: Command): void {
     .option("--format <fmt>", "table, jsonl or csv (default: table on a terminal, jsonl otherwise)")
     .option("--json", "same as --format jsonl to stdout")
     .option("--plot <dir>", "write SVG plots of the SNR around the loudest candidates and of the PSD into this directory")
-    .option("--skip-bad-data", "skip (and report) segments with non-finite or corrupt (over 1e8 times the median) samples instead of stopping")
+    .option("--skip-bad-data", "skip (and report) segments with non-finite or corrupt (over 1e8 times the median) samples, and files that are all zeros or constant, instead of stopping")
     .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
     .option("--start <s>", "start time for one-column text files or HDF5 files without one")
     .option("--dataset <path>", "HDF5 dataset holding the strain")
@@ -91,7 +92,7 @@ export function registerScan(program: Command): void {
     .option("--shard <I/N>", "scan only piece I of N (0-based) and write it for `chirpsieve merge`; auto/N takes I from SLURM_ARRAY_TASK_ID or JOB_COMPLETION_INDEX")
     .option("--shard-by <how>", "split the work by templates, time or both", "both")
     .option("--resume", "keep a journal beside --out and continue a killed scan rerun with the same arguments")
-    .option("--quiet", "no progress bar")
+    .option("--quiet", "no progress (bar on a terminal, periodic lines otherwise)")
     .action(async (files: string[], flags: ScanFlags, cmd: Command) => {
       await runScan(files, flags, cmd);
     });
@@ -132,9 +133,33 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
   const sources: StrainSource[] = [];
-  for (const f of files) {
-    sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }));
+  // A file with no strain (all zeros or one constant value) is an error, or with --skip-bad-data
+  // a whole skipped file (not with --site: a coincidence needs every site).
+  const skippedFiles: { file: string; startTime: number; endTime: number; reason: string }[] = [];
+  try {
+    for (const f of files) {
+      const source = await openStrainInput(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" });
+      let reason: string | undefined;
+      try {
+        reason = await constantInputReason(source, !!flags.skipBadData && network.length === 0);
+      } catch (err) {
+        await source.close();
+        throw err;
+      }
+      if (reason === undefined) {
+        sources.push(source);
+        continue;
+      }
+      skippedFiles.push({ file: f, startTime: source.startTime, endTime: source.startTime + source.length / source.sampleRate, reason });
+      await source.close();
+      process.stderr.write(`chirpsieve: skipped ${f}: ${reason}\n`);
+    }
+  } catch (err) {
+    for (const s of sources) await s.close();
+    throw err;
   }
+  const searchedFiles = sources.map((s) => s.file);
+  const nonStrain = nonStrainInputs(sources);
   const searchOptions = { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend, skipNonFinite: !!flags.skipBadData };
   const run = shard || flags.resume
     ? await startScanRun({
@@ -143,7 +168,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
         arguments: { bank: bankDescription, rate, start, dataset: flags.dataset },
       })
     : undefined;
-  const progress = createProgress(!flags.quiet, "scan");
+  const progress = createProgress(!flags.quiet, "scan", { lines: true });
   const candidates: Candidate[] = [];
   const summaries: SearchSummary[] = [];
   const wallStart = performance.now();
@@ -175,6 +200,12 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     candidates.splice(0, candidates.length, ...merged.candidates);
     merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped }));
   }
+  // Effective distances assume dimensionless strain: for other units they are not given.
+  const noDistance = new Set(nonStrain.map((n) => n.file));
+  if (noDistance.size > 0) {
+    for (const c of candidates) if (noDistance.has(c.file)) c.effectiveDistanceMpc = Number.NaN;
+  }
+  const skippedFileSeconds = skippedFiles.reduce((a, k) => a + (k.endTime - k.startTime), 0);
   const summary: Record<string, unknown> = {
     type: "summary",
     files: files.length,
@@ -184,11 +215,11 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     segmentSamples: summaries[0]?.segmentSamples ?? 0,
     sampleRate: summaries[0]?.sampleRate ?? 0,
     analysedSeconds: summaries.reduce((a, s) => a + s.analysedSeconds, 0),
-    dataSeconds: summaries.reduce((a, s) => a + s.dataSeconds, 0),
+    dataSeconds: summaries.reduce((a, s) => a + s.dataSeconds, 0) + skippedFileSeconds,
     leadInSeconds: Math.max(0, ...summaries.map((s) => s.leadInSeconds)),
     tailSeconds: Math.max(0, ...summaries.map((s) => s.tailSeconds)),
-    skippedSeconds: summaries.reduce((a, s) => a + s.skippedSeconds, 0),
-    skipped: summaries.flatMap((s) => s.skipped.map((k) => ({ file: s.file, ...k }))),
+    skippedSeconds: summaries.reduce((a, s) => a + s.skippedSeconds, 0) + skippedFileSeconds,
+    skipped: [...skippedFiles, ...summaries.flatMap((s) => s.skipped.map((k) => ({ file: s.file, ...k })))],
     candidates: candidates.length,
     minSnr: snrThreshold,
     chi2Allowance,
@@ -197,6 +228,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     fftBackend,
     threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
+    ...(nonStrain.length > 0 ? { distancesUnavailable: nonStrain.map((n) => ({ file: n.file, units: n.units, why: "units are not dimensionless strain" })) } : {}),
     caution: CANDIDATE_CAUTION,
   };
 
@@ -232,7 +264,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   if (flags.plot) {
     mkdirSync(flags.plot, { recursive: true });
     const { writeScanPlots } = await import("../scanPlots.js");
-    await writeScanPlots(flags.plot, sources.length ? files : [], candidates, {
+    await writeScanPlots(flags.plot, searchedFiles, candidates, {
       templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
       open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }),
     });
@@ -285,7 +317,7 @@ function renderNetwork(
     ];
     return lines.join("\n") + "\n";
   }
-  if (format === "csv") return formatCoincidencesCsv(coincidences);
+  if (format === "csv") return formatCoincidencesCsv(coincidences, summary);
   return formatCoincidencesTable(coincidences, singles.length, summary);
 }
 
