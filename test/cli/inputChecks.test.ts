@@ -107,6 +107,18 @@ describe("scan: files with no strain", () => {
   });
 });
 
+describe("scan: malformed inputs of the new kinds", () => {
+  it("a byteOrder other than little/big, or a header naming the wrong number of columns: one line, exit 2, nothing written", () => {
+    const p = join(dir, "odd.f32");
+    writeFileSync(p, readFileSync(file));
+    writeFileSync(`${p}.json`, JSON.stringify({ sampleRate: FS, startTime: 0, byteOrder: "middle" }));
+    expect(expectRefused(["scan", p, ...base], `${p}.json`, join(dir, "o.jsonl"))).toContain("byteOrder");
+    const t = join(dir, "cols.csv");
+    writeFileSync(t, "time,strain,extra\n0,1,2\n");
+    expectRefused(["scan", t, ...base], t, join(dir, "t.jsonl"));
+  });
+});
+
 describe("scan: text with a header line", () => {
   it("time,strain as the first line is accepted and scans like the raw file", () => {
     const csv = join(dir, "header.csv");
