@@ -31,7 +31,7 @@ describe("chirpsieve simulate", () => {
       const out = join(dir, "sim.f32");
       const r = runCli([
         "simulate", "--noise-curve", "ajith2011", "--duration", "16", "--rate", "1024", "--seed", "7", "--start", "1000000000",
-        "--fmin", "30", "--inject-random", "2", "--mass-range", "5:15", "--snr-range", "8:20", "--out", out, "--label", "test run",
+        "--fmin", "30", "--inject-random", "2", "--mass-range", "5:15", "--snr-range", "8:20", "--edge-margin", "2", "--out", out, "--label", "test run",
       ]);
       expect(r.stderr).toBe("");
       expect(r.code).toBe(0);

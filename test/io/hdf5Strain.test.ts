@@ -114,6 +114,15 @@ describe("HDF5 strain files", () => {
       ]);
       expect(await readStrain(p)).toMatchObject({ sampleRate: 256, startTime: 40 });
     });
+    it("Xspacing (seconds) and Xstart, on the dataset or the root, give the rate and start without --rate/--start", async () => {
+      const p = buildH5("xspacing.h5", [{ name: "strain/Strain", data: new Float64Array([1, 2, 3]), attrs: [{ name: "Xspacing", value: 1 / 4096 }, { name: "Xstart", value: 1_126_259_446 }] }]);
+      expect(await readStrain(p)).toMatchObject({ sampleRate: 4096, startTime: 1_126_259_446 });
+      const q = buildH5("xroot.h5", [{ name: "s", data: new Float64Array([1, 2]) }], [
+        { name: "Xspacing", value: 0.5 },
+        { name: "Xstart", value: -3 },
+      ]);
+      expect(await readStrain(q)).toMatchObject({ sampleRate: 2, startTime: -3 });
+    });
     it("a user-named rate attribute: below 1 is a spacing in seconds, else Hz", async () => {
       const p = buildH5("named.h5", [
         { name: "s", data: new Float64Array([1, 2]), attrs: [{ name: "step", value: 0.125 }, { name: "hz", value: 16 }, { name: "epoch", value: 3 }] },

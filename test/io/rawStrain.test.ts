@@ -32,7 +32,7 @@ describe("raw .f64 / .f32 strain with a JSON sidecar", () => {
     expect(s.data).toEqual(data);
     expect(s).toMatchObject({ sampleRate: 4096, startTime: 1_000_000_000.25, file: p, label: "synthetic H", units: "strain" });
     const side = JSON.parse(readFileSync(`${p}.json`, "utf8"));
-    expect(side).toEqual({ sampleRate: 4096, startTime: 1_000_000_000.25, sampleType: "float64", length: 10_000, label: "synthetic H", units: "strain" });
+    expect(side).toEqual({ sampleRate: 4096, startTime: 1_000_000_000.25, sampleType: "float64", byteOrder: "little", length: 10_000, label: "synthetic H", units: "strain" });
     expect(readFileSync(p).length).toBe(80_000);
   });
 

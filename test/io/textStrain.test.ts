@@ -104,10 +104,10 @@ describe("text strain files", () => {
       const p = textFile("back.txt", "0 1\n1 1\n1 1\n");
       expect(await inputErrorOf(readStrain(p))).toBe(`${p}: line 3: time 1 does not increase (previous 1)`);
     });
-    it("a malformed number names the line (and suggests # for a header)", async () => {
+    it("a malformed number names the line (and suggests # for a header that is not plain column names)", async () => {
       const p = textFile("bad.txt", "0 1\n1 2e\n");
       expect(await inputErrorOf(readStrain(p))).toBe(`${p}: line 2: malformed number "2e"`);
-      const h = textFile("header.csv", "time,strain\n0,1\n");
+      const h = textFile("header.csv", "time,strain = h(t)\n0,1\n");
       expect(await inputErrorOf(readStrain(h))).toContain("line 1: malformed number \"time\" (start header lines with #)");
       const hex = textFile("hex.txt", "0x10\n");
       expect(await inputErrorOf(readStrain(hex, { rate: 1 }))).toContain("line 1: malformed number");
@@ -155,5 +155,34 @@ describe("text strain files", () => {
       const p = tmp.path("missing.csv");
       expect(await inputErrorOf(readStrain(p))).toBe(`${p}: no such file`);
     });
+  });
+});
+
+describe("a header line of column names", () => {
+  it("is accepted before two columns, comma- or space-separated", async () => {
+    for (const [name, head] of [["h.csv", "time,strain"], ["h.txt", "time strain"], ["q.csv", '"time","strain"'], ["u.txt", "t_s\th"]] as const) {
+      const p = textFile(name, `# label: x\n${head}\n10,1e-21\n10.25,-2e-21\n10.5,3e-21\n`.replace(/,/g, name.endsWith(".csv") ? "," : " "));
+      const s = await readStrain(p);
+      expect(s).toMatchObject({ sampleRate: 4, startTime: 10, label: "x" });
+      expect(Array.from(s.data)).toEqual([1e-21, -2e-21, 3e-21]);
+    }
+  });
+
+  it("is accepted before one column (with --rate)", async () => {
+    const p = textFile("one.txt", "strain\n1\n2\n");
+    expect(Array.from((await readStrain(p, { rate: 2 })).data)).toEqual([1, 2]);
+  });
+
+  it("must name as many columns as the data has (error names the file and both lines)", async () => {
+    const p = textFile("mismatch.csv", "time,strain\n1\n2\n");
+    const msg = await inputErrorOf(readStrain(p, { rate: 1 }));
+    expect(msg).toBe(`${p}: line 2: 1 column of data, but the header on line 1 names 2`);
+  });
+
+  it("only one, and only before the data: a name among numbers is still malformed", async () => {
+    const p = textFile("twice.csv", "time,strain\ntime,strain\n0,1\n1,2\n");
+    expect(await inputErrorOf(readStrain(p))).toContain("line 2: malformed number");
+    const q = textFile("late.csv", "0,1\ntime,strain\n1,2\n");
+    expect(await inputErrorOf(readStrain(q))).toContain("line 2: malformed number");
   });
 });

@@ -28,7 +28,7 @@ export function renderCandidates(format: CandidateFormat, candidates: Candidate[
   if (format === "jsonl") {
     return candidates.map((c) => JSON.stringify(candidateRecord(c))).join("\n") + (candidates.length ? "\n" : "") + JSON.stringify(summary) + "\n";
   }
-  if (format === "csv") return formatCandidatesCsv(candidates);
+  if (format === "csv") return formatCandidatesCsv(candidates, summary);
   return formatCandidatesTable(candidates, summary);
 }
 
@@ -67,14 +67,35 @@ const CSV_FIELDS = [
   "primaryMass", "secondaryMass", "effectiveDistanceMpc", "templateIndex", "file",
 ] as const;
 
-/** CSV with a header row; the file name is quoted. */
-export function formatCandidatesCsv(candidates: Candidate[]): string {
+/**
+ * CSV with a header row; the file name is quoted; an unavailable effective distance (NaN: the
+ * strain's units are not dimensionless strain) is an empty field. With a summary, it follows the
+ * rows as a trailer of `# key: value` comment lines (objects and arrays as JSON), one per field,
+ * the caution among them.
+ */
+export function formatCandidatesCsv(candidates: Candidate[], summary?: Record<string, unknown>): string {
   const rows = [CSV_FIELDS.join(",")];
   for (const c of candidates) {
     const r = candidateRecord(c);
-    rows.push(CSV_FIELDS.map((f) => (f === "file" ? JSON.stringify(String(r[f])) : String(r[f]))).join(","));
+    rows.push(CSV_FIELDS.map((f) => csvField(f, r[f])).join(","));
   }
-  return rows.join("\n") + "\n";
+  return rows.join("\n") + "\n" + (summary ? csvSummaryTrailer(summary) : "");
+}
+
+function csvField(name: string, value: unknown): string {
+  if (name === "file") return JSON.stringify(String(value));
+  if (typeof value === "number" && Number.isNaN(value)) return "";
+  return String(value);
+}
+
+/** The summary as `# key: value` lines (one per field; objects and arrays as one-line JSON). */
+export function csvSummaryTrailer(summary: Record<string, unknown>): string {
+  const lines = Object.entries(summary).map(([k, v]) => {
+    const text = v !== null && typeof v === "object" ? JSON.stringify(v) : String(v);
+    return `# ${k}: ${text.replace(/[\r\n]+/g, " ")}`;
+  });
+  if (!("caution" in summary)) lines.push(`# caution: ${CANDIDATE_CAUTION}`);
+  return lines.join("\n") + "\n";
 }
 
 /** A table for people, loudest (reweighted) first, with the summary and the caution under it. */
@@ -89,7 +110,7 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
     c.chirpMass.toFixed(4),
     c.primaryMass.toFixed(3),
     c.secondaryMass.toFixed(3),
-    c.effectiveDistanceMpc.toFixed(1),
+    Number.isNaN(c.effectiveDistanceMpc) ? "—" : c.effectiveDistanceMpc.toFixed(1),
     c.file,
   ]);
   const out: string[] = [];
@@ -129,12 +150,14 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
       out.push(`  ${st.file}: ${st.unsearchable ? `not searched (${st.unsearchable})` : `${st.segments} segment${st.segments === 1 ? "" : "s"} of ${st.segmentSamples} samples at ${st.sampleRate} Hz`}`);
     }
   }
+  const noDistance = summary.distancesUnavailable as { file: string; units: string }[] | undefined;
+  for (const n of noDistance ?? []) out.push(`D_eff unavailable for ${n.file}: its units ${JSON.stringify(n.units)} are not dimensionless strain`);
   out.push(CANDIDATE_CAUTION);
   return out.join("\n") + "\n";
 }
 
-/** CSV of coincidences: one row each, per-site SNRs in `SITE:snr` columns. */
-export function formatCoincidencesCsv(coincidences: Coincidence[]): string {
+/** CSV of coincidences: one row each, per-site SNRs in `SITE:snr` columns; the summary trailer as for candidates. */
+export function formatCoincidencesCsv(coincidences: Coincidence[], summary?: Record<string, unknown>): string {
   const sites = [...new Set(coincidences.flatMap((c) => Object.keys(c.sites)))];
   const head = ["coalescenceTime", "rankingStatistic", "falseAlarmRatePerYear", "falseAlarmRateIsUpperLimit", "falseAlarmProbability", "chirpMass", "templateIndex", "slides", ...sites.flatMap((s) => [`${s}:snr`, `${s}:reweightedSnr`, `${s}:coalescenceTime`])];
   const rows = [head.join(",")];
@@ -148,7 +171,7 @@ export function formatCoincidencesCsv(coincidences: Coincidence[]): string {
       }),
     ].join(","));
   }
-  return rows.join("\n") + "\n";
+  return rows.join("\n") + "\n" + (summary ? csvSummaryTrailer(summary) : "");
 }
 
 /** A table of coincidences for people, most significant first, with the background livetime. */

@@ -34,6 +34,9 @@ export interface SearchFlags {
   gateTaper: string;
 }
 
+/** Default Welch segment of a scan's PSD estimate (s), which is also its inverse-PSD filter length. */
+export const DEFAULT_PSD_SEGMENT_SECONDS = 4;
+
 /** Adds the shared search flags to a command (`--fmin` default differs between commands). */
 export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Command {
   return cmd
@@ -49,7 +52,7 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
       "0",
     )
     .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
-    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", "4")
+    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", String(DEFAULT_PSD_SEGMENT_SECONDS))
     .option("--psd-average <kind>", "Welch average: median or mean", "median")
     .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
     .option("--threads <n>", "worker threads filtering the bank (default: the number of cores; small jobs use 1)")

@@ -1,5 +1,9 @@
 import type { Command } from "commander";
 import {
+  describeConstantSeries,
+  findConstantSeries,
+  isDimensionlessStrain,
+  strainSourceFromSeries,
   formatPsdTable,
   horizonDistance,
   InputError,
@@ -13,6 +17,7 @@ import {
 import { UsageError } from "../errors.js";
 import { checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag } from "../options.js";
+import { nonStrainInputs, printStrainWarnings } from "../strainInputs.js";
 
 interface PsdFlags {
   segment: string;
@@ -66,6 +71,12 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   if (flags.plot) checkOutputFile("--plot", flags.plot, strainInputPaths([file]));
 
   const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
+  printStrainWarnings(strain.warnings);
+  const constant = await findConstantSeries(strainSourceFromSeries(strain));
+  if (constant) throw new InputError(describeConstantSeries(constant));
+  // A horizon in Mpc assumes dimensionless strain; for other units (e.g. counts) it is not given.
+  const physical = isDimensionlessStrain(strain.units);
+  if (!physical) nonStrainInputs([strain], "the horizon and range are unavailable (null in JSON)");
   const fs = strain.sampleRate;
   const wanted = Math.round(segmentSeconds * fs);
   if (wanted < 16) {
@@ -86,7 +97,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const estimate = welchPsd(strain.data, fs, { segmentLength, average });
   const fMinHz = fminFlag ?? Math.max(DEFAULT_FMIN_HZ, estimate.df);
   let horizon: HorizonResult | null = null;
-  try {
+  if (physical) try {
     horizon = horizonDistance({
       massSolar1: REFERENCE_MASS_SOLAR,
       massSolar2: REFERENCE_MASS_SOLAR,
@@ -153,7 +164,10 @@ function summaryText(
         `(optimal orientation), averaged range ${horizon.rangeMpc.toFixed(1)} Mpc`,
     );
   } else {
-    lines.push(`1.4+1.4 M_sun horizon: not available (the PSD is not positive everywhere from ${fmt(fMinHz)} Hz up)`);
+    const why = isDimensionlessStrain(strain.units)
+      ? `the PSD is not positive everywhere from ${fmt(fMinHz)} Hz up`
+      : `the units ${JSON.stringify(strain.units)} are not dimensionless strain`;
+    lines.push(`1.4+1.4 M_sun horizon: not available (${why})`);
   }
   lines.push("  frequency (Hz)      PSD (1/Hz)   ASD (1/√Hz)");
   for (const f of [10, 20, 50, 100, 300, 1000, 2000]) {

@@ -8,7 +8,6 @@ import {
   detectorByName,
   evaluateRequirements,
   loadFftBackends,
-  openStrain,
   parseRequirement,
   psdModelFromSpec,
   readCampaignState,
@@ -28,6 +27,7 @@ import { UsageError } from "../errors.js";
 import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
+import { openStrainInput } from "../strainInputs.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import { campaignDocument, formatCampaignText, type CampaignDocument } from "../reportData.js";
 import { VERSION } from "../version.js";
@@ -149,7 +149,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const fftBackend = resolveFftBackend(fftChoice);
   const sources: StrainSource[] = [];
   try {
-    for (const f of strainFiles) sources.push(await openStrain(f, { rate: cmd.getOptionValueSource("rate") === "cli" ? rate : undefined, start, dataset: flags.dataset }));
+    for (const f of strainFiles) sources.push(await openStrainInput(f, { rate: cmd.getOptionValueSource("rate") === "cli" ? rate : undefined, start, dataset: flags.dataset }));
 
     // What determines the results: hashed into the state file so a resume with other arguments is refused.
     const args = {

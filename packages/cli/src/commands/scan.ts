@@ -29,6 +29,7 @@ import { UsageError } from "../errors.js";
 import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
+import { nonStrainInputs, openStrainInput } from "../strainInputs.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import {
   CANDIDATE_CAUTION,
@@ -99,7 +100,7 @@ export function registerScan(program: Command): void {
     .option("--shard <I/N>", "scan only piece I of N (0-based) and write it for `chirpsieve merge`; auto/N takes I from SLURM_ARRAY_TASK_ID or JOB_COMPLETION_INDEX")
     .option("--shard-by <how>", "split the work by templates, time or both", "both")
     .option("--resume", "keep a journal beside --out and continue a killed scan rerun with the same arguments")
-    .option("--quiet", "no progress bar")
+    .option("--quiet", "no progress (bar on a terminal, periodic lines otherwise)")
     .action(async (files: string[], flags: ScanFlags, cmd: Command) => {
       await runScan(files, flags, cmd);
     });
@@ -142,10 +143,17 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
   const sources: StrainSource[] = [];
-  for (const f of files) {
-    // Bad samples are found by the search's screening, which reports them as stretches.
-    sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }));
+  try {
+    for (const f of files) {
+      // Bad samples (non-finite, zero-filled or constant, corrupt) are found by the search's
+      // screening, which rejects them or reports them as left-out stretches.
+      sources.push(await openStrainInput(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }));
+    }
+  } catch (err) {
+    for (const s of sources) await s.close();
+    throw err;
   }
+  const nonStrain = nonStrainInputs(sources);
   // Files of one site whose samples continue each other are searched as one stream (no lead-in
   // lost at their boundaries); --site files are one per site.
   const streams: SearchInput[] = network.length > 0 ? sources : joinContiguousInputs(sources);
@@ -160,7 +168,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
         arguments: { bank: bankDescription, rate, start, dataset: flags.dataset },
       }))
     : undefined;
-  const progress = createProgress(!flags.quiet, "scan");
+  const progress = createProgress(!flags.quiet, "scan", { lines: true });
   const candidates: Candidate[] = [];
   const summaries: SearchSummary[] = [];
   const wallStart = performance.now();
@@ -176,7 +184,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
         const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --psd-segment" : "raise --fmin, use heavier masses or longer data";
         // Too short by itself is the user's to fix; left with nothing by the exclusions they asked for is reported.
         if (streams.length === 1 && r.summary.skipped.length === 0) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
-        if (!flags.quiet) process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
+        process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
       }
       for (const c of r.candidates) candidates.push(c);
       summaries.push(r.summary);
@@ -199,6 +207,11 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped, gates: p.gates }));
   }
   const uniform = <T,>(values: T[]): T | null => (values.length > 0 && values.every((v) => v === values[0]) ? values[0] : null);
+  // Effective distances assume dimensionless strain: for other units they are not given.
+  const noDistance = new Set(nonStrain.map((n) => n.file));
+  if (noDistance.size > 0) {
+    for (const c of candidates) if (noDistance.has(c.file)) c.effectiveDistanceMpc = Number.NaN;
+  }
   const summary: Record<string, unknown> = {
     type: "summary",
     files: files.length,
@@ -237,6 +250,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     fftBackend,
     threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
+    ...(nonStrain.length > 0 ? { distancesUnavailable: nonStrain.map((n) => ({ file: n.file, units: n.units, why: "units are not dimensionless strain" })) } : {}),
     caution: CANDIDATE_CAUTION,
   };
 
@@ -272,7 +286,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   if (flags.plot) {
     mkdirSync(flags.plot, { recursive: true });
     const { writeScanPlots } = await import("../scanPlots.js");
-    await writeScanPlots(flags.plot, sources.length ? files : [], candidates, {
+    await writeScanPlots(flags.plot, sources.map((x) => x.file), candidates, {
       templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
       open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }),
     });
@@ -337,7 +351,7 @@ function renderNetwork(
     ];
     return lines.join("\n") + "\n";
   }
-  if (format === "csv") return formatCoincidencesCsv(coincidences);
+  if (format === "csv") return formatCoincidencesCsv(coincidences, summary);
   return formatCoincidencesTable(coincidences, singles.length, summary);
 }
 

@@ -13,12 +13,14 @@ import {
   readInjectionFile,
   strainFormatOf,
   synthesizeStrain,
+  unsearchableEdges,
   writeInjectionManifest,
   writeStrain,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkOutputFile } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
+import { DEFAULT_PSD_SEGMENT_SECONDS } from "../searchFlags.js";
 
 interface SimulateFlags {
   noiseCurve: string;
@@ -33,6 +35,7 @@ interface SimulateFlags {
   massRange?: string;
   snrRange?: string;
   distanceRange?: string;
+  edgeMargin?: string;
   detector: string;
   noise: boolean;
   label?: string;
@@ -56,9 +59,22 @@ export function registerSimulate(program: Command): void {
     .option("--start <s>", "time of the first sample, seconds", "0")
     .option("--fmin <Hz>", "GW frequency where injected chirps start (and of the SNR integral)", "20")
     .option("--inject <file>", "injections to add: a JSON array, or an object with an \"injections\" array")
-    .option("--inject-random <N>", "add N random injections (masses, sky, orientation and times drawn from the seed)")
+    .option(
+      "--inject-random <N>",
+      "add N random injections (masses, sky, orientation and times drawn from the seed); their coalescence times " +
+        "keep clear of the start and end that a scan with the same --fmin and --mass-range cannot search (see --edge-margin)",
+    )
     .option("--mass-range <min:max>", "component masses of random injections, M_sun", "1:3")
-    .option("--snr-range <min:max>", "optimal SNR range of random injections (distance scaled to hit it)")
+    .option(
+      "--snr-range <min:max>",
+      "optimal SNR range of random injections (distance scaled to hit it); with several --detector sites this is the " +
+        "network SNR, the quadrature sum of the sites' optimal SNRs, each site at the same distance",
+    )
+    .option(
+      "--edge-margin <s>",
+      `seconds at each end kept clear of random coalescence times (default: the longest template of --mass-range from --fmin ` +
+        `plus a scan's ${DEFAULT_PSD_SEGMENT_SECONDS} s inverse-PSD filter and 0.1 s at the start, the filter and 0.1 s at the end)`,
+    )
     .option("--distance-range <min:max>", "distance range of random injections, Mpc (uniform in volume)")
     .option("--detector <names>", "site(s) the signals are projected onto: one name, or a comma-separated list for one file per site (built-in invented sites, or from --sites)", "site-a")
     .option("--sites <file>", "JSON file of extra site definitions (see `chirpsieve sites`)")
@@ -135,7 +151,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
 
   const random = flags.injectRandom !== undefined;
   if (random && flags.inject !== undefined) throw new UsageError("--inject-random: cannot be combined with --inject");
-  for (const name of ["massRange", "snrRange", "distanceRange"] as const) {
+  for (const name of ["massRange", "snrRange", "distanceRange", "edgeMargin"] as const) {
     if (!random && given(cmd, name)) {
       const flag = `--${name.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`;
       throw new UsageError(`${flag}: only applies with --inject-random`);
@@ -143,6 +159,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   }
 
   let injections: Injection[] = [];
+  let edgeNote: string | undefined;
   if (flags.inject !== undefined) {
     injections = readInjectionFile(flags.inject);
     // An injection that coalesces outside the data could never be recovered from it: refuse it.
@@ -172,8 +189,22 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     }
     const snrRange = flags.snrRange === undefined ? undefined : parseRangeFlag("--snr-range", flags.snrRange);
     const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
+    // Keep coalescences where a scan of this file can find them (or where --edge-margin says).
+    const edges = flags.edgeMargin !== undefined
+      ? (() => {
+          const m = parseNumberFlag("--edge-margin", flags.edgeMargin, { min: 0 });
+          return { leadInSeconds: m, tailSeconds: m };
+        })()
+      : unsearchableEdges(massRangeSolar, fmin, DEFAULT_PSD_SEGMENT_SECONDS);
+    edgeNote =
+      `random coalescence times kept clear of the first ${edges.leadInSeconds.toFixed(1)} s and the last ${edges.tailSeconds.toFixed(1)} s` +
+      (flags.edgeMargin !== undefined
+        ? " (--edge-margin)"
+        : ` (what a scan from ${fmin} Hz over ${massRangeSolar.join(":")} M_sun with a ${DEFAULT_PSD_SEGMENT_SECONDS} s PSD filter cannot search; --edge-margin sets it)`);
     try {
       injections = drawInjections({
+        ...edges,
+        ...(multi ? { detectors } : {}),
         count,
         massRangeSolar,
         snrRange,
@@ -187,15 +218,31 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
         detector,
       });
     } catch (err) {
-      if (err instanceof InputError) throw new UsageError(`--inject-random: ${err.message}`);
+      if (err instanceof InputError) {
+        const hint = flags.edgeMargin === undefined && /kept clear/.test(err.message) ? " (or set --edge-margin)" : "";
+        throw new UsageError(`--inject-random: ${err.message}${hint}`);
+      }
       throw err;
     }
   }
 
+  // Per-site SNRs; with several sites also the network SNR (drawn by --snr-range, else the
+  // quadrature sum of the sites').
+  const perSite = outputs.map((o) =>
+    injections.map((inj) => (multi || inj.optimalSnr === undefined ? optimalSnr(inj, psd, rate, fmin, o.detector) : inj.optimalSnr!)),
+  );
+  const network = injections.map((inj, k) =>
+    random && inj.optimalSnr !== undefined ? inj.optimalSnr : Math.sqrt(perSite.reduce((a, site) => a + site[k] ** 2, 0)),
+  );
   const lines: string[] = [];
-  for (const o of outputs) {
-    // Per-site SNRs; the noise of each site is independent (its own seed), one site keeps `SEED:noise`.
-    const siteInjections = injections.map((inj) => ({ ...inj, optimalSnr: multi || inj.optimalSnr === undefined ? optimalSnr(inj, psd, rate, fmin, o.detector) : inj.optimalSnr }));
+  if (edgeNote) lines.push(edgeNote);
+  for (const [oi, o] of outputs.entries()) {
+    // The noise of each site is independent (its own seed), one site keeps `SEED:noise`.
+    const siteInjections = injections.map((inj, k) => ({
+      ...inj,
+      optimalSnr: perSite[oi][k],
+      ...(multi ? { networkOptimalSnr: network[k] } : {}),
+    }));
     const noiseSeed = multi ? `${seed}:noise:${o.detector.name}` : `${seed}:noise`;
     // Generated in chunks; held once, as float32 when the file is float32, to keep memory down.
     const data = format === "f32" ? new Float32Array(samples) : new Float64Array(samples);
@@ -231,7 +278,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
       lines.push(
         `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
           `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
-          `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}`,
+          `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}${inj.networkOptimalSnr !== undefined ? ` (network ${inj.networkOptimalSnr.toFixed(2)})` : ""}`,
       );
     }
   }

@@ -27,10 +27,19 @@ export interface InjectionPopulationOptions {
   sampleRate?: number;
   /** Detector for the SNRs (default the invented "site-a"). */
   detector?: Detector;
+  /**
+   * Several detectors: SNRs are network SNRs, the quadrature sum of the optimal SNRs at these
+   * sites (each site scaled by the same distance); `detector` is then unused.
+   */
+  detectors?: Detector[];
   /** Minimum gap (s) between one coalescence and the start of the next chirp (default 2). */
   gapSeconds?: number;
   /** No coalescence within this many seconds of either end of the series (default 2). */
   marginSeconds?: number;
+  /** No coalescence within this many seconds of the start (default marginSeconds). */
+  leadInSeconds?: number;
+  /** No coalescence within this many seconds of the end (default marginSeconds). */
+  tailSeconds?: number;
 }
 
 /** Largest plane-wave delay between the Earth's centre and a detector on its surface, s (R_earth / c, rounded up). */
@@ -50,10 +59,12 @@ function checkRange(name: string, r: unknown, lowest: number): [number, number] 
  * - component masses uniform in massRangeSolar (primaryMass is the larger);
  * - distance uniform in volume in distanceMpc, D = (D₁³ + u (D₂³ − D₁³))^{1/3}; or, with snrRange,
  *   a target SNR ρ uniform in the range and D = D_ref ρ_ref / ρ (optimal SNR ∝ 1/D), where ρ_ref is
- *   the optimal SNR at D_ref = 1 Mpc;
+ *   the optimal SNR at D_ref = 1 Mpc; with `detectors`, ρ is the network SNR, ρ_ref = (Σ_i ρ_i²)^{1/2}
+ *   over the sites at 1 Mpc, so every site is scaled by the same distance;
  * - isotropic orientation and sky: cos ι, sin δ uniform in [−1, 1], α uniform in [0, 2π),
  *   ψ uniform in [0, π), phase uniform in [0, 2π);
- * - coalescence times in order, none within marginSeconds of either end, and spaced so chirps do
+ * - coalescence times in order, none within leadInSeconds of the start or tailSeconds of the end
+ *   (both default to marginSeconds), and spaced so chirps do
  *   not overlap: t_{k+1} − t_k ≥ d_{k+1} + gapSeconds + 2·21.4 ms, with d the TaylorT4 duration
  *   of chirp k+1 from fMinHz to the ISCO (the 21.4 ms covers the Earth-centre-to-detector delay).
  *   The slack left after those minimum spacings is shared out by sorted uniform draws. The first
@@ -78,12 +89,27 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
   const gap = o.gapSeconds ?? 2;
   const margin = o.marginSeconds ?? 2;
   if (!(gap >= 0) || !(margin >= 0)) throw new InputError(`gapSeconds and marginSeconds must be non-negative (got ${gap}, ${margin})`);
+  const lead = o.leadInSeconds ?? margin;
+  const tail = o.tailSeconds ?? margin;
+  if (!(lead >= 0 && Number.isFinite(lead)) || !(tail >= 0 && Number.isFinite(tail))) {
+    throw new InputError(`leadInSeconds and tailSeconds must be non-negative (got ${lead}, ${tail})`);
+  }
+  if (o.detectors !== undefined && (!Array.isArray(o.detectors) || o.detectors.length === 0)) {
+    throw new InputError("detectors must be a non-empty list");
+  }
   const wantSnr = o.psd !== undefined && o.sampleRate !== undefined;
   if (sRange && !wantSnr) throw new InputError("snrRange needs psd and sampleRate to compute optimal SNRs");
   if (wantSnr && (!(o.sampleRate! > 0) || !Number.isFinite(o.sampleRate!))) {
     throw new InputError(`sampleRate must be a positive number (got ${o.sampleRate})`);
   }
-  const detector = o.detector ?? SITE_A;
+  const sites = o.detectors ?? [o.detector ?? SITE_A];
+  /** Optimal SNR of `inj`: at the one site, or the network's quadrature sum. */
+  const snrOf = (inj: Injection): number => {
+    if (sites.length === 1) return optimalSnr(inj, o.psd!, o.sampleRate!, o.fMinHz, sites[0]);
+    let sum = 0;
+    for (const d of sites) sum += optimalSnr(inj, o.psd!, o.sampleRate!, o.fMinHz, d) ** 2;
+    return Math.sqrt(sum);
+  };
   const rng = seedrandom(String(o.seed));
   const n = o.count;
 
@@ -117,17 +143,18 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
   const spacing = durations.map((d) => d + gap + 2 * MAX_EARTH_DELAY);
   let need = 0;
   for (let k = 1; k < n; k++) need += spacing[k];
-  const available = o.duration - 2 * margin;
+  const available = o.duration - lead - tail;
   if (n > 0 && need > available) {
     throw new InputError(
-      `duration ${o.duration} s is too short for ${n} non-overlapping chirps from ${o.fMinHz} Hz (needs ${Math.ceil(need + 2 * margin)} s); ` +
+      `duration ${o.duration} s is too short for ${n} non-overlapping chirps from ${o.fMinHz} Hz with ${+lead.toFixed(3)} s kept clear at the start ` +
+        `and ${+tail.toFixed(3)} s at the end (needs ${Math.ceil(need + lead + tail)} s); ` +
         "use a longer duration, a higher fMin, heavier masses or fewer injections",
     );
   }
   const slack = available - need;
   const offsets = Array.from({ length: n }, () => slack * rng()).sort((x, y) => x - y);
   const injections: Injection[] = [];
-  let base = startTime + margin;
+  let base = startTime + lead;
   for (let k = 0; k < n; k++) {
     if (k > 0) base += spacing[k];
     const d = drawn[k];
@@ -143,7 +170,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
       phase: d.phase,
     };
     if (wantSnr) {
-      const snr = optimalSnr(inj, o.psd!, o.sampleRate!, o.fMinHz, detector);
+      const snr = snrOf(inj);
       if (sRange) {
         if (!(snr > 0)) throw new InputError(`injection ${k}: its signal has no power above ${o.fMinHz} Hz, so no distance gives the target SNR`);
         inj.distance = snr / d.level; // reference distance 1 Mpc: D = 1 Mpc × ρ_ref / ρ

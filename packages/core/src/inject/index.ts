@@ -10,3 +10,4 @@ export * from "./campaign.js";
 export * from "./campaignSummary.js";
 export * from "./campaignRequirements.js";
 export * from "./campaignState.js";
+export * from "./searchableEdges.js";

@@ -8,6 +8,8 @@ import { type Injection, checkInjection } from "./injection.js";
 export interface ManifestInjection extends Injection {
   chirpMass: number;
   optimalSnr: number;
+  /** With several sites: the network optimal SNR, (Σ over sites of optimalSnr²)^{1/2}. */
+  networkOptimalSnr?: number;
 }
 
 /**
@@ -32,7 +34,10 @@ export interface InjectionManifest {
 }
 
 /** Builds a manifest; every injection needs its optimalSnr (NaN is written as null otherwise). */
-export function injectionManifest(meta: Omit<InjectionManifest, "synthetic" | "injections">, injections: Injection[]): InjectionManifest {
+export function injectionManifest(
+  meta: Omit<InjectionManifest, "synthetic" | "injections">,
+  injections: (Injection & { networkOptimalSnr?: number })[],
+): InjectionManifest {
   return {
     synthetic: true,
     noiseCurve: meta.noiseCurve,
@@ -55,6 +60,7 @@ export function injectionManifest(meta: Omit<InjectionManifest, "synthetic" | "i
       polarization: inj.polarization,
       phase: inj.phase,
       optimalSnr: inj.optimalSnr ?? Number.NaN,
+      ...(inj.networkOptimalSnr !== undefined ? { networkOptimalSnr: inj.networkOptimalSnr } : {}),
     })),
   };
 }

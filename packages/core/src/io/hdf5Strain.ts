@@ -9,9 +9,9 @@ import type { StrainOpenOptions, StrainSource, StrainWriteInput } from "./strain
 /** Attribute names read as a sample rate in Hz. */
 export const HDF5_RATE_ATTRIBUTES: readonly string[] = ["sampleRate", "sample_rate", "samplingRate", "sampling_rate", "rate", "fs"];
 /** Attribute names read as a sample spacing in seconds. */
-export const HDF5_SPACING_ATTRIBUTES: readonly string[] = ["dt", "spacing", "delta", "deltaT", "delta_t"];
+export const HDF5_SPACING_ATTRIBUTES: readonly string[] = ["dt", "spacing", "delta", "deltaT", "delta_t", "Xspacing"];
 /** Attribute names read as the start time in seconds. */
-export const HDF5_START_ATTRIBUTES: readonly string[] = ["startTime", "start_time", "start", "t0"];
+export const HDF5_START_ATTRIBUTES: readonly string[] = ["startTime", "start_time", "start", "t0", "Xstart"];
 
 /** The 8-byte HDF5 format signature (HDF5 File Format Specification, "Format Signature"). */
 const SIGNATURE = [0x89, 0x48, 0x44, 0x46, 0x0d, 0x0a, 0x1a, 0x0a];

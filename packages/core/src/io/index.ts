@@ -5,3 +5,5 @@ export * from "./strainFile.js";
 export * from "./memoryStrain.js";
 export * from "./readTextInput.js";
 export * from "./intervalFile.js";
+export * from "./constantSeries.js";
+export * from "./strainUnits.js";

@@ -24,6 +24,7 @@ export function strainSourceFromSeries(series: StrainSeries): StrainSource {
     length: data.length,
     ...(label !== undefined ? { label } : {}),
     ...(units !== undefined ? { units } : {}),
+    ...(series.warnings !== undefined ? { warnings: series.warnings } : {}),
     async read(offset: number, count: number): Promise<Float64Array> {
       checkReadRange(file, offset, count, data.length);
       if (closed) throw new Error(`${file}: read after close`);

@@ -1,4 +1,4 @@
-// Raw little-endian float32/float64 strain with a JSON sidecar (internal: use strainFile.ts).
+// Raw float32/float64 strain (little- or big-endian) with a JSON sidecar (internal: use strainFile.ts).
 import { open, readFile } from "node:fs/promises";
 import type { FileHandle } from "node:fs/promises";
 import { endianness } from "node:os";
@@ -14,8 +14,14 @@ import {
 } from "./strainChecks.js";
 import type { StrainOpenOptions, StrainSource, StrainWriteInput } from "./strainTypes.js";
 
-/** The two raw formats: little-endian IEEE-754 float32 (.f32) or float64 (.f64) samples. */
+/** The two raw formats: IEEE-754 float32 (.f32) or float64 (.f64) samples. */
 export type RawStrainFormat = "f32" | "f64";
+
+/** Byte order of raw samples, as a sidecar's "byteOrder" states it (default "little"). */
+export type ByteOrder = "little" | "big";
+
+/** The keys a sidecar may hold; any other is reported as a warning and ignored. */
+export const RAW_SIDECAR_KEYS: readonly string[] = ["sampleRate", "startTime", "label", "units", "length", "sampleType", "byteOrder"];
 
 const SAMPLE_TYPE: Record<RawStrainFormat, "float32" | "float64"> = { f32: "float32", f64: "float64" };
 const SAMPLE_BYTES: Record<RawStrainFormat, number> = { f32: 4, f64: 8 };
@@ -34,12 +40,17 @@ export interface RawSidecar {
   units?: string;
   /** Number of samples, when the sidecar states it. */
   length?: number;
+  /** Byte order of the samples (default "little"). */
+  byteOrder: ByteOrder;
+  /** One line per unknown key, naming the sidecar (the key is ignored). */
+  warnings: string[];
 }
 
 /**
  * Parses and checks the sidecar JSON of a raw strain file of `format`:
- * `{"sampleRate": Hz, "startTime": s}` plus optional "label", "units", "length" (samples) and
- * "sampleType" ("float32" | "float64", must match the format). Other keys are ignored.
+ * `{"sampleRate": Hz, "startTime": s}` plus optional "label", "units", "length" (samples),
+ * "sampleType" ("float32" | "float64", must match the format) and "byteOrder" ("little" | "big",
+ * default "little"). Other keys are ignored, each with a warning naming the sidecar and the key.
  * Every problem is an InputError naming `sidecar`.
  */
 export function parseRawSidecar(sidecar: string, text: string, format: RawStrainFormat): RawSidecar {
@@ -64,7 +75,17 @@ export function parseRawSidecar(sidecar: string, text: string, format: RawStrain
   if (typeof startTime !== "number" || !Number.isFinite(startTime)) {
     throw new InputError(`${sidecar}: startTime must be a finite number of seconds (got ${shown(startTime)})`);
   }
-  const out: RawSidecar = { sampleRate, startTime };
+  let byteOrder: ByteOrder = "little";
+  if (o.byteOrder !== undefined) {
+    if (o.byteOrder !== "little" && o.byteOrder !== "big") {
+      throw new InputError(`${sidecar}: byteOrder must be "little" or "big" (got ${shown(o.byteOrder)})`);
+    }
+    byteOrder = o.byteOrder;
+  }
+  const warnings = Object.keys(o)
+    .filter((k) => !RAW_SIDECAR_KEYS.includes(k))
+    .map((k) => `${sidecar}: unknown key ${shown(k)} ignored (known: ${RAW_SIDECAR_KEYS.join(", ")})`);
+  const out: RawSidecar = { sampleRate, startTime, byteOrder, warnings };
   for (const key of ["label", "units"] as const) {
     const v = o[key];
     if (v === undefined) continue;
@@ -118,6 +139,8 @@ class RawStrainSource implements StrainSource {
     readonly startTime: number,
     readonly length: number,
     private readonly checkSamples: boolean,
+    private readonly byteOrder: ByteOrder,
+    readonly warnings: readonly string[],
     readonly label?: string,
     readonly units?: string,
   ) {
@@ -136,7 +159,7 @@ class RawStrainSource implements StrainSource {
       if (bytesRead === 0) throw new InputError(`${this.file}: the file ended early (was it truncated while being read?)`);
       got += bytesRead;
     }
-    const out = decodeLittleEndian(bytes, this.format, count);
+    const out = decodeSamples(bytes, this.format, count, this.byteOrder);
     if (this.checkSamples) checkFinite(this.file, out, offset, this.sampleRate, this.startTime);
     return out;
   }
@@ -148,34 +171,38 @@ class RawStrainSource implements StrainSource {
   }
 }
 
-/** Decodes `count` little-endian samples of `format` from `bytes` (offset 0, 8-byte aligned buffer). */
-function decodeLittleEndian(bytes: Uint8Array, format: RawStrainFormat, count: number): Float64Array {
+/** Decodes `count` samples of `format` in `byteOrder` from `bytes` (offset 0, 8-byte aligned buffer). */
+function decodeSamples(bytes: Uint8Array, format: RawStrainFormat, count: number, byteOrder: ByteOrder): Float64Array {
+  const native = (byteOrder === "little") === LITTLE_ENDIAN_HOST;
+  const little = byteOrder === "little";
   if (format === "f64") {
-    if (LITTLE_ENDIAN_HOST) return new Float64Array(bytes.buffer, bytes.byteOffset, count);
+    if (native) return new Float64Array(bytes.buffer, bytes.byteOffset, count);
     const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
     const out = new Float64Array(count);
-    for (let i = 0; i < count; i++) out[i] = view.getFloat64(8 * i, true);
+    for (let i = 0; i < count; i++) out[i] = view.getFloat64(8 * i, little);
     return out;
   }
   const out = new Float64Array(count);
-  if (LITTLE_ENDIAN_HOST) {
+  if (native) {
     out.set(new Float32Array(bytes.buffer, bytes.byteOffset, count));
   } else {
     const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-    for (let i = 0; i < count; i++) out[i] = view.getFloat32(4 * i, true);
+    for (let i = 0; i < count; i++) out[i] = view.getFloat32(4 * i, little);
   }
   return out;
 }
 
-/** Encodes samples as little-endian float32/float64 bytes. */
-function encodeLittleEndian(path: string, data: ArrayLike<number>, format: RawStrainFormat): Uint8Array {
+/** Encodes samples as float32/float64 bytes in `byteOrder`. */
+function encodeSamples(path: string, data: ArrayLike<number>, format: RawStrainFormat, byteOrder: ByteOrder): Uint8Array {
   const n = data.length;
+  const native = (byteOrder === "little") === LITTLE_ENDIAN_HOST;
+  const little = byteOrder === "little";
   if (format === "f64") {
     const arr = Float64Array.from(data);
-    if (LITTLE_ENDIAN_HOST) return new Uint8Array(arr.buffer);
+    if (native) return new Uint8Array(arr.buffer);
     const bytes = new Uint8Array(8 * n);
     const view = new DataView(bytes.buffer);
-    for (let i = 0; i < n; i++) view.setFloat64(8 * i, arr[i], true);
+    for (let i = 0; i < n; i++) view.setFloat64(8 * i, arr[i], little);
     return bytes;
   }
   const arr = Float32Array.from(data);
@@ -184,10 +211,10 @@ function encodeLittleEndian(path: string, data: ArrayLike<number>, format: RawSt
       throw new InputError(`${path}: sample ${i} (${data[i]}) is out of float32 range; write a .f64 file instead`);
     }
   }
-  if (LITTLE_ENDIAN_HOST) return new Uint8Array(arr.buffer);
+  if (native) return new Uint8Array(arr.buffer);
   const bytes = new Uint8Array(4 * n);
   const view = new DataView(bytes.buffer);
-  for (let i = 0; i < n; i++) view.setFloat32(4 * i, arr[i], true);
+  for (let i = 0; i < n; i++) view.setFloat32(4 * i, arr[i], little);
   return bytes;
 }
 
@@ -236,21 +263,25 @@ export async function openRawStrain(
     meta.startTime,
     length,
     options.nonFinite !== "allow",
+    meta.byteOrder,
+    meta.warnings,
     meta.label,
     meta.units,
   );
 }
 
 /**
- * Writes raw little-endian samples and then the sidecar, each atomically (temporary file, then
- * rename), so a reader that finds the sidecar finds the whole data file. Assumes a checked series.
+ * Writes raw samples in `byteOrder` (default little-endian) and then the sidecar (which states
+ * the byte order), each atomically (temporary file, then rename), so a reader that finds the
+ * sidecar finds the whole data file. Assumes a checked series.
  */
-export function writeRawStrain(path: string, series: StrainWriteInput, format: RawStrainFormat): void {
-  const bytes = encodeLittleEndian(path, series.data, format);
+export function writeRawStrain(path: string, series: StrainWriteInput, format: RawStrainFormat, byteOrder: ByteOrder = "little"): void {
+  const bytes = encodeSamples(path, series.data, format, byteOrder);
   const meta: Record<string, unknown> = {
     sampleRate: series.sampleRate,
     startTime: series.startTime,
     sampleType: SAMPLE_TYPE[format],
+    byteOrder,
     length: series.data.length,
   };
   if (series.label !== undefined) meta.label = series.label;

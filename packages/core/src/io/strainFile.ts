@@ -80,6 +80,7 @@ export async function readStrain(path: string, options: StrainOpenOptions = {}):
     const series: StrainSeries = { data, sampleRate: source.sampleRate, startTime: source.startTime, file: source.file };
     if (source.label !== undefined) series.label = source.label;
     if (source.units !== undefined) series.units = source.units;
+    if (source.warnings !== undefined && source.warnings.length > 0) series.warnings = [...source.warnings];
     return series;
   } finally {
     await source.close();
@@ -88,8 +89,8 @@ export async function readStrain(path: string, options: StrainOpenOptions = {}):
 
 /**
  * Writes a strain file atomically (temporary file in the same directory, then rename; a raw
- * file's sidecar is written the same way, after the data). Formats: .f32/.f64 (little-endian,
- * with sidecar `<path>.json`), text (two columns, time and strain, shortest round-trip
+ * file's sidecar is written the same way, after the data). Formats: .f32/.f64 (little-endian, or
+ * big-endian with `options.byteOrder` "big", with sidecar `<path>.json` stating it), text (two columns, time and strain, shortest round-trip
  * numbers; comma-separated for .csv) or HDF5 (float64 dataset `options.dataset`, default
  * "strain", with attributes sampleRate, startTime, label, units). The series is checked first:
  * sampleRate positive, startTime finite, at least one sample, and (unless
@@ -107,12 +108,16 @@ export async function writeStrain(
     throw new InputError(`nonFinite must be "error" or "allow" (got ${shown(nonFinite)})`);
   }
   const format = strainFormatOf(path, options.format);
+  const byteOrder = options.byteOrder ?? "little";
+  if (byteOrder !== "little" && byteOrder !== "big") {
+    throw new InputError(`byteOrder must be "little" or "big" (got ${shown(byteOrder)})`);
+  }
   checkSeriesToWrite(path, series, nonFinite);
   await checkOutputDirectory(path);
   switch (format) {
     case "f32":
     case "f64":
-      writeRawStrain(path, series, format);
+      writeRawStrain(path, series, format, byteOrder);
       return;
     case "text":
       writeTextStrain(path, series);

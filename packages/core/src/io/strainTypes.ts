@@ -14,7 +14,10 @@ export interface StrainSeries {
   /** The file it came from (as the caller named it), for messages. */
   file: string;
   label?: string;
+  /** The strain's units as the file states them (see {@link isDimensionlessStrain}). */
   units?: string;
+  /** Non-fatal remarks about the file (e.g. an unknown sidecar key), one line each naming the file. */
+  warnings?: string[];
 }
 
 /** How to open a strain file. Every field is optional. */
@@ -35,12 +38,12 @@ export interface StrainOpenOptions {
   dataset?: string;
   /**
    * HDF5 attribute holding the sample rate or the sample spacing. Names meaning a spacing in
-   * seconds (dt, spacing, delta, deltaT, delta_t) are read as seconds, names meaning a rate
+   * seconds (dt, spacing, delta, deltaT, delta_t, Xspacing) are read as seconds, names meaning a rate
    * (sampleRate, sample_rate, samplingRate, sampling_rate, rate, fs) as Hz; for any other
    * name a value below 1 is a spacing in seconds and a value of 1 or more is a rate in Hz.
    */
   rateAttribute?: string;
-  /** HDF5 attribute holding the start time in seconds (default: startTime, start_time, start, t0). */
+  /** HDF5 attribute holding the start time in seconds (default: startTime, start_time, start, t0, Xstart). */
   startAttribute?: string;
   /** Default "error": a NaN/±Infinity sample is an InputError naming the file and the sample. */
   nonFinite?: "error" | "allow";
@@ -61,7 +64,10 @@ export interface StrainSource {
   /** Number of samples. */
   readonly length: number;
   readonly label?: string;
+  /** The strain's units as the file states them (see {@link isDimensionlessStrain}). */
   readonly units?: string;
+  /** Non-fatal remarks about the file (e.g. an unknown sidecar key), one line each naming the file. */
+  readonly warnings?: readonly string[];
   read(offset: number, count: number): Promise<Float64Array>;
   close(): Promise<void>;
 }
@@ -81,6 +87,8 @@ export interface StrainWriteOptions {
   format?: StrainFormat;
   /** HDF5 dataset path (default "strain"); ignored by the other formats. */
   dataset?: string;
+  /** Byte order of raw .f32/.f64 samples (default "little"; stated in the sidecar); ignored by the other formats. */
+  byteOrder?: "little" | "big";
   /** Default "error": refuse to write NaN/±Infinity samples (the reader would reject them). */
   nonFinite?: "error" | "allow";
 }

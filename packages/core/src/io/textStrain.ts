@@ -18,6 +18,8 @@ const RATE_SNAP_CAP = 1e-4;
 const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 const SPECIAL = /^([+-]?)(nan|inf|infinity)$/i;
 const META = /^#\s*(label|units)\s*:\s*(.*?)\s*$/i;
+/** A column name in a header line: starts with a letter or underscore, optionally quoted. */
+const COLUMN_NAME = /^(["']?)[A-Za-z_][\w.()[\]/*^-]*\1$/;
 
 /** Parses one field; undefined when it is not a number. */
 function parseField(s: string): number | undefined {
@@ -46,7 +48,9 @@ function splitFields(line: string): string[] {
  * Parses a text strain file already read into `text`. Layout: one column (strain; needs
  * `options.rate`, start from `options.start` or 0) or two columns (time in s, strain), separated
  * by commas, spaces or tabs; `#` starts a comment; blank lines are skipped; `# label: …` and
- * `# units: …` comments set the label and units. Two-column times must be evenly spaced: with
+ * `# units: …` comments set the label and units. One header line of column names (e.g.
+ * `time,strain`; each name starts with a letter or underscore) may come before the first number;
+ * it must name as many columns as the data has. Two-column times must be evenly spaced: with
  * dt = (t_last − t_0)/(n − 1), every t_i must lie within 1e-6·dt of t_0 + i·dt (no drift can
  * accumulate), widened only by the rounding of the written times (4 × half a unit in the finest
  * written decimal place, capped at 4% of dt) and by float64 spacing at |t| (8 ulp). A step that
@@ -59,6 +63,7 @@ export function parseStrainText(text: string, file: string, options: StrainOpenO
   if (lines.length > 0 && lines[0].charCodeAt(0) === 0xfeff) lines[0] = lines[0].slice(1);
   let columns = 0;
   let firstDataLine = 0;
+  let header: { line: number; names: number } | undefined;
   let label: string | undefined;
   let units: string | undefined;
   const times: number[] = [];
@@ -79,7 +84,19 @@ export function parseStrainText(text: string, file: string, options: StrainOpenO
     if (line === "") continue;
     const lineNo = li + 1;
     const fields = splitFields(line);
+    if (columns === 0 && header === undefined && fields.every((f) => parseField(f) === undefined && COLUMN_NAME.test(f))) {
+      if (fields.length > 2) {
+        throw new InputError(`${file}: line ${lineNo}: header names ${fields.length} columns; expected 1 (strain) or 2 (time, strain)`);
+      }
+      header = { line: lineNo, names: fields.length };
+      continue;
+    }
     if (columns === 0) {
+      if (header !== undefined && fields.length !== header.names) {
+        throw new InputError(
+          `${file}: line ${lineNo}: ${fields.length} column${fields.length === 1 ? "" : "s"} of data, but the header on line ${header.line} names ${header.names}`,
+        );
+      }
       if (fields.length > 2) {
         throw new InputError(`${file}: line ${lineNo}: expected 1 column (strain) or 2 columns (time, strain), got ${fields.length}`);
       }
