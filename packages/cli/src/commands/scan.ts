@@ -109,7 +109,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
   const format = chooseCandidateFormat(flags);
   // A shard creates its output directory itself (every task of a job array may race to do so).
   if (flags.out && !flags.shard) checkOutputFile("--out", flags.out, [...strainInputPaths(files), ...(flags.bank ? [flags.bank] : []), ...(flags.sites ? [flags.sites] : [])]);
@@ -124,7 +124,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
 
   const psd: PsdSource = flags.noiseCurve
     ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
-    : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
+    : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
   const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
   const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
@@ -135,7 +135,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   for (const f of files) {
     sources.push(await openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }));
   }
-  const searchOptions = { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend, skipNonFinite: !!flags.skipBadData };
+  const searchOptions = { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend, skipNonFinite: !!flags.skipBadData };
   const run = shard || flags.resume
     ? await startScanRun({
         version: VERSION, inputs: sources, options: searchOptions, shard,
@@ -193,7 +193,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     minSnr: snrThreshold,
     chi2Allowance,
     fmin: fMinHz,
-    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psdSegmentSeconds}s`,
+    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${welchSegmentSeconds}s`,
     fftBackend,
     threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
@@ -214,7 +214,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
           endTime: src.startTime + src.length / src.sampleRate,
         };
       }),
-      { ...coincidenceOptions, clusterWindowSeconds },
+      { ...coincidenceOptions, loudestWithinSeconds },
     );
     summary.sites = network.map((s) => ({ name: s.name, file: s.file }));
     summary.coincidences = result.coincidences.length;
@@ -233,7 +233,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     mkdirSync(flags.plot, { recursive: true });
     const { writeScanPlots } = await import("../scanPlots.js");
     await writeScanPlots(flags.plot, sources.length ? files : [], candidates, {
-      templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
+      templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
       open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: flags.skipBadData ? "allow" : "error" }),
     });
   }

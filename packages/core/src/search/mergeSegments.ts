@@ -8,7 +8,7 @@ export interface RunLayout {
   /** Per input file, in the run's order: its name (as candidates carry it), segment count and sample rate. */
   readonly inputs: readonly { readonly file: string; readonly segments: number; readonly sampleRate: number }[];
   readonly templateCount: number;
-  readonly clusterWindowSeconds: number;
+  readonly loudestWithinSeconds: number;
 }
 
 /** The result of a run put together from segment records: what an unsharded run returns. */
@@ -45,7 +45,7 @@ interface Peak {
  */
 export function mergeSegmentRecords(layout: RunLayout, records: Iterable<SegmentRecord>): MergedScan {
   const T = layout.templateCount;
-  const w = layout.clusterWindowSeconds;
+  const w = layout.loudestWithinSeconds;
   const bySegment = new Map<string, SegmentRecord[]>();
   for (const r of records) {
     const key = `${r.input}:${r.segment}`;
