@@ -65,7 +65,7 @@ function searchOptions(templates, extra) {
     fMinHz: F_MIN,
     snrThreshold: 6,
     chi2Bins: 16,
-    clusterWindowSeconds: 1,
+    loudestWithinSeconds: 1,
     psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
     ...extra,
   };

@@ -4,7 +4,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { ajith2011, buildBank, formatBankFile, parseBankFile, readBankFile, writeBankFile } from "@chirpsieve/core";
 
-const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011, maxMassRatio: 2 });
+const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011, massRatioCap: 2 });
 /** A template with unequal masses (swapping its masses makes it invalid). */
 const unequal = bank.templates.findIndex((t) => t.primaryMass > t.secondaryMass * 1.01);
 bank.generator = { tool: "chirpsieve", version: "0.0.0-test", arguments: ["bank", "--mass-range", "8:20"] };
@@ -17,7 +17,7 @@ describe("bank files", () => {
     const back = readBankFile(path);
     expect(back).toEqual(bank);
     const json = JSON.parse(readFileSync(path, "utf8"));
-    expect(Object.keys(json)).toEqual(["fmin", "matchFloor", "noiseCurve", "massRange", "maxMassRatio", "generator", "templates"]);
+    expect(Object.keys(json)).toEqual(["fmin", "matchFloor", "noiseCurve", "massRange", "massRatioCap", "generator", "templates"]);
     expect(Object.keys(json.templates[0])).toEqual(["primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"]);
   });
 

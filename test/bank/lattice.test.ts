@@ -58,7 +58,7 @@ describe("hexagonal lattice placement", () => {
   });
 
   it("keeps every template inside the mass limits, sorted by chirp mass", () => {
-    const bank = buildBank({ ...options, massRangeSolar: [5, 30], fminHz: 20, maxMassRatio: 4, maxTotalMassSolar: 40 });
+    const bank = buildBank({ ...options, massRangeSolar: [5, 30], fminHz: 20, massRatioCap: 4, totalMassCapSolar: 40 });
     for (const t of bank.templates) {
       expect(t.secondaryMass).toBeGreaterThanOrEqual(5 * (1 - 1e-6));
       expect(t.primaryMass).toBeLessThanOrEqual(30 * (1 + 1e-6));
@@ -142,9 +142,9 @@ describe("hexagonal lattice placement", () => {
     expect(() => buildBank({ ...options, matchFloor: 1 })).toThrow(/matchFloor/);
     expect(() => buildBank({ ...options, massRangeSolar: [1, 3], fminHz: 800 })).toThrow(/ISCO/);
     expect(() => buildBank({ ...options, fminHz: 5 })).toThrow(/lowest frequency/);
-    expect(() => buildBank({ ...options, maxMassRatio: 1 })).toThrow(/maxMassRatio/);
+    expect(() => buildBank({ ...options, massRatioCap: 1 })).toThrow(/massRatioCap/);
     // Absurd regions are refused from the count estimate, before any placement work.
     expect(() => buildBank({ ...options, massRangeSolar: [1e-9, 1e-8] })).toThrow(TemplateLimitError);
-    expect(() => buildBank({ ...options, maxTemplates: 10 })).toThrow(/needs about .* templates, more than the limit of 10$/);
+    expect(() => buildBank({ ...options, templateCap: 10 })).toThrow(/needs about .* templates, more than the limit of 10$/);
   });
 });

@@ -37,7 +37,7 @@ describe("bank verification", () => {
   });
 
   it("draws inside the region, uniformly in masses or in chirp times", () => {
-    const region = createMassRegion({ minMassSolar: 1, maxMassSolar: 3, maxMassRatio: 2 }, 30);
+    const region = createMassRegion({ minMassSolar: 1, maxMassSolar: 3, massRatioCap: 2 }, 30);
     for (const space of ["masses", "chirp-times"] as const) {
       const d = drawInRegion(region, 300, space, "draws");
       expect(d).toHaveLength(300);

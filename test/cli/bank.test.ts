@@ -110,9 +110,9 @@ describe("chirpsieve bank", () => {
       [["bank", "verify", broken], /broken\.json: templates\[0\] is missing "secondaryMass"/],
       // Refused from the count estimate before any placement (these would run for minutes or forever).
       [["bank", "--mass-range", "1e-9:1e-8", "--fmin", "30", "--out", out], /--mass-range: .* needs about 3\.2e\+27 templates, more than the limit of 1000000/],
-      [["bank", "sweep", "--mass-range", "1:50", "--fmin", "20", "--match-floor", "0.9999"], /minimal match 0\.9999 needs about .* --max-templates/],
-      [["bank", ...region, "--out", out, "--max-templates", "10"], /needs about .* more than the limit of 10;/],
-      [["bank", ...region, "--out", out, "--max-templates", "0"], /--max-templates: must be at least 1/],
+      [["bank", "sweep", "--mass-range", "1:50", "--fmin", "20", "--match-floor", "0.9999"], /minimal match 0\.9999 needs about .* --template-cap/],
+      [["bank", ...region, "--out", out, "--template-cap", "10"], /needs about .* more than the limit of 10;/],
+      [["bank", ...region, "--out", out, "--template-cap", "0"], /--template-cap: must be at least 1/],
       [["scan", demoStrain, "--mass-range", "0.1:100", "--fmin", "10"], /--mass-range: .* needs about .* templates.*pass --bank/],
     ];
     const results = await runCliAll(cases.map(([args]) => args));

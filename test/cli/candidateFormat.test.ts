@@ -23,4 +23,10 @@ describe("candidate table", () => {
     const text = formatCandidatesTable(many, { minSnr: 7 });
     expect(text.split("\n").filter((l) => l.includes("x.f32")).length).toBe(300_000);
   });
+
+  it("counts segments in the summary line: 1 segment, 3 segments", () => {
+    const summary = { minSnr: 6, analysedSeconds: 10, files: 1, templates: 4, segmentSamples: 8192, sampleRate: 2048, psd: "flat", fftBackend: "fftjs", wallSeconds: 1 };
+    expect(formatCandidatesTable([], { ...summary, segments: 1 })).toContain("(1 segment of 8192 samples");
+    expect(formatCandidatesTable([], { ...summary, segments: 3 })).toContain("(3 segments of 8192 samples");
+  });
 });

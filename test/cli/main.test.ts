@@ -15,4 +15,26 @@ describe("chirpsieve entry point", () => {
     expect(r.stderr).toContain("--no-such-flag");
     expect(r.stderr).not.toMatch(/\bat .*\.js:\d+/);
   });
+
+  it("prints each option's default at most once in every command's help", () => {
+    const commands = [["scan"], ["recover"], ["bank"], ["bank", "verify"], ["bank", "sweep"], ["simulate"], ["psd"], ["source"], ["sites"], ["merge"]];
+    for (const cmd of commands) {
+      const r = runCli([...cmd, "--help"]);
+      expect(r.code, cmd.join(" ")).toBe(0);
+      // One entry per option: a line starting with "  -" and its wrapped continuation lines.
+      for (const entry of r.stdout.split(/\n(?=\s{2}-)/)) {
+        expect((entry.match(/\(default:/g) ?? []).length, `${cmd.join(" ")}: ${entry}`).toBeLessThanOrEqual(1);
+      }
+    }
+  });
+
+  it("names the shared search options and the bank caps as the README does", () => {
+    for (const cmd of ["scan", "recover"]) {
+      const help = runCli([cmd, "--help"]).stdout;
+      for (const flag of ["--loudest-within", "--welch-segment", "--welch-average", "--bank-noise-curve"]) expect(help, `${cmd}: ${flag}`).toContain(flag);
+    }
+    const bank = runCli(["bank", "build", "--help"]).stdout;
+    for (const flag of ["--total-mass-cap", "--mass-ratio-cap", "--template-cap"]) expect(bank).toContain(flag);
+    expect(runCli(["sites", "--help"]).stdout).toContain("armBearingsDegrees");
+  });
 });

@@ -97,9 +97,9 @@ describe("chirpsieve scan", () => {
     it("a malformed mass range", () => expectBad([file, "--mass-range", "3:1", "--quiet"], "--mass-range"));
     it("a missing file", () => expectBad([join(dir, "nope.f32"), ...base], "nope.f32"));
     it("a negative chi-squared allowance", () => expectBad([file, ...base, "--chi2-allowance", "-0.1"], "--chi2-allowance"));
-    it("a PSD segment of a few samples names --psd-segment", () => expectBad([file, ...base, "--psd-segment", "0.0001"], "--psd-segment: 0.0001 s is 0 samples"));
+    it("a PSD segment of a few samples names --welch-segment", () => expectBad([file, ...base, "--welch-segment", "0.0001"], "--welch-segment: 0.0001 s is 0 samples"));
     it("a PSD segment too long for the data says so, not the template", () =>
-      expectBad([file, ...base, "--psd-segment", "1000"], "use a shorter --psd-segment"));
+      expectBad([file, ...base, "--welch-segment", "1000"], "use a shorter --welch-segment"));
 
     it("--out naming an input (the sidecar) is refused and the input is left intact", () => {
       const sidecar = `${file}.json`;

@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import kstest from "@stdlib/stats-kstest";
-import { BUILTIN_SITES, analyseCoincidences, lightTravelTime, type CoincidenceCandidate } from "@chirpsieve/core";
+import { BUILTIN_SITES, analyseCoincidences, interSiteDelay, type CoincidenceCandidate } from "@chirpsieve/core";
 import { poissonTriggers, siteStream } from "./syntheticTriggers.js";
 
 // Synthetic single-site trigger streams stand in for independent Gaussian noise at two sites:
@@ -8,7 +8,7 @@ import { poissonTriggers, siteStream } from "./syntheticTriggers.js";
 // (what clustered matched-filter output of Gaussian noise gives; see syntheticTriggers.ts).
 const [A, B, C3] = BUILTIN_SITES.map((s) => s.detector);
 const TOLERANCE = 0.005;
-const WINDOW = lightTravelTime(A, B) + TOLERANCE;
+const WINDOW = interSiteDelay(A, B) + TOLERANCE;
 const TEMPLATES = 40;
 
 /** Per-template counts of the triggers above `x`. */
@@ -37,11 +37,11 @@ describe("time-slide background of two independent noise streams", () => {
   const opts = { rate: 1, templates: TEMPLATES, threshold: 5.5, startTime: 5e5, seconds };
   const a = poissonTriggers({ ...opts, seed: "bg-site-a" });
   const b = poissonTriggers({ ...opts, seed: "bg-site-b" });
-  // Same template only; 40 templates and a short cluster window keep the share of coincidences
+  // Same template only; 40 templates and a short loudest-within span keep the share of coincidences
   // that clustering merges (two sharing a trigger, or two within 0.1 s) below ≈ 0.5 %.
   const r = analyseCoincidences([siteStream(A, a, 5e5, seconds), siteStream(B, b, 5e5, seconds)], {
     chirpMassTolerance: 0,
-    clusterWindowSeconds: 0.1,
+    loudestWithinSeconds: 0.1,
     timingToleranceSeconds: TOLERANCE,
   });
 
@@ -66,7 +66,7 @@ describe("time-slide background of two independent noise streams", () => {
       const cut = (s: CoincidenceCandidate[]) => s.filter((t) => t.reweightedSnr > x);
       const observed = analyseCoincidences([siteStream(A, cut(a), 5e5, seconds), siteStream(B, cut(b), 5e5, seconds)], {
         chirpMassTolerance: 0,
-        clusterWindowSeconds: 0.1,
+        loudestWithinSeconds: 0.1,
         timingToleranceSeconds: TOLERANCE,
       }).summary.backgroundCoincidences;
       console.log(`background, both members above ${x}: expected ${expected.toFixed(1)}, observed ${observed}`);
@@ -84,7 +84,7 @@ describe("time-slide background of three independent noise streams", () => {
     const streams = dets.map((d) => poissonTriggers({ ...opts, seed: `three-${d.name}` }));
     const r = analyseCoincidences(
       dets.map((d, i) => siteStream(d, streams[i], 0, seconds)),
-      { chirpMassTolerance: 0, clusterWindowSeconds: 0.1, timingToleranceSeconds: TOLERANCE },
+      { chirpMassTolerance: 0, loudestWithinSeconds: 0.1, timingToleranceSeconds: TOLERANCE },
     );
     let perSlide = 0;
     for (let i = 0; i < 3; i++) {
@@ -93,7 +93,7 @@ describe("time-slide background of three independent noise streams", () => {
         const nj = perTemplate(streams[j], 0);
         let s = 0;
         for (let m = 0; m < TEMPLATES; m++) s += ni[m] * nj[m];
-        perSlide += (s * 2 * (lightTravelTime(dets[i], dets[j]) + TOLERANCE)) / seconds;
+        perSlide += (s * 2 * (interSiteDelay(dets[i], dets[j]) + TOLERANCE)) / seconds;
       }
     }
     // Triple coincidences are ~R · 2τ / M ≈ 0.2 % of the pairs (and then replace pairs): ignored.
@@ -122,7 +122,7 @@ describe("false-alarm probabilities under the noise-only hypothesis", () => {
       const b = poissonTriggers({ ...opts, seed: `fap-b-${trial}` });
       const r = analyseCoincidences([siteStream(A, a, 0, 400), siteStream(B, b, 0, 400)], {
         chirpMassTolerance: 0,
-        clusterWindowSeconds: 0.1,
+        loudestWithinSeconds: 0.1,
         slideStepSeconds: 2,
         slidesPerSide: 50,
       });

@@ -4,7 +4,7 @@ import {
   InputError,
   JULIAN_YEAR,
   analyseCoincidences,
-  lightTravelTime,
+  interSiteDelay,
   type CoincidenceCandidate,
 } from "@chirpsieve/core";
 import { poissonTriggers, siteStream, templateChirpMass } from "./syntheticTriggers.js";
@@ -18,7 +18,7 @@ function trig(t: number, rho: number, template = 3, chirpMass = templateChirpMas
 
 describe("forming coincidences", () => {
   it("pairs triggers within light-travel time + tolerance and the same template, ranked by the quadrature sum", () => {
-    const ltt = lightTravelTime(A, B);
+    const ltt = interSiteDelay(A, B);
     const r = analyseCoincidences([
       siteStream(A, [trig(100, 8), trig(300, 7), trig(500, 9)], 0, SPAN),
       siteStream(B, [trig(100 + ltt + 0.004, 6), trig(300 + ltt + 0.006, 7), trig(500.01, 9, 4)], 0, SPAN),
@@ -59,7 +59,7 @@ describe("forming coincidences", () => {
         siteStream(C3, [trig(199.99, 5.5), trig(600, 7)], 0, SPAN),
         // (no site-b or site-a partner for site-c at 600 s)
       ],
-      { clusterWindowSeconds: 0.5 },
+      { loudestWithinSeconds: 0.5 },
     );
     expect(r.coincidences.length).toBe(1);
     const c = r.coincidences[0];
@@ -68,7 +68,7 @@ describe("forming coincidences", () => {
     expect(c.rankingStatistic).toBeCloseTo(Math.hypot(7, 6.5, 5.5), 12);
     // The other site-b trigger and the lone site-c one are singles.
     expect(r.singles.map((s) => s.site)).toEqual(["site-b", "site-c"]);
-    expect(r.summary.lightTravelTimes.length).toBe(3);
+    expect(r.summary.interSiteDelays.length).toBe(3);
     expect(r.summary.slidesPerSide).toBe(Math.min(100, Math.floor((SPAN - 7) / (4 * 7))));
   });
 

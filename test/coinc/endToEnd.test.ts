@@ -6,7 +6,7 @@ import {
   arraySource,
   chirpMass,
   colouredNoise,
-  lightTravelTime,
+  interSiteDelay,
   loadFftBackends,
   searchSource,
   type SearchOptions,
@@ -32,7 +32,7 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
       fMinHz: 30,
       snrThreshold: 4,
       chi2Bins: 4,
-      clusterWindowSeconds: 0.1,
+      loudestWithinSeconds: 0.1,
       psd: { kind: "model", model: ajith2011 },
       fftBackend: "pffft",
     };
@@ -57,7 +57,7 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
     // Noise only: the foreground count is a Poisson draw with the background's mean per slide (4σ).
     const perSlide = r.summary.backgroundCoincidences / r.summary.slides;
     expect(Math.abs(r.coincidences.length - perSlide)).toBeLessThan(4 * Math.sqrt(perSlide) + 1);
-    const window = lightTravelTime(A, B) + 0.005;
+    const window = interSiteDelay(A, B) + 0.005;
     for (const c of r.coincidences) {
       expect(c.falseAlarmProbability).toBeGreaterThan(0);
       expect(c.falseAlarmProbability).toBeLessThanOrEqual(1);

@@ -9,21 +9,21 @@ import {
   InputError,
   SITE_A,
   SITE_B,
-  antennaPattern,
   detectorFromGeodetic,
+  geocentreDelay,
   injectionAtSites,
-  lightTravelTime,
-  pairwiseLightTravelTimes,
+  interSiteDelay,
+  interSiteDelays,
   parseSites,
   readSitesFile,
   siderealAngle,
   siteByName,
+  plusCrossResponse,
   siteCatalogue,
-  timeDelayFromEarthCenter,
   type Injection,
 } from "@chirpsieve/core";
 
-const GOOD = { name: "my-site", latitude: 10, longitude: 20, xArmAzimuth: 0, yArmAzimuth: 90 };
+const GOOD = { name: "my-site", degreesNorth: 10, degreesEast: 20, armBearingsDegrees: [0, 90] };
 
 function errorOf(text: string): string {
   try {
@@ -55,36 +55,38 @@ describe("light-travel time", () => {
     const [a, b, c] = BUILTIN_SITES.map((s) => s.detector);
     const direct = (p: typeof a, q: typeof a) =>
       Math.sqrt((p.vertex[0] - q.vertex[0]) ** 2 + (p.vertex[1] - q.vertex[1]) ** 2 + (p.vertex[2] - q.vertex[2]) ** 2) / C;
-    expect(lightTravelTime(a, b)).toBeCloseTo(direct(a, b), 15);
-    expect(lightTravelTime(b, a)).toBe(lightTravelTime(a, b));
-    expect(lightTravelTime(a, a)).toBe(0);
-    const pairs = pairwiseLightTravelTimes([a, b, c]);
+    expect(interSiteDelay(a, b)).toBeCloseTo(direct(a, b), 15);
+    expect(interSiteDelay(b, a)).toBe(interSiteDelay(a, b));
+    expect(interSiteDelay(a, a)).toBe(0);
+    const pairs = interSiteDelays([a, b, c]);
     expect(pairs.map((p) => p.sites)).toEqual([["site-a", "site-b"], ["site-a", "site-c"], ["site-b", "site-c"]]);
-    expect(pairs[2].seconds).toBe(lightTravelTime(b, c));
+    expect(pairs[2].seconds).toBe(interSiteDelay(b, c));
     // Spherical-Earth cross-check (R = 6371 km; chord 2R sin(θ/2) from the great-circle angle θ;
     // common practice, no source): within 0.5 % of the WGS-84 value.
     const deg = Math.PI / 180;
     const cosTheta = Math.sin(52 * deg) * Math.sin(-20 * deg) + Math.cos(52 * deg) * Math.cos(-20 * deg) * Math.cos(190 * deg);
     const chord = 2 * 6_371_000 * Math.sin(Math.acos(cosTheta) / 2);
-    expect(lightTravelTime(a, b) / (chord / C)).toBeCloseTo(1, 2);
+    expect(interSiteDelay(a, b) / (chord / C)).toBeCloseTo(1, 2);
   });
 
   it("bounds the arrival-time difference of the antenna module's plane-wave delays, with equality along the baseline", () => {
     const a = SITE_A;
     const b = SITE_B;
-    const ltt = lightTravelTime(a, b);
+    const ltt = interSiteDelay(a, b);
     const rng = seedrandom("sky");
     for (let i = 0; i < 500; i++) {
       const ra = 2 * Math.PI * rng();
       const dec = Math.asin(2 * rng() - 1);
       const g = 2 * Math.PI * rng();
-      const dt = timeDelayFromEarthCenter(a, ra, dec, g) - timeDelayFromEarthCenter(b, ra, dec, g);
+      const sky = { rightAscension: ra, declination: dec };
+      const dt = geocentreDelay(a, sky, g) - geocentreDelay(b, sky, g);
       expect(Math.abs(dt)).toBeLessThanOrEqual(ltt * (1 + 1e-12));
     }
     // A source in the direction of r_a − r_b (at sidereal angle 0) reaches site-a first by exactly |r_a − r_b| / c.
     const d = [0, 1, 2].map((i) => a.vertex[i] - b.vertex[i]);
     const norm = Math.hypot(d[0], d[1], d[2]);
-    const dt = timeDelayFromEarthCenter(a, Math.atan2(d[1], d[0]), Math.asin(d[2] / norm), 0) - timeDelayFromEarthCenter(b, Math.atan2(d[1], d[0]), Math.asin(d[2] / norm), 0);
+    const baseline = { rightAscension: Math.atan2(d[1], d[0]), declination: Math.asin(d[2] / norm) };
+    const dt = geocentreDelay(a, baseline, 0) - geocentreDelay(b, baseline, 0);
     expect(dt).toBeCloseTo(-ltt, 12);
   });
 });
@@ -99,30 +101,30 @@ describe("injectionAtSites", () => {
     const out = injectionAtSites(inj, dets);
     const g = siderealAngle(inj.coalescenceTime);
     out.forEach((r, i) => {
-      const f = antennaPattern(dets[i], inj.rightAscension, inj.declination, inj.polarization, g);
+      const f = plusCrossResponse(dets[i], inj, inj.polarization, g);
       expect(r.site).toBe(dets[i].name);
       expect(r.plus).toBe(f.plus);
       expect(r.cross).toBe(f.cross);
-      expect(r.delaySeconds).toBe(timeDelayFromEarthCenter(dets[i], inj.rightAscension, inj.declination, g));
+      expect(r.delaySeconds).toBe(geocentreDelay(dets[i], inj, g));
       expect(r.arrivalTime).toBe(inj.coalescenceTime + r.delaySeconds);
       expect(r.relativeAmplitude).toBeGreaterThanOrEqual(0);
       expect(r.relativeAmplitude).toBeLessThanOrEqual(1);
     });
-    expect(Math.abs(out[0].arrivalTime - out[1].arrivalTime)).toBeLessThanOrEqual(lightTravelTime(dets[0], dets[1]));
+    expect(Math.abs(out[0].arrivalTime - out[1].arrivalTime)).toBeLessThanOrEqual(interSiteDelay(dets[0], dets[1]));
   });
 });
 
 describe("sites files", () => {
-  it("parses user sites (elevation optional) and appends them to the built-in ones", () => {
+  it("parses user sites (height optional) and appends them to the built-in ones", () => {
     const [s] = parseSites(JSON.stringify([GOOD]), "sites.json");
-    expect(s).toMatchObject({ name: "my-site", latitudeDeg: 10, longitudeDeg: 20, elevationM: 0, origin: "sites.json" });
+    expect(s).toMatchObject({ name: "my-site", degreesNorth: 10, degreesEast: 20, heightMetres: 0, armBearingsDegrees: [0, 90], origin: "sites.json" });
     expect(s.detector.name).toBe("my-site");
     const dot = s.detector.armX[0] * s.detector.armY[0] + s.detector.armX[1] * s.detector.armY[1] + s.detector.armX[2] * s.detector.armY[2];
     expect(dot).toBeCloseTo(0, 14);
     const dir = mkdtempSync(join(tmpdir(), "chirpsieve-sites-"));
     const file = join(dir, "sites.json");
-    writeFileSync(file, JSON.stringify([GOOD, { ...GOOD, name: "high", elevation: 2500, description: "synthetic" }]));
-    expect(readSitesFile(file).map((x) => x.elevationM)).toEqual([0, 2500]);
+    writeFileSync(file, JSON.stringify([GOOD, { ...GOOD, name: "high", heightMetres: 2500, description: "synthetic" }]));
+    expect(readSitesFile(file).map((x) => x.heightMetres)).toEqual([0, 2500]);
     expect(siteCatalogue(file).map((x) => x.name)).toEqual(["site-a", "site-b", "site-c", "my-site", "high"]);
     expect(siteCatalogue().length).toBe(3);
   });
@@ -132,21 +134,25 @@ describe("sites files", () => {
     expect(errorOf("{}")).toMatch(/^sites\.json: expected a JSON array of sites/);
     expect(errorOf("[]")).toBe("sites.json: the array lists no sites");
     expect(errorOf("[3]")).toMatch(/^sites\.json: entry 0: must be an object/);
-    expect(errorOf(JSON.stringify([GOOD, { ...GOOD, name: "x", latitude: 95 }]))).toBe(
-      "sites.json: entry 1: latitude must be a number in [-90, 90] degrees (got 95)",
+    expect(errorOf(JSON.stringify([GOOD, { ...GOOD, name: "x", degreesNorth: 95 }]))).toBe(
+      "sites.json: entry 1: degreesNorth must be a number in [-90, 90] degrees (got 95)",
     );
-    const { longitude: _l, ...noLon } = GOOD;
-    expect(errorOf(JSON.stringify([noLon]))).toBe("sites.json: entry 0: longitude must be a number in [-180, 360] degrees (got nothing)");
-    expect(errorOf(JSON.stringify([{ ...GOOD, xArmAzimuth: "north" }]))).toBe(
-      'sites.json: entry 0: xArmAzimuth must be a number in [-360, 360] degrees (got "north")',
+    const { degreesEast: _e, ...noEast } = GOOD;
+    expect(errorOf(JSON.stringify([noEast]))).toBe("sites.json: entry 0: degreesEast must be a number in [-180, 360] degrees (got nothing)");
+    expect(errorOf(JSON.stringify([{ ...GOOD, armBearingsDegrees: ["north", 90] }]))).toBe(
+      'sites.json: entry 0: armBearingsDegrees[0] must be a number in [-360, 360] degrees (got "north")',
     );
-    expect(errorOf(JSON.stringify([{ ...GOOD, elevation: 1e6 }]))).toMatch(/entry 0: elevation must be a number in \[-11000, 10000\] metres/);
-    expect(errorOf(JSON.stringify([{ ...GOOD, lat: 3 }]))).toMatch(/entry 0: unknown field "lat"/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, armBearingsDegrees: [0] }]))).toBe(
+      "sites.json: entry 0: armBearingsDegrees must be an array of two bearings in degrees, [first, second] (got [0])",
+    );
+    expect(errorOf(JSON.stringify([{ ...GOOD, armBearingsDegrees: 45 }]))).toMatch(/entry 0: armBearingsDegrees must be an array of two bearings/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, heightMetres: 1e6 }]))).toMatch(/entry 0: heightMetres must be a number in \[-11000, 10000\] metres/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, north: 3 }]))).toMatch(/entry 0: unknown field "north"/);
     expect(errorOf(JSON.stringify([{ ...GOOD, name: "" }]))).toMatch(/entry 0: name must be a non-empty string/);
     expect(errorOf(JSON.stringify([{ ...GOOD, name: "a=b" }]))).toMatch(/entry 0: name must be/);
     expect(errorOf(JSON.stringify([{ ...GOOD, name: "site-a" }]))).toBe('sites.json: entry 0: name "site-a" is already used by the built-in site');
     expect(errorOf(JSON.stringify([GOOD, GOOD]))).toBe('sites.json: entry 1: name "my-site" is already used by entry 0');
-    expect(errorOf(JSON.stringify([{ ...GOOD, xArmAzimuth: 10, yArmAzimuth: 190 }]))).toMatch(/entry 0: xArmAzimuth and yArmAzimuth must not point along one line/);
+    expect(errorOf(JSON.stringify([{ ...GOOD, armBearingsDegrees: [10, 190] }]))).toMatch(/entry 0: armBearingsDegrees must not point along one line/);
     expect(errorOf(JSON.stringify([{ ...GOOD, description: 5 }]))).toMatch(/entry 0: description must be a string/);
   });
 });

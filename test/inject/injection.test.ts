@@ -4,13 +4,13 @@ import {
   InputError,
   SITE_A,
   addSegment,
-  antennaPattern,
   checkInjection,
+  geocentreDelay,
   injectInto,
+  plusCrossResponse,
   projectInjection,
   siderealAngle,
   taylorT4,
-  timeDelayFromEarthCenter,
 } from "@chirpsieve/core";
 
 const base: Injection = {
@@ -61,8 +61,8 @@ describe("projectInjection / injectInto", () => {
     const start = 1_000_000_000;
     const seg = projectInjection(base, SITE_A, { sampleRate: fs, gridStartTime: start, fMinHz: 30 });
     const gmst = siderealAngle(base.coalescenceTime);
-    const f = antennaPattern(SITE_A, base.rightAscension, base.declination, base.polarization, gmst);
-    const delay = timeDelayFromEarthCenter(SITE_A, base.rightAscension, base.declination, gmst);
+    const f = plusCrossResponse(SITE_A, base, base.polarization, gmst);
+    const delay = geocentreDelay(SITE_A, base, gmst);
     const wf = taylorT4({
       massSolar1: 10,
       massSolar2: 8,

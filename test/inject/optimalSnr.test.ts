@@ -16,11 +16,11 @@ import {
 
 // A detector with x arm East and y arm North at (0°, 0°): a source at RA = GMST, dec = 0 is overhead,
 // where F+ = cos 2ψ (our convention), so ψ = 0 gives the optimal orientation.
-const equator = detectorFromGeodetic({ name: "eq", latitudeDeg: 0, longitudeDeg: 0, xArmAzimuthDeg: 90, yArmAzimuthDeg: 0 });
+const equator = detectorFromGeodetic({ name: "eq", degreesNorth: 0, degreesEast: 0, armBearingsDegrees: [90, 0] });
 const overhead: Injection = {
   primaryMass: 1.4,
   secondaryMass: 1.4,
-  coalescenceTime: 0, // sidereal angle 0, so RA 0 is overhead of longitude 0
+  coalescenceTime: 0, // sidereal angle 0, so RA 0 is overhead of 0° east
   distance: 500,
   inclination: 0,
   rightAscension: 0,

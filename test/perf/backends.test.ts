@@ -21,7 +21,7 @@ describe("FFT backends agree on the search output", () => {
         fMinHz: FMIN,
         snrThreshold: 6,
         chi2Bins: 16,
-        clusterWindowSeconds: 1,
+        loudestWithinSeconds: 1,
         psd: psd === "model" ? { kind: "model", model: ajith2011 } : { kind: "estimate", segmentSeconds: 4, average: "median" },
         threads: 1,
       };

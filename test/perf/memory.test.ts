@@ -57,7 +57,7 @@ const options: SearchOptions = {
   fMinHz: 40,
   snrThreshold: 6,
   chi2Bins: 16,
-  clusterWindowSeconds: 1,
+  loudestWithinSeconds: 1,
   psd: { kind: "model", model: flatPsd() },
   fftBackend: "pffft",
   threads: 1,

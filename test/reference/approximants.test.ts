@@ -19,7 +19,7 @@ async function overlap(m1: number, m2: number, fMin: number): Promise<number> {
     fMinHz: fMin,
     snrThreshold: 1,
     chi2Bins: 0,
-    clusterWindowSeconds: 1,
+    loudestWithinSeconds: 1,
     psd: { kind: "model", model: ajith2011 },
   });
   const best = candidates.reduce((a, b) => (b.snr > a.snr ? b : a));

@@ -1,10 +1,10 @@
-import { spawnSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { REPORT_PLOTS, renderCampaignReport } from "../../packages/cli/src/report.js";
 import type { CampaignDocument } from "../../packages/cli/src/reportData.js";
+import { checkInChromium, consoleErrors, contrastRatio, findChromium, relativeLuminance, requireChromiumUnderCi } from "./chromium.js";
 import { smallCampaignDocument } from "./reportFixture.js";
 
 const dir = mkdtempSync(join(tmpdir(), "chirpsieve-report-"));
@@ -37,25 +37,8 @@ describe("campaign HTML report (static checks)", () => {
   });
 });
 
-/** Chromium from Debian (`apt-get install chromium`), if present. */
-function findChromium(): string | null {
-  for (const name of ["chromium", "chromium-browser"]) {
-    const r = spawnSync(name, ["--version"], { encoding: "utf8" });
-    if (r.status === 0) return name;
-  }
-  return null;
-}
-
 const chromium = findChromium();
-if (!chromium) {
-  if (process.env.CI === "true") {
-    it("needs chromium under CI", () => {
-      throw new Error("chromium is not installed: the CI script must run `apt-get install -y chromium`");
-    });
-  } else {
-    console.warn("report.test.ts: skipping the browser check: chromium not found (install it with `apt-get install chromium`)");
-  }
-}
+requireChromiumUnderCi(chromium, "report.test.ts");
 
 // Appended to a copy of the report (the report itself has no script): after load, records each
 // plot's size and number of drawn elements, and any page error, into the DOM for --dump-dom.
@@ -68,41 +51,32 @@ window.addEventListener("load", () => {
     const box = svg ? svg.getBoundingClientRect() : { width: 0, height: 0 };
     return { name: f.dataset.plot, width: box.width, height: box.height, marks: svg ? svg.querySelectorAll("circle,path,rect,line,text").length : 0 };
   });
+  // The markers of the found-missed plot as the browser paints them.
+  const fm = document.querySelector('figure[data-plot="found-missed"] svg');
+  const marker = (label) => {
+    const g = fm && fm.querySelector('g[aria-description="' + label + '"]');
+    const p = g && g.querySelector("path");
+    if (!p) return null;
+    const cs = getComputedStyle(p);
+    return { fill: cs.fill, stroke: cs.stroke, strokeWidth: parseFloat(cs.strokeWidth), d: p.getAttribute("d"), count: g.querySelectorAll("path").length };
+  };
   const out = document.createElement("pre");
   out.id = "check-result";
-  out.textContent = JSON.stringify({ figs, errors: window.__errors });
+  out.textContent = JSON.stringify({ figs, errors: window.__errors, found: marker("found"), missed: marker("missed") });
   document.body.appendChild(out);
 });
 </script>`;
 
 describe.skipIf(!chromium)("campaign HTML report in headless Chromium", () => {
+  let r: ReturnType<typeof checkInChromium>;
+  beforeAll(() => {
+    r = checkInChromium(chromium!, dir, "report-check.html", html.replace("</body>", `${CHECK}\n</body>`));
+  });
+
   it("renders every plot with a size and drawn marks, and logs no error", () => {
-    const page = join(dir, "report-check.html");
-    writeFileSync(page, html.replace("</body>", `${CHECK}\n</body>`));
-    const r = spawnSync(
-      chromium!,
-      [
-        "--headless",
-        "--no-sandbox",
-        "--disable-gpu",
-        "--disable-quic",
-        "--no-first-run",
-        "--disable-background-networking",
-        "--disable-component-update",
-        "--disable-sync",
-        `--user-data-dir=${join(dir, "profile")}`,
-        "--enable-logging=stderr",
-        "--v=0",
-        "--virtual-time-budget=5000",
-        "--dump-dom",
-        `file://${page}`,
-      ],
-      { encoding: "utf8", timeout: 60_000 },
-    );
     expect(r.status, r.stderr).toBe(0);
-    const m = /<pre id="check-result">([^<]*)<\/pre>/.exec(r.stdout);
-    expect(m, "the check script did not run").not.toBeNull();
-    const result = JSON.parse(m![1].replace(/&quot;/g, '"').replace(/&amp;/g, "&")) as {
+    expect(r.result, "the check script did not run").not.toBeNull();
+    const result = r.result as {
       figs: { name: string; width: number; height: number; marks: number }[];
       errors: string[];
     };
@@ -114,7 +88,28 @@ describe.skipIf(!chromium)("campaign HTML report in headless Chromium", () => {
       expect(f.marks, f.name).toBeGreaterThan(10);
     }
     // Console errors from the page (Chromium logs them as CONSOLE lines on stderr).
-    const consoleErrors = r.stderr.split("\n").filter((l) => /CONSOLE/.test(l) && /error/i.test(l));
-    expect(consoleErrors).toEqual([]);
+    expect(consoleErrors(r.stderr)).toEqual([]);
+  });
+
+  it("paints found and missed injections so that they differ in greyscale and in shape", () => {
+    expect(r.status, r.stderr).toBe(0);
+    type Marker = { fill: string; stroke: string; strokeWidth: number; d: string; count: number } | null;
+    const { found, missed } = r.result as { found: Marker; missed: Marker };
+    expect(found, "no found marker drawn").not.toBeNull();
+    expect(missed, "no missed marker drawn").not.toBeNull();
+    expect(found!.count).toBe(doc.summary.found);
+    expect(missed!.count).toBe(doc.summary.missed);
+    // Found: a filled shape; missed: an outline only, of another shape.
+    expect(found!.fill).toMatch(/^rgb/);
+    expect(missed!.fill).toBe("none");
+    expect(missed!.stroke).toMatch(/^rgb/);
+    expect(missed!.strokeWidth).toBeGreaterThanOrEqual(1.5);
+    expect(missed!.d).not.toBe(found!.d);
+    // In greyscale only the luminance of the painted colour is left. WCAG 2.1 success criterion
+    // 1.4.11 (W3C, 2018) asks graphical objects that carry meaning for a 3:1 contrast ratio; the two
+    // markers must reach it against each other.
+    const lFound = relativeLuminance(found!.fill);
+    const lMissed = relativeLuminance(missed!.stroke);
+    expect(contrastRatio(lFound, lMissed)).toBeGreaterThanOrEqual(3);
   });
 });

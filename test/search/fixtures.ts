@@ -2,12 +2,12 @@
 import {
   SITE_A,
   createComplexFft,
+  geocentreDelay,
   taylorF2Into,
   colouredNoise,
   injectInto,
   optimalSnr,
   siderealAngle,
-  timeDelayFromEarthCenter,
   type Injection,
   type PsdModel,
   type SearchOptions,
@@ -38,7 +38,7 @@ export function atSnr(inj: Injection, snr: number, psd: PsdModel, fs: number, fM
 
 /** When the injected signal reaches its ISCO at SITE_A (Earth-centre time plus the plane-wave delay). */
 export function arrivalTime(inj: Injection): number {
-  return inj.coalescenceTime + timeDelayFromEarthCenter(SITE_A, inj.rightAscension, inj.declination, siderealAngle(inj.coalescenceTime));
+  return inj.coalescenceTime + geocentreDelay(SITE_A, inj, siderealAngle(inj.coalescenceTime));
 }
 
 /** Seeded coloured noise (or none) plus the injections projected on SITE_A. */
@@ -102,7 +102,7 @@ export function taylorF2Chirp(m1: number, m2: number, t0: number, n: number, fs:
 }
 
 /**
- * The search settings most tests use: 16 chi-squared bands, a 1 s cluster window, a median Welch
+ * The search settings most tests use: 16 chi-squared bands, the loudest peak kept within ± 1 s, a median Welch
  * PSD from 4 s segments and the SIMD FFT (call loadFftBackends() first).
  */
 export function standardSearch(templates: SearchTemplate[], fMinHz: number, snrThreshold: number): SearchOptions {
@@ -111,7 +111,7 @@ export function standardSearch(templates: SearchTemplate[], fMinHz: number, snrT
     fMinHz,
     snrThreshold,
     chi2Bins: 16,
-    clusterWindowSeconds: 1,
+    loudestWithinSeconds: 1,
     psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
     fftBackend: "pffft",
   };

@@ -9,7 +9,7 @@ import { tempDir } from "./fixtures.js";
 
 const dir = tempDir("shard-cli");
 const strain = join(dir, "synthetic.f64");
-const SCAN = ["scan", strain, "--mass-range", "8:12", "--fmin", "40", "--min-snr", "5", "--cluster-window", "0.4", "--psd-segment", "2", "--segment", "8", "--quiet"];
+const SCAN = ["scan", strain, "--mass-range", "8:12", "--fmin", "40", "--min-snr", "5", "--loudest-within", "0.4", "--welch-segment", "2", "--segment", "8", "--quiet"];
 /** The scan CLI has the flags only once the lead has wired them in (see issue 9's report). */
 const wired = runCli(["scan", "--help"]).stdout.includes("--shard");
 // Skipped until wired; under CI=true the missing flag fails instead.

@@ -11,7 +11,7 @@ import { tempDir } from "./fixtures.js";
 const dir = tempDir("resume-cli");
 const strain = join(dir, "synthetic.f64");
 // fft.js keeps each segment slow enough (tens of ms) that the kill surely lands midway.
-const SCAN = ["scan", strain, "--mass-range", "6:12", "--fmin", "40", "--min-snr", "5", "--cluster-window", "0.4", "--psd-segment", "2", "--segment", "8", "--fft", "fftjs", "--quiet"];
+const SCAN = ["scan", strain, "--mass-range", "6:12", "--fmin", "40", "--min-snr", "5", "--loudest-within", "0.4", "--welch-segment", "2", "--segment", "8", "--fft", "fftjs", "--quiet"];
 const wired = runCli(["scan", "--help"]).stdout.includes("--resume");
 // Skipped until wired; under CI=true the missing flag fails instead.
 const CI = process.env.CI === "true";

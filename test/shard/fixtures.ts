@@ -30,7 +30,7 @@ export function runOptions(extra: Partial<SearchOptions> = {}): SearchOptions {
     fMinHz: FMIN,
     snrThreshold: 4.6,
     chi2Bins: 8,
-    clusterWindowSeconds: 0.4,
+    loudestWithinSeconds: 0.4,
     psd: { kind: "estimate", segmentSeconds: 2, average: "median" },
     truncationSeconds: 1,
     segmentSeconds: 8,

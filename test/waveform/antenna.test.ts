@@ -5,11 +5,11 @@ import {
   InputError,
   SITE_A,
   SITE_B,
-  antennaPattern,
   detectorByName,
   detectorFromGeodetic,
+  geocentreDelay,
+  plusCrossResponse,
   siderealAngle,
-  timeDelayFromEarthCenter,
 } from "@chirpsieve/core";
 
 const dot = (a: readonly number[], b: readonly number[]): number => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
@@ -32,18 +32,18 @@ describe("detector geometry", () => {
     expect(() => detectorByName("nowhere")).toThrow(/unknown detector "nowhere"/);
   });
 
-  it("rejects a latitude out of range", () => {
-    expect(() => detectorFromGeodetic({ name: "x", latitudeDeg: 95, longitudeDeg: 0, xArmAzimuthDeg: 0, yArmAzimuthDeg: 90 })).toThrow(InputError);
+  it("rejects a position north of the pole", () => {
+    expect(() => detectorFromGeodetic({ name: "x", degreesNorth: 95, degreesEast: 0, armBearingsDegrees: [0, 90] })).toThrow(InputError);
   });
 });
 
-describe("antenna pattern", () => {
+describe("plus/cross response", () => {
   it("gives F+ = cos 2ψ, F× = −sin 2ψ for a source overhead of an East/North detector", () => {
-    // Our sign convention (documented in antennaPattern); |F|² = 1 overhead is common practice, no source.
-    const d = detectorFromGeodetic({ name: "eq", latitudeDeg: 0, longitudeDeg: 0, xArmAzimuthDeg: 90, yArmAzimuthDeg: 0 });
+    // Our sign convention (documented in plusCrossResponse); |F|² = 1 overhead is common practice, no source.
+    const d = detectorFromGeodetic({ name: "eq", degreesNorth: 0, degreesEast: 0, armBearingsDegrees: [90, 0] });
     for (const psi of [0, 0.3, 1.1, 2.5]) {
       const gmst = 1.7;
-      const f = antennaPattern(d, gmst, 0, psi, gmst); // right ascension = GMST + longitude 0, dec = latitude 0
+      const f = plusCrossResponse(d, { rightAscension: gmst, declination: 0 }, psi, gmst); // overhead of 0° N, 0° E
       expect(f.plus).toBeCloseTo(Math.cos(2 * psi), 12);
       expect(f.cross).toBeCloseTo(-Math.sin(2 * psi), 12);
     }
@@ -51,13 +51,13 @@ describe("antenna pattern", () => {
 
   it("has F+² + F×² = 1 for a source at the zenith of any site", () => {
     for (const site of [SITE_A, SITE_B]) {
-      const lat = site === SITE_A ? 52 : -20;
-      const lon = site === SITE_A ? -30 : 160;
+      const north = site === SITE_A ? 52 : -20;
+      const east = site === SITE_A ? -30 : 160;
       const gmst = 0.4;
-      const ra = (lon * Math.PI) / 180 + gmst;
-      const dec = (lat * Math.PI) / 180; // the ellipsoid normal points at declination = geodetic latitude
+      const ra = (east * Math.PI) / 180 + gmst;
+      const dec = (north * Math.PI) / 180; // the ellipsoid normal points at declination = the geodetic angle north
       for (const psi of [0, 0.7]) {
-        const f = antennaPattern(site, ra, dec, psi, gmst);
+        const f = plusCrossResponse(site, { rightAscension: ra, declination: dec }, psi, gmst);
         expect(f.plus ** 2 + f.cross ** 2).toBeCloseTo(1, 12);
       }
     }
@@ -77,7 +77,7 @@ describe("antenna pattern", () => {
       for (let b = 0; b < nRa; b++) {
         const ra = (2 * Math.PI * (b + 0.5)) / nRa;
         for (let c = 0; c < nPsi; c++) {
-          const f = antennaPattern(SITE_A, ra, dec, (Math.PI * (c + 0.5)) / nPsi, 0.9);
+          const f = plusCrossResponse(SITE_A, { rightAscension: ra, declination: dec }, (Math.PI * (c + 0.5)) / nPsi, 0.9);
           sp += f.plus ** 2;
           sx += f.cross ** 2;
           n++;
@@ -90,27 +90,28 @@ describe("antenna pattern", () => {
   });
 
   it("rotates (F+, F×) by 2Δψ when ψ grows: ψ + π/4 maps (F+, F×) to (F×, −F+)", () => {
-    const a = antennaPattern(SITE_B, 1.2, -0.4, 0.3, 2.0);
-    const b = antennaPattern(SITE_B, 1.2, -0.4, 0.3 + Math.PI / 4, 2.0);
+    const sky = { rightAscension: 1.2, declination: -0.4 };
+    const a = plusCrossResponse(SITE_B, sky, 0.3, 2.0);
+    const b = plusCrossResponse(SITE_B, sky, 0.3 + Math.PI / 4, 2.0);
     expect(b.plus).toBeCloseTo(a.cross, 12);
     expect(b.cross).toBeCloseTo(-a.plus, 12);
   });
 });
 
-describe("time delay from the Earth's centre", () => {
+describe("delay from the geocentre", () => {
   it("is −|r|/c overhead, +|r|/c at the nadir and 0 on the horizon plane", () => {
     const gmst = 0.25;
     const r = Math.hypot(...SITE_A.vertex);
     const v = SITE_A.vertex;
     const dec = Math.asin(v[2] / r); // geocentric direction of the vertex
     const ra = Math.atan2(v[1], v[0]) + gmst;
-    expect(timeDelayFromEarthCenter(SITE_A, ra, dec, gmst)).toBeCloseTo(-r / C, 12);
-    expect(timeDelayFromEarthCenter(SITE_A, ra + Math.PI, -dec, gmst)).toBeCloseTo(r / C, 12);
+    expect(geocentreDelay(SITE_A, { rightAscension: ra, declination: dec }, gmst)).toBeCloseTo(-r / C, 12);
+    expect(geocentreDelay(SITE_A, { rightAscension: ra + Math.PI, declination: -dec }, gmst)).toBeCloseTo(r / C, 12);
     // Along an arm (horizontal for the ellipsoid normal, which is 0.19° from the geocentric radius at 52°).
     const arm = SITE_A.armX;
     const armDec = Math.asin(arm[2]);
     const armRa = Math.atan2(arm[1], arm[0]) + gmst;
-    expect(Math.abs(timeDelayFromEarthCenter(SITE_A, armRa, armDec, gmst))).toBeLessThan(5e-3 * (r / C));
+    expect(Math.abs(geocentreDelay(SITE_A, { rightAscension: armRa, declination: armDec }, gmst))).toBeLessThan(5e-3 * (r / C));
   });
 });
 

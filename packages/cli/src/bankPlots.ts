@@ -2,6 +2,7 @@
 import * as Plot from "@observablehq/plot";
 import type { SweepResult, TemplateBank } from "@chirpsieve/core";
 import { renderSvg } from "./plot.js";
+import { INK, POINT_MARK } from "./plotStyle.js";
 
 /** Two scatter plots side by side in one standalone SVG: (τ0, τ3) and (m1, m2). */
 export function renderBankPlot(bank: TemplateBank): string {
@@ -16,7 +17,7 @@ export function renderBankPlot(bank: TemplateBank): string {
     marginBottom: 45,
     x: { label: `τ0 (s) from ${bank.fminHz} Hz`, grid: true },
     y: { label: "τ3 (s)", grid: true },
-    marks: [Plot.dot(pts, { x: "tau0", y: "tau3", r, fill: "steelblue", stroke: "none" })],
+    marks: [Plot.dot(pts, { x: "tau0", y: "tau3", r, fill: INK.main, stroke: "none" })],
   });
   const right = renderSvg({
     width,
@@ -25,7 +26,7 @@ export function renderBankPlot(bank: TemplateBank): string {
     marginBottom: 45,
     x: { label: "primary mass (M_sun)", grid: true },
     y: { label: "secondary mass (M_sun)", grid: true },
-    marks: [Plot.dot(pts, { x: "m1", y: "m2", r, fill: "darkorange", stroke: "none" })],
+    marks: [Plot.dot(pts, { x: "m1", y: "m2", r, fill: INK.main, stroke: "none" })],
   });
   const title = `${bank.templates.length} templates, ${bank.massRangeSolar[0]}–${bank.massRangeSolar[1]} M_sun, minimal match ${bank.matchFloor}, ${bank.noiseCurve} from ${bank.fminHz} Hz`;
   const inner = (svg: string, x: number): string => svg.replace("<svg", `<svg x="${x}" y="24"`);
@@ -56,8 +57,8 @@ export function renderSweepPlot(result: SweepResult, region: { massRangeSolar: [
     x: { label: `expected loss of detection rate 1 − ⟨FF³⟩ (%), ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fminHz} Hz`, grid: true },
     y: { type: "log", label: hasCost ? "estimated CPU hours per hour of data (measured here, scaled)" : "templates", grid: true, tickFormat: "~g" },
     marks: [
-      Plot.line(pts, { x: "loss", y: "y", stroke: "steelblue" }),
-      Plot.dot(pts, { x: "loss", y: "y", fill: "steelblue" }),
+      Plot.line(pts, { x: "loss", y: "y", stroke: INK.main }),
+      Plot.dot(pts, { x: "loss", y: "y", ...POINT_MARK }),
       Plot.text(pts, { x: "loss", y: "y", text: "label", dx: 8, textAnchor: "start", fontSize: 10 }),
     ],
   });

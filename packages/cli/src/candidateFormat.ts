@@ -120,7 +120,7 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
   const ofData = summary.dataSeconds === undefined ? "" : ` of ${Number(summary.dataSeconds).toFixed(1)} s`;
   out.push(
     `searched ${Number(summary.analysedSeconds).toFixed(1)} s${ofData} of data in ${summary.files} file(s) with ${summary.templates} templates ` +
-      `(${summary.segments} segment${summary.segments === 1 ? "" : "s"}${summary.sampleRate === null ? ", per stream below" : ` of ${summary.segmentSamples} samples at ${summary.sampleRate} Hz`}; PSD ${summary.psd}; ` +
+      `(${summary.segments} segment${Number(summary.segments) === 1 ? "" : "s"}${summary.sampleRate === null ? ", per stream below" : ` of ${summary.segmentSamples} samples at ${summary.sampleRate} Hz`}; PSD ${summary.psd}; ` +
       `FFT ${summary.fftBackend}) in ${Number(summary.wallSeconds).toFixed(1)} s`,
   );
   if (summary.leadInSeconds !== undefined) {

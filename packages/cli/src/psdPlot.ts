@@ -2,6 +2,7 @@
 import * as Plot from "@observablehq/plot";
 import type { WelchPsd } from "@chirpsieve/core";
 import { renderSvg } from "./plot.js";
+import { GUIDE_DASH, INK, asdAxis } from "./plotStyle.js";
 
 /** SVG log–log plot of the amplitude spectral density √S(f), with the horizon's fmin marked. */
 export function renderAsdPlot(estimate: WelchPsd, fMinHz: number, file: string): string {
@@ -18,11 +19,11 @@ export function renderAsdPlot(estimate: WelchPsd, fMinHz: number, file: string):
     height: 400,
     marginLeft: 70,
     marginBottom: 45,
-    x: { type: "log", label: `frequency (Hz) — ${label}, Welch ${estimate.average} of ${estimate.segments} segments` },
-    y: { type: "log", label: "amplitude spectral density (1/√Hz)", grid: true, tickFormat: "~e" },
+    x: { type: "log", label: `frequency (Hz) — ${label}, Welch ${estimate.average} of ${estimate.segments} segment${estimate.segments === 1 ? "" : "s"}` },
+    y: asdAxis(),
     marks: [
-      Plot.ruleX([fMinHz], { stroke: "gray", strokeDasharray: "4,4" }),
-      Plot.line(points, { x: "f", y: "asd", stroke: "steelblue" }),
+      Plot.ruleX([fMinHz], { stroke: INK.guide, strokeDasharray: GUIDE_DASH }),
+      Plot.line(points, { x: "f", y: "asd", stroke: INK.main }),
     ],
   });
 }

@@ -3,6 +3,7 @@
 import * as Plot from "@observablehq/plot";
 import { gaussianDetectionProbability } from "@chirpsieve/core";
 import { renderSvg } from "./plot.js";
+import { FOUND_MARK, FOUND_WORDS, GUIDE_DASH, INK, MISSED_MARK, MISSED_WORDS, POINT_MARK } from "./plotStyle.js";
 import type { CampaignDocument } from "./reportData.js";
 
 /** Names of the plots the report always contains (each a <figure data-plot="NAME"> with one <svg>). */
@@ -26,8 +27,6 @@ function figure(name: string, svg: string, caption: string): string {
   return `<figure class="plot" data-plot="${name}">${svg}<figcaption>${esc(caption)}</figcaption></figure>`;
 }
 
-const FOUND = "#1f77b4";
-const MISSED = "#d62728";
 const WIDTH = 640;
 const HEIGHT = 340;
 
@@ -55,10 +54,10 @@ function efficiencyPlot(points: BinPoint[], xLabel: string, extra: Plot.Markish[
     y: { label: "efficiency (found fraction)", domain: [0, 1.05], grid: true },
     marks: [
       ...extra,
-      Plot.ruleX(points, { x: "x", y1: "lo", y2: "hi", stroke: FOUND }),
-      Plot.ruleY(points, { y: "e", x1: "low", x2: "high", stroke: FOUND, strokeOpacity: 0.5 }),
-      Plot.dot(points, { x: "x", y: "e", fill: FOUND, r: 3.5, title: (d: BinPoint) => `${d.n} injections` }),
-      Plot.ruleY([0.5], { stroke: "gray", strokeDasharray: "4 3" }),
+      Plot.ruleX(points, { x: "x", y1: "lo", y2: "hi", stroke: INK.main }),
+      Plot.ruleY(points, { y: "e", x1: "low", x2: "high", stroke: INK.main, strokeOpacity: 0.5 }),
+      Plot.dot(points, { x: "x", y: "e", ...POINT_MARK, title: (d: BinPoint) => `${d.n} injections` }),
+      Plot.ruleY([0.5], { stroke: INK.guide, strokeDasharray: GUIDE_DASH }),
     ],
   });
 }
@@ -84,14 +83,14 @@ export function renderCampaignReport(doc: CampaignDocument): string {
       const rho = lo + ((hi - lo) * i) / 120;
       return { rho, pr: gaussianDetectionProbability(rho, threshold) };
     });
-    extra.push(Plot.line(curve, { x: "rho", y: "pr", stroke: "gray", strokeDasharray: "6 3" }));
-    extra.push(Plot.ruleX([threshold], { stroke: "gray", strokeOpacity: 0.6 }));
+    extra.push(Plot.line(curve, { x: "rho", y: "pr", stroke: INK.guide, strokeDasharray: GUIDE_DASH }));
+    extra.push(Plot.ruleX([threshold], { stroke: INK.guide }));
   }
   figures.push(
     figure(
       "efficiency-snr",
       efficiencyPlot(snrPoints, "optimal SNR", extra),
-      `Efficiency against optimal SNR (dots: found fraction per bin; bars: ${s.interval}). Dashed grey: Gaussian-noise expectation ` +
+      `Efficiency against optimal SNR (diamonds: found fraction per bin; bars: ${s.interval}). Dashed grey: Gaussian-noise expectation ` +
         `Q₁(ρ, ${threshold}) for an exactly matching template at the known time (Marcum Q-function); vertical line: the threshold.` +
         (s.snr50 === null ? "" : ` 50% reached at optimal SNR ≈ ${s.snr50.toFixed(2)}.`),
     ),
@@ -129,16 +128,16 @@ export function renderCampaignReport(doc: CampaignDocument): string {
             marks: [
               Plot.dot(
                 fm.filter((q) => q.found),
-                { x: "d", y: "mc", stroke: FOUND, r: 3, title: (q: { snr: number }) => `found, optimal SNR ${q.snr.toFixed(1)}` },
+                { x: "d", y: "mc", ...FOUND_MARK, ariaDescription: "found", title: (q: { snr: number }) => `found, optimal SNR ${q.snr.toFixed(1)}` },
               ),
               Plot.dot(
                 fm.filter((q) => !q.found),
-                { x: "d", y: "mc", fill: MISSED, symbol: "cross", r: 4, title: (q: { snr: number }) => `missed, optimal SNR ${q.snr.toFixed(1)}` },
+                { x: "d", y: "mc", ...MISSED_MARK, ariaDescription: "missed", title: (q: { snr: number }) => `missed, optimal SNR ${q.snr.toFixed(1)}` },
               ),
             ],
           })
         : noData("no injections"),
-      `Found (blue circles) and missed (red crosses) injections by distance and chirp mass: ${s.found} found, ${s.missed} missed.`,
+      `Found (${FOUND_WORDS}) and missed (${MISSED_WORDS}) injections by distance and chirp mass: ${s.found} found, ${s.missed} missed.`,
     ),
   );
 
@@ -156,8 +155,8 @@ export function renderCampaignReport(doc: CampaignDocument): string {
             x: { label: "optimal SNR", grid: true },
             y: { label: "recovered SNR", grid: true },
             marks: [
-              Plot.line([{ a: 0, b: 0 }, { a: top, b: top }], { x: "a", y: "b", stroke: "gray", strokeDasharray: "4 3" }),
-              Plot.dot(rec, { x: "opt", y: "rec", stroke: FOUND, r: 3 }),
+              Plot.line([{ a: 0, b: 0 }, { a: top, b: top }], { x: "a", y: "b", stroke: INK.guide, strokeDasharray: GUIDE_DASH }),
+              Plot.dot(rec, { x: "opt", y: "rec", ...FOUND_MARK }),
             ],
           })
         : noData("no injection was found"),
@@ -179,7 +178,7 @@ export function renderCampaignReport(doc: CampaignDocument): string {
             marginLeft: 50,
             x: { label: "chirp-mass error (recovered − injected) / injected (%)" },
             y: { label: "injections", grid: true },
-            marks: [Plot.rectY(mcErr, { ...Plot.binX({ y: "count" }, { x: "v" }), fill: FOUND }), Plot.ruleY([0]), Plot.ruleX([0], { stroke: "gray" })],
+            marks: [Plot.rectY(mcErr, { ...Plot.binX({ y: "count" }, { x: "v" }), fill: INK.main }), Plot.ruleY([0]), Plot.ruleX([0], { stroke: INK.guide })],
           })
         : noData("no injection was found"),
       s.chirpMassError
@@ -199,7 +198,7 @@ export function renderCampaignReport(doc: CampaignDocument): string {
             marginLeft: 50,
             x: { label: "coalescence-time error, candidate − injection at the detector (ms)" },
             y: { label: "injections", grid: true },
-            marks: [Plot.rectY(tErr, { ...Plot.binX({ y: "count" }, { x: "v" }), fill: FOUND }), Plot.ruleY([0]), Plot.ruleX([0], { stroke: "gray" })],
+            marks: [Plot.rectY(tErr, { ...Plot.binX({ y: "count" }, { x: "v" }), fill: INK.main }), Plot.ruleY([0]), Plot.ruleX([0], { stroke: INK.guide })],
           })
         : noData("no injection was found"),
       s.timeErrorSeconds
@@ -264,11 +263,11 @@ export function renderCampaignReport(doc: CampaignDocument): string {
 <title>chirpsieve injection-recovery campaign</title>
 <style>
 body { font-family: system-ui, sans-serif; max-width: 980px; margin: 2em auto; padding: 0 1em; color: #222; }
-.notice { border: 2px solid #d62728; background: #fff5f5; padding: 0.8em 1em; border-radius: 4px; }
+.notice { border: 2px solid ${INK.second}; background: #fff8ec; padding: 0.8em 1em; border-radius: 4px; }
 table { border-collapse: collapse; margin: 0.5em 0 1.5em; font-size: 0.92em; }
 th, td { border: 1px solid #ccc; padding: 0.25em 0.6em; text-align: left; vertical-align: top; }
 th { background: #f4f4f4; }
-tr.unmet td { background: #fde8e8; }
+tr.unmet td { background: #fdebcc; }
 figure.plot { margin: 1.5em 0; }
 figcaption { font-size: 0.9em; color: #444; max-width: ${WIDTH}px; }
 </style>

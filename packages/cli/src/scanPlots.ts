@@ -9,6 +9,7 @@ import {
   type SearchOptions,
 } from "@chirpsieve/core";
 import { renderSvg } from "./plot.js";
+import { GUIDE_DASH, INK, asdAxis } from "./plotStyle.js";
 
 /** How many of the loudest candidates get an SNR plot. */
 const PLOTTED = 5;
@@ -43,8 +44,8 @@ export async function writeScanPlots(
         x: { label: `time − ${c.coalescenceTime.toFixed(3)} s` },
         y: { label: "SNR |z|", grid: true },
         marks: [
-          Plot.line(points, { x: "t", y: "snr", stroke: "steelblue" }),
-          Plot.ruleY([options.snrThreshold], { stroke: "gray", strokeDasharray: "4 3" }),
+          Plot.line(points, { x: "t", y: "snr", stroke: INK.main }),
+          Plot.ruleY([options.snrThreshold], { stroke: INK.guide, strokeDasharray: GUIDE_DASH }),
           Plot.text([{ t: 0, snr: c.snr }], { x: "t", y: "snr", text: () => `SNR ${c.snr.toFixed(1)}, Mc ${c.chirpMass.toFixed(3)} M☉ (candidate)`, dy: -8 }),
         ],
       });
@@ -72,18 +73,23 @@ export async function writeScanPlots(
   return written;
 }
 
-function writePsdPlot(dir: string, file: string, frequencies: Float64Array, psd: Float64Array): string {
+/** SVG log–log plot of the amplitude spectral density √S(f) a segment was filtered with. */
+export function renderSegmentAsdPlot(frequencies: Float64Array, psd: Float64Array): string {
   const stride = Math.max(1, Math.floor(frequencies.length / 4000));
   const points: { f: number; asd: number }[] = [];
   for (let i = 0; i < frequencies.length; i += stride) points.push({ f: frequencies[i], asd: Math.sqrt(psd[i]) });
-  const svg = renderSvg({
+  return renderSvg({
     width: 720,
     height: 360,
-    marginLeft: 60,
+    marginLeft: 70,
     x: { type: "log", label: "frequency (Hz)" },
-    y: { type: "log", label: "amplitude spectral density (1/√Hz)", grid: true },
-    marks: [Plot.line(points, { x: "f", y: "asd", stroke: "darkred" })],
+    y: asdAxis(),
+    marks: [Plot.line(points, { x: "f", y: "asd", stroke: INK.main })],
   });
+}
+
+function writePsdPlot(dir: string, file: string, frequencies: Float64Array, psd: Float64Array): string {
+  const svg = renderSegmentAsdPlot(frequencies, psd);
   const base = file.replace(/^.*[\\/]/, "").replace(/[^A-Za-z0-9._-]/g, "_");
   const name = join(dir, `psd-${base}.svg`);
   writeFileAtomic(name, svg);

@@ -17,15 +17,15 @@ import { parseChoiceFlag, parseNumberFlag } from "./options.js";
 export interface SearchFlags {
   bank?: string;
   matchFloor: string;
-  bankNoiseCurve: string;
+  bankNoiseCurve?: string;
   noiseCurve?: string;
   fmin: string;
   minSnr: string;
   chi2Bands: string;
   chi2Allowance: string;
-  clusterWindow: string;
-  psdSegment: string;
-  psdAverage: string;
+  loudestWithin: string;
+  welchSegment: string;
+  welchAverage: string;
   segment?: string;
   fft: string;
   threads?: string;
@@ -42,7 +42,7 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
   return cmd
     .option("--bank <file>", "template bank file written by `chirpsieve bank`")
     .option("--match-floor <mm>", "minimal match of a bank built on the fly over --mass-range", "0.97")
-    .option("--bank-noise-curve <name|file>", "noise curve used to place a bank built on the fly (default: --noise-curve, else ajith2011)", "")
+    .option("--bank-noise-curve <name|file>", "noise curve used to place a bank built on the fly (default: --noise-curve, else ajith2011)")
     .option("--fmin <Hz>", "low-frequency cutoff of templates and filter (Hz)", defaults.fmin)
     .option("--min-snr <rho>", "report peaks with SNR at or above this", "6")
     .option("--chi2-bands <p>", "frequency bands of the chi-squared discriminator (0 = off)", "16")
@@ -51,9 +51,9 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
       "chi-squared a signal may carry from imperfect template match, as a fraction of SNR²: the reweighted SNR divides chi-squared by dof + delta·SNR² (0 = off; ~0.03 lets signals of another waveform model keep their SNR; larger values weaken glitch rejection)",
       "0",
     )
-    .option("--cluster-window <s>", "keep the loudest peak within ± this many seconds", "1")
-    .option("--psd-segment <s>", "Welch segment length for the PSD estimate (s)", String(DEFAULT_PSD_SEGMENT_SECONDS))
-    .option("--psd-average <kind>", "Welch average: median or mean", "median")
+    .option("--loudest-within <s>", "keep the loudest peak within ± this many seconds", "1")
+    .option("--welch-segment <s>", "Welch segment length of the PSD estimate (s)", String(DEFAULT_PSD_SEGMENT_SECONDS))
+    .option("--welch-average <kind>", "how the Welch segments are averaged: median (bias-corrected) or mean", "median")
     .option("--fft <backend>", "FFT backend: auto, pffft or fftjs", "auto")
     .option("--threads <n>", "worker threads filtering the bank (default: the number of cores; small jobs use 1)")
     .option("--gate-threshold <sigma>", "gate (zero) whitened data beyond this many standard deviations before filtering: loud transients (0 = off)", String(DEFAULT_GATE_SETTINGS.thresholdSigma))
@@ -67,9 +67,9 @@ export interface ParsedSearchFlags {
   snrThreshold: number;
   chi2Bins: number;
   chi2Allowance: number;
-  clusterWindowSeconds: number;
-  psdSegmentSeconds: number;
-  psdAverage: "median" | "mean";
+  loudestWithinSeconds: number;
+  welchSegmentSeconds: number;
+  welchAverage: "median" | "mean";
   segmentSeconds: number | undefined;
   fftChoice: FftBackendChoice;
   threads: number | undefined;
@@ -85,9 +85,9 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
     snrThreshold: parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true }),
     chi2Bins,
     chi2Allowance: parseNumberFlag("--chi2-allowance", flags.chi2Allowance, { min: 0 }),
-    clusterWindowSeconds: parseNumberFlag("--cluster-window", flags.clusterWindow, { min: 0, minExclusive: true }),
-    psdSegmentSeconds: parseNumberFlag("--psd-segment", flags.psdSegment, { min: 0, minExclusive: true }),
-    psdAverage: parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const),
+    loudestWithinSeconds: parseNumberFlag("--loudest-within", flags.loudestWithin, { min: 0, minExclusive: true }),
+    welchSegmentSeconds: parseNumberFlag("--welch-segment", flags.welchSegment, { min: 0, minExclusive: true }),
+    welchAverage: parseChoiceFlag("--welch-average", flags.welchAverage, ["median", "mean"] as const),
     segmentSeconds: flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true }),
     fftChoice: parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const),
     threads: flags.threads === undefined ? undefined : parseNumberFlag("--threads", flags.threads, { min: 1, max: 1024, integer: true }),

@@ -2,7 +2,7 @@ import type { Command } from "commander";
 import cliProgress from "cli-progress";
 import {
   buildBankWithReport,
-  DEFAULT_MAX_TEMPLATES,
+  DEFAULT_TEMPLATE_CAP,
   checkBankOptions,
   parseMatchFloorRange,
   psdModelFromSpec,
@@ -23,17 +23,17 @@ import { checkOutputFile } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
 
-/** What a user of `bank` can change when the bank would exceed --max-templates. */
-const LIMIT_REMEDY = "narrow it, raise --fmin, lower --match-floor or raise --max-templates";
+/** What a user of `bank` can change when the bank would exceed --template-cap. */
+const LIMIT_REMEDY = "narrow it, raise --fmin, lower --match-floor or raise --template-cap";
 
 interface RegionFlags {
   massRange?: string;
   fmin?: string;
   noiseCurve: string;
-  maxTotalMass?: string;
-  maxMassRatio?: string;
+  totalMassCap?: string;
+  massRatioCap?: string;
   fmax?: string;
-  maxTemplates: string;
+  templateCap: string;
 }
 
 interface BuildFlags extends RegionFlags {
@@ -84,13 +84,13 @@ export function registerBank(program: Command): void {
       .option("--mass-range <min:max>", "component masses, solar masses, e.g. 1:3")
       .option("--fmin <Hz>", "low-frequency cutoff of the match (Hz), also the reference of the chirp times")
       .option("--noise-curve <name|file>", "ajith2011, dis2001, flat, flat:LEVEL, or a two-column PSD table file", "ajith2011")
-      .option("--max-total-mass <M>", "largest total mass, solar masses")
-      .option("--max-mass-ratio <q>", "largest mass ratio m1/m2 (> 1)")
+      .option("--total-mass-cap <M>", "largest total mass, solar masses")
+      .option("--mass-ratio-cap <q>", "largest mass ratio m1/m2 (> 1)")
       .option("--fmax <Hz>", "fixed upper cutoff of the match (Hz); default: each template's ISCO frequency")
       .option(
-        "--max-templates <n>",
+        "--template-cap <n>",
         "refuse, before placing anything, a bank estimated to need more templates than this",
-        String(DEFAULT_MAX_TEMPLATES),
+        String(DEFAULT_TEMPLATE_CAP),
       );
 
   withRegion(
@@ -139,10 +139,10 @@ interface RegionSettings {
   fminHz: number;
   psd: PsdModel;
   noiseCurve: string;
-  maxTotalMassSolar?: number;
-  maxMassRatio?: number;
+  totalMassCapSolar?: number;
+  massRatioCap?: number;
   fmaxHz?: number;
-  maxTemplates: number;
+  templateCap: number;
 }
 
 /** Parses and checks the region flags; every error names its flag. */
@@ -151,13 +151,13 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   if (flags.fmin === undefined) throw new UsageError(`--fmin: required, e.g. --fmin 30`);
   const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange, { strict: true });
   const fminHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
-  const maxTotalMassSolar =
-    flags.maxTotalMass === undefined ? undefined : parseNumberFlag("--max-total-mass", flags.maxTotalMass, { min: 0, minExclusive: true });
-  if (maxTotalMassSolar !== undefined && !(maxTotalMassSolar > 2 * massRangeSolar[0])) {
-    throw new UsageError(`--max-total-mass: must exceed twice the smallest component mass, ${2 * massRangeSolar[0]} (got ${flags.maxTotalMass})`);
+  const totalMassCapSolar =
+    flags.totalMassCap === undefined ? undefined : parseNumberFlag("--total-mass-cap", flags.totalMassCap, { min: 0, minExclusive: true });
+  if (totalMassCapSolar !== undefined && !(totalMassCapSolar > 2 * massRangeSolar[0])) {
+    throw new UsageError(`--total-mass-cap: must exceed twice the smallest component mass, ${2 * massRangeSolar[0]} (got ${flags.totalMassCap})`);
   }
-  const maxMassRatio =
-    flags.maxMassRatio === undefined ? undefined : parseNumberFlag("--max-mass-ratio", flags.maxMassRatio, { min: 1, minExclusive: true });
+  const massRatioCap =
+    flags.massRatioCap === undefined ? undefined : parseNumberFlag("--mass-ratio-cap", flags.massRatioCap, { min: 1, minExclusive: true });
   const fmaxHz = flags.fmax === undefined ? undefined : parseNumberFlag("--fmax", flags.fmax, { min: fminHz, minExclusive: true });
   let psd: PsdModel;
   try {
@@ -168,8 +168,8 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   if (fminHz < psd.fMinHz) {
     throw new UsageError(`--fmin: ${fminHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
   }
-  const maxTemplates = parseNumberFlag("--max-templates", flags.maxTemplates, { min: 1, integer: true });
-  const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, maxTotalMassSolar, maxMassRatio, fmaxHz, maxTemplates };
+  const templateCap = parseNumberFlag("--template-cap", flags.templateCap, { min: 1, integer: true });
+  const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, totalMassCapSolar, massRatioCap, fmaxHz, templateCap };
   // The band rules (core's MIN_ISCO_OVER_FMIN, MIN_FMAX_OVER_FMIN) checked here, before any work, with the flag named.
   withBankFlagErrors(() => checkBankOptions(settings), LIMIT_REMEDY);
   return settings;

@@ -112,7 +112,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
 
   if (flags.out) {
     const comments = [
-      `noise PSD of ${strain.file} (one-sided, 1/Hz): Welch ${average} of ${estimate.segments} Hann-windowed segments ` +
+      `noise PSD of ${strain.file} (one-sided, 1/Hz): Welch ${average} of ${estimate.segments} Hann-windowed segment${estimate.segments === 1 ? "" : "s"} ` +
         `of ${segmentUsed} s, 50% overlap, df = ${estimate.df} Hz`,
     ];
     writeFileAtomic(flags.out, formatPsdTable(estimate.frequencies, estimate.psd, comments));

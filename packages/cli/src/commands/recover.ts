@@ -120,7 +120,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
   const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
@@ -141,7 +141,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
 
   // The PSD the search filters with: scan's rule (a named curve, else a Welch estimate).
   const useModel = strainFiles.length > 0 ? noiseModel !== undefined : !!flags.modelPsd;
-  const psd: PsdSource = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
+  const psd: PsdSource = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
   const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
 
@@ -171,8 +171,8 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       minSnr: snrThreshold,
       chi2Bands: chi2Bins,
       chi2Allowance,
-      clusterWindowSeconds,
-      psd: psd.kind === "model" ? `model ${psd.model.name}` : `welch-${psd.average}-${psdSegmentSeconds}s`,
+      loudestWithinSeconds,
+      psd: psd.kind === "model" ? `model ${psd.model.name}` : `welch-${psd.average}-${welchSegmentSeconds}s`,
       segmentSeconds: segmentSeconds ?? null,
       fftBackend,
       matchWindowSeconds,
@@ -184,7 +184,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
     const options: CampaignOptions = {
       population: { count, massRangeSolar, snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
       data: strainFiles.length ? { kind: "strain", sources } : { kind: "simulated", psd: noiseModel!, sampleRate: rate },
-      search: { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend, threads, gating },
+      search: { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend, threads, gating },
       detector,
       matchWindowSeconds,
       injectionsPerBatch: perBatch,

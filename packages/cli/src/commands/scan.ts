@@ -118,7 +118,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
   const analysisIntervals = flags.keepTimes === undefined ? undefined : readIntervalFile(flags.keepTimes);
   const excludedIntervals = flags.dropTimes === undefined ? undefined : readIntervalFile(flags.dropTimes);
   const format = chooseCandidateFormat(flags);
@@ -135,7 +135,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
 
   const psd: PsdSource = flags.noiseCurve
     ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
-    : { kind: "estimate", segmentSeconds: psdSegmentSeconds, average: psdAverage };
+    : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
   const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
   const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
@@ -158,7 +158,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   // lost at their boundaries); --site files are one per site.
   const streams: SearchInput[] = network.length > 0 ? sources : joinContiguousInputs(sources);
   const searchOptions = {
-    templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
+    templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
     badData: flags.skipBadData ? ("exclude" as const) : ("reject" as const), analysisIntervals, excludedIntervals, gating,
   };
   const run = shard || flags.resume
@@ -181,7 +181,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
         segmentHook: run?.hook(i),
       }));
       if (r.summary.unsearchable) {
-        const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --psd-segment" : "raise --fmin, use heavier masses or longer data";
+        const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --welch-segment" : "raise --fmin, use heavier masses or longer data";
         // Too short by itself is the user's to fix; left with nothing by the exclusions they asked for is reported.
         if (streams.length === 1 && r.summary.skipped.length === 0) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
         process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
@@ -246,7 +246,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     minSnr: snrThreshold,
     chi2Allowance,
     fmin: fMinHz,
-    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psdSegmentSeconds}s`,
+    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${welchSegmentSeconds}s`,
     fftBackend,
     threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
@@ -268,7 +268,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
           endTime: src.startTime + src.length / src.sampleRate,
         };
       }),
-      { ...coincidenceOptions, clusterWindowSeconds },
+      { ...coincidenceOptions, loudestWithinSeconds },
     );
     summary.sites = network.map((s) => ({ name: s.name, file: s.file }));
     summary.coincidences = result.coincidences.length;
@@ -287,7 +287,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     mkdirSync(flags.plot, { recursive: true });
     const { writeScanPlots } = await import("../scanPlots.js");
     await writeScanPlots(flags.plot, sources.map((x) => x.file), candidates, {
-      templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psd, segmentSeconds, fftBackend,
+      templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
       open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }),
     });
   }

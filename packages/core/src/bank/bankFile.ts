@@ -7,8 +7,8 @@ import type { BankGenerator, Template, TemplateBank } from "./templateBank.js";
 
 /**
  * The bank as JSON text:
- *   {"fmin", "matchFloor", "noiseCurve", "massRange": [min, max], optional "maxTotalMass",
- *    "maxMassRatio", "fmax", "generator": {"tool", "version", "arguments"},
+ *   {"fmin", "matchFloor", "noiseCurve", "massRange": [min, max], optional "totalMassCap",
+ *    "massRatioCap", "fmax", "generator": {"tool", "version", "arguments"},
  *    "templates": [{"primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"}, ...]}
  * Masses in solar masses, frequencies in Hz, chirp times in seconds from fmin. One template per line.
  */
@@ -19,8 +19,8 @@ export function formatBankFile(bank: TemplateBank): string {
     noiseCurve: bank.noiseCurve,
     massRange: bank.massRangeSolar,
   };
-  if (bank.maxTotalMassSolar !== undefined) head.maxTotalMass = bank.maxTotalMassSolar;
-  if (bank.maxMassRatio !== undefined) head.maxMassRatio = bank.maxMassRatio;
+  if (bank.totalMassCapSolar !== undefined) head.totalMassCap = bank.totalMassCapSolar;
+  if (bank.massRatioCap !== undefined) head.massRatioCap = bank.massRatioCap;
   if (bank.fmaxHz !== undefined) head.fmax = bank.fmaxHz;
   if (bank.generator) head.generator = bank.generator;
   const lines = Object.entries(head).map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
@@ -85,11 +85,11 @@ export function parseBankFile(text: string, label: string): TemplateBank {
   const mMax = positive("massRange", mr[1], "massRange[1]");
   if (!(mMin < mMax)) throw new InputError(`${label}: massRange minimum ${mMin} must be below the maximum ${mMax}`);
   const bank: TemplateBank = { fminHz, matchFloor, noiseCurve: o.noiseCurve, massRangeSolar: [mMin, mMax], templates: [] };
-  if (o.maxTotalMass !== undefined) bank.maxTotalMassSolar = positive("maxTotalMass", o.maxTotalMass);
-  if (o.maxMassRatio !== undefined) {
-    const q = num("maxMassRatio", o.maxMassRatio);
-    if (!(q > 1)) throw new InputError(`${label}: maxMassRatio must be above 1 (got ${q})`);
-    bank.maxMassRatio = q;
+  if (o.totalMassCap !== undefined) bank.totalMassCapSolar = positive("totalMassCap", o.totalMassCap);
+  if (o.massRatioCap !== undefined) {
+    const q = num("massRatioCap", o.massRatioCap);
+    if (!(q > 1)) throw new InputError(`${label}: massRatioCap must be above 1 (got ${q})`);
+    bank.massRatioCap = q;
   }
   if (o.fmax !== undefined) {
     const f = positive("fmax", o.fmax);

@@ -9,9 +9,9 @@ export interface MassRegionLimits {
   minMassSolar: number;
   maxMassSolar: number;
   /** Largest total mass m1 + m2 (optional). */
-  maxTotalMassSolar?: number;
+  totalMassCapSolar?: number;
   /** Largest mass ratio m1/m2 ≥ 1 (optional). */
-  maxMassRatio?: number;
+  massRatioCap?: number;
 }
 
 /** One edge of the region's boundary in the (m1, m2) plane, from `from` to `to` (solar masses). */
@@ -64,13 +64,13 @@ export function totalMassFromTau0Eta(tau0: number, eta: number, fLowHz: number):
 /** Validates the limits and builds the region; throws InputError naming the offending limit. */
 export function createMassRegion(limits: MassRegionLimits, fLowHz: number): MassRegion {
   const { minMassSolar: mMin, maxMassSolar: mMax } = limits;
-  const totalMax = limits.maxTotalMassSolar ?? Infinity;
-  const qMax = limits.maxMassRatio ?? Infinity;
+  const totalMax = limits.totalMassCapSolar ?? Infinity;
+  const qMax = limits.massRatioCap ?? Infinity;
   if (!(mMin > 0) || !Number.isFinite(mMin)) throw new InputError(`mass range: the minimum component mass must be a positive number (got ${mMin})`);
   if (!(mMax > 0) || !Number.isFinite(mMax)) throw new InputError(`mass range: the maximum component mass must be a positive number (got ${mMax})`);
   if (!(mMin < mMax)) throw new InputError(`mass range: the minimum ${mMin} must be below the maximum ${mMax}`);
-  if (!(totalMax > 2 * mMin)) throw new InputError(`max total mass ${totalMax} must exceed twice the minimum component mass (${2 * mMin})`);
-  if (!(qMax > 1)) throw new InputError(`max mass ratio must be a number above 1 (got ${limits.maxMassRatio})`);
+  if (!(totalMax > 2 * mMin)) throw new InputError(`the total-mass cap ${totalMax} must exceed twice the minimum component mass (${2 * mMin})`);
+  if (!(qMax > 1)) throw new InputError(`the mass-ratio cap must be a number above 1 (got ${limits.massRatioCap})`);
   if (!(fLowHz > 0) || !Number.isFinite(fLowHz)) throw new InputError(`fmin must be a positive number (got ${fLowHz})`);
 
   const tol = 1e-9;

@@ -35,8 +35,8 @@ export interface TemplateBank {
   noiseCurve: string;
   /** Component-mass range [min, max], solar masses. */
   massRangeSolar: [number, number];
-  maxTotalMassSolar?: number;
-  maxMassRatio?: number;
+  totalMassCapSolar?: number;
+  massRatioCap?: number;
   /** Fixed upper cutoff (Hz) of the metric integrals, when one was given (otherwise each template's ISCO). */
   fmaxHz?: number;
   templates: Template[];
@@ -50,19 +50,19 @@ export interface BuildBankOptions {
   psd: PsdModel;
   /** Label stored in the bank for the noise curve (default psd.name). */
   noiseCurve?: string;
-  maxTotalMassSolar?: number;
-  maxMassRatio?: number;
+  totalMassCapSolar?: number;
+  massRatioCap?: number;
   fmaxHz?: number;
   /** Metric variation (λmax/λmin − 1) below which a lattice patch is never split (default 0.05; lattice.ts). */
   tolerance?: number;
   /** Cover thin patches with rows along the band when that needs fewer templates (default true; stripPlacement.ts). */
   bandRows?: boolean;
   /** Refuse (TemplateLimitError) before placing when the estimated count exceeds this (default 1 000 000). */
-  maxTemplates?: number;
+  templateCap?: number;
 }
 
-/** Default of BuildBankOptions.maxTemplates: beyond it a CPU scan would take days per hour of data. */
-export const DEFAULT_MAX_TEMPLATES = 1_000_000;
+/** Default of BuildBankOptions.templateCap: beyond it a CPU scan would take days per hour of data. */
+export const DEFAULT_TEMPLATE_CAP = 1_000_000;
 
 /** The estimated template count exceeds the caller's limit (raised before any placement work). */
 export class TemplateLimitError extends InputError {
@@ -138,12 +138,12 @@ export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> &
   if (fmin < options.psd.fMinHz) {
     throw new InputError(`fminHz ${fmin} Hz is below the lowest frequency ${options.psd.fMinHz} Hz of noise curve "${options.psd.name}"`);
   }
-  const mTot = options.maxTotalMassSolar;
+  const mTot = options.totalMassCapSolar;
   if (mTot !== undefined && !(mTot > 2 * mMin)) {
-    throw new InputError(`maxTotalMassSolar must exceed twice the minimum component mass, ${2 * mMin} (got ${mTot})`);
+    throw new InputError(`totalMassCapSolar must exceed twice the minimum component mass, ${2 * mMin} (got ${mTot})`);
   }
-  const q = options.maxMassRatio;
-  if (q !== undefined && !(q > 1)) throw new InputError(`maxMassRatio must be a number above 1 (got ${q})`);
+  const q = options.massRatioCap;
+  if (q !== undefined && !(q > 1)) throw new InputError(`massRatioCap must be a number above 1 (got ${q})`);
   const heaviest = Math.min(2 * mMax, mTot ?? Infinity);
   const fIsco = iscoFrequencyHz(heaviest);
   const slack = 1 - 1e-9; // so that a typed 1.1 × fmin passes despite rounding
@@ -161,8 +161,8 @@ export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> &
       `${fmax} Hz must be at least ${+(fmin * MIN_FMAX_OVER_FMIN).toFixed(3)} Hz (${MIN_FMAX_OVER_FMIN} × fmin ${fmin} Hz): a narrower band cannot tell the templates apart`,
     );
   }
-  if (options.maxTemplates !== undefined && !(options.maxTemplates >= 1)) {
-    throw new InputError(`maxTemplates must be a number of at least 1 (got ${options.maxTemplates})`);
+  if (options.templateCap !== undefined && !(options.templateCap >= 1)) {
+    throw new InputError(`templateCap must be a number of at least 1 (got ${options.templateCap})`);
   }
 }
 
@@ -203,8 +203,8 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
     matchFloor,
     noiseCurve: options.noiseCurve ?? psd.name,
     massRangeSolar: [mMin, mMax],
-    ...(options.maxTotalMassSolar !== undefined ? { maxTotalMassSolar: options.maxTotalMassSolar } : {}),
-    ...(options.maxMassRatio !== undefined ? { maxMassRatio: options.maxMassRatio } : {}),
+    ...(options.totalMassCapSolar !== undefined ? { totalMassCapSolar: options.totalMassCapSolar } : {}),
+    ...(options.massRatioCap !== undefined ? { massRatioCap: options.massRatioCap } : {}),
     ...(options.fmaxHz !== undefined ? { fmaxHz: options.fmaxHz } : {}),
     templates,
   };
@@ -245,10 +245,10 @@ export function estimateTemplateCount(options: BuildBankOptions): number {
 
 /**
  * Throws TemplateLimitError, before any placement work, when the estimated count (by default
- * estimateTemplateCount) exceeds options.maxTemplates (default DEFAULT_MAX_TEMPLATES).
+ * estimateTemplateCount) exceeds options.templateCap (default DEFAULT_TEMPLATE_CAP).
  */
 export function checkTemplateLimit(options: BuildBankOptions, estimate = estimateTemplateCount(options)): void {
-  const limit = options.maxTemplates ?? DEFAULT_MAX_TEMPLATES;
+  const limit = options.templateCap ?? DEFAULT_TEMPLATE_CAP;
   if (!(estimate <= limit)) {
     const [mMin, mMax] = options.massRangeSolar;
     throw new TemplateLimitError(
@@ -264,7 +264,7 @@ export function checkTemplateLimit(options: BuildBankOptions, estimate = estimat
 function regionOf(options: BuildBankOptions): MassRegion {
   const [mMin, mMax] = options.massRangeSolar;
   return createMassRegion(
-    { minMassSolar: mMin, maxMassSolar: mMax, maxTotalMassSolar: options.maxTotalMassSolar, maxMassRatio: options.maxMassRatio },
+    { minMassSolar: mMin, maxMassSolar: mMax, totalMassCapSolar: options.totalMassCapSolar, massRatioCap: options.massRatioCap },
     options.fminHz,
   );
 }

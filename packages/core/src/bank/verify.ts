@@ -175,8 +175,8 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     {
       minMassSolar: bank.massRangeSolar[0],
       maxMassSolar: bank.massRangeSolar[1],
-      maxTotalMassSolar: bank.maxTotalMassSolar,
-      maxMassRatio: bank.maxMassRatio,
+      totalMassCapSolar: bank.totalMassCapSolar,
+      massRatioCap: bank.massRatioCap,
     },
     fmin,
   );

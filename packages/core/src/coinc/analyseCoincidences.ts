@@ -3,7 +3,7 @@ import type { Candidate } from "../search/types.js";
 import type { Detector } from "../waveform/antenna.js";
 import { type CoincidenceRule, type RawCoincidence, type SiteTriggerArrays, formCoincidences } from "./coincidence.js";
 import { type FalseAlarm, countAbove, countAtLeast, falseAlarmFromCount } from "./falseAlarm.js";
-import { type SitePairDelay, lightTravelTime } from "./lightTravelTime.js";
+import { type SitePairDelay, interSiteDelay } from "./interSiteDelay.js";
 import { maxSlidesPerSide, slideOnRing, slideShiftSeconds } from "./timeSlides.js";
 
 /** The candidate fields coincidence needs (a search Candidate has them all). */
@@ -35,7 +35,7 @@ export interface CoincidenceOptions {
    */
   chirpMassTolerance?: number;
   /** Keep the loudest coincidence within ± this many seconds (default 1). */
-  clusterWindowSeconds?: number;
+  loudestWithinSeconds?: number;
   /** Time-slide step (s, default 7); must exceed twice the largest coincidence window. */
   slideStepSeconds?: number;
   /** Slides on each side of zero (default 100), capped by what the span allows ({@link maxSlidesPerSide}). */
@@ -94,8 +94,8 @@ export interface CoincidenceSummary {
   rankingStatistic: string;
   timingToleranceSeconds: number;
   chirpMassTolerance: number;
-  clusterWindowSeconds: number;
-  lightTravelTimes: SitePairDelay[];
+  loudestWithinSeconds: number;
+  interSiteDelays: SitePairDelay[];
   slideStepSeconds: number;
   slidesPerSide: number;
   /** Number of background slides, 2 × slidesPerSide. */
@@ -128,7 +128,7 @@ export const RANKING_STATISTIC = "network reweighted SNR: sqrt of the sum over s
  * 1. Coincidence (slide 0): triggers of two or more sites, at most one per site, pairwise within
  *    the light-travel time of their sites plus `timingToleranceSeconds`, and pairwise from the same
  *    template or within `chirpMassTolerance`; ranked by network reweighted SNR and clustered
- *    (loudest within ± clusterWindowSeconds) — see {@link formCoincidences}.
+ *    (loudest within ± loudestWithinSeconds) — see {@link formCoincidences}.
  * 2. Background: the same on time-slid triggers. The ring is the span every site's data covers;
  *    in slide k the site at network position j is moved by k · j · step (see
  *    {@link slideShiftSeconds}), k = ±1…±K, K = min(slidesPerSide, {@link maxSlidesPerSide}).
@@ -163,7 +163,7 @@ export function analyseCoincidences<T extends CoincidenceCandidate>(
   let widest = 0;
   for (let a = 0; a < n; a++) {
     for (let b = a + 1; b < n; b++) {
-      const ltt = lightTravelTime(network[a].detector, network[b].detector);
+      const ltt = interSiteDelay(network[a].detector, network[b].detector);
       pairs.push({ sites: [names[a], names[b]], seconds: ltt });
       windows[a * n + b] = windows[b * n + a] = ltt + o.timingTolerance;
       widest = Math.max(widest, ltt + o.timingTolerance);
@@ -186,7 +186,7 @@ export function analyseCoincidences<T extends CoincidenceCandidate>(
   // Base arrays per site: triggers inside the ring, ascending ring time.
   const base = network.map((s) => toArrays(s.candidates, ringStart, ringEnd));
 
-  const fg = formCoincidences(base.map((b) => b.arrays), rule, o.clusterWindow);
+  const fg = formCoincidences(base.map((b) => b.arrays), rule, o.loudestWithin);
 
   // The reference site never moves; the others get rotated copies (base index = identity, so the
   // rotation's positions are the base arrays' trigger indices).
@@ -207,7 +207,7 @@ export function analyseCoincidences<T extends CoincidenceCandidate>(
     for (let j = 1; j < n; j++) {
       slideOnRing(base[j].arrays.times, slideShiftSeconds(k, j, o.slideStep), ring, slid[j].times, slid[j].index);
     }
-    for (const c of formCoincidences(slid, rule, o.clusterWindow)) stats.push(c.snr);
+    for (const c of formCoincidences(slid, rule, o.loudestWithin)) stats.push(c.snr);
   }
   const background = Float64Array.from(stats).sort();
   const slides = 2 * perSide;
@@ -248,8 +248,8 @@ export function analyseCoincidences<T extends CoincidenceCandidate>(
       rankingStatistic: RANKING_STATISTIC,
       timingToleranceSeconds: o.timingTolerance,
       chirpMassTolerance: o.chirpMassTolerance,
-      clusterWindowSeconds: o.clusterWindow,
-      lightTravelTimes: pairs,
+      loudestWithinSeconds: o.loudestWithin,
+      interSiteDelays: pairs,
       slideStepSeconds: o.slideStep,
       slidesPerSide: perSide,
       slides,
@@ -348,7 +348,7 @@ function toRecord<T extends CoincidenceCandidate>(
 interface CheckedOptions {
   timingTolerance: number;
   chirpMassTolerance: number;
-  clusterWindow: number;
+  loudestWithin: number;
   slideStep: number;
   slidesPerSide: number;
   foregroundSeconds?: number;
@@ -367,7 +367,7 @@ function checkOptions(o: CoincidenceOptions): CheckedOptions {
   return {
     timingTolerance: pick("timingToleranceSeconds", 0.005, (x) => x >= 0, "a non-negative number of seconds"),
     chirpMassTolerance: pick("chirpMassTolerance", 0.05, (x) => x >= 0 && x < 1, "a fraction in [0, 1)"),
-    clusterWindow: pick("clusterWindowSeconds", 1, (x) => x > 0, "a positive number of seconds"),
+    loudestWithin: pick("loudestWithinSeconds", 1, (x) => x > 0, "a positive number of seconds"),
     slideStep: pick("slideStepSeconds", 7, (x) => x > 0, "a positive number of seconds"),
     slidesPerSide: pick("slidesPerSide", 100, (x) => Number.isInteger(x) && x >= 1, "a whole number ≥ 1"),
     foregroundSeconds: foreground,

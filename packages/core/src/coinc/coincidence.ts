@@ -51,12 +51,12 @@ function sameSource(a: SiteTriggerArrays, i: number, b: SiteTriggerArrays, j: nu
  * Forms every coincidence of two or more sites, at most one trigger per site, in which every pair
  * of members is within its site pair's window and template-compatible, then keeps the loudest
  * (by network reweighted SNR ρ_net = √(Σ ρ̂_i²), the quadrature sum of the members' reweighted
- * SNRs; common practice, no source) within ± `clusterWindowSeconds` of the time of its lowest-site
+ * SNRs; common practice, no source) within ± `loudestWithinSeconds` of the time of its lowest-site
  * member (via {@link clusterByTime}). Each combination is enumerated once, anchored on its member
  * at the lowest site position and extended through the later sites in order.
  * Cost: linear in the triggers (a forward-moving pointer per site) plus the matches found.
  */
-export function formCoincidences(sites: readonly SiteTriggerArrays[], rule: CoincidenceRule, clusterWindowSeconds: number): RawCoincidence[] {
+export function formCoincidences(sites: readonly SiteTriggerArrays[], rule: CoincidenceRule, loudestWithinSeconds: number): RawCoincidence[] {
   const n = sites.length;
   const found: RawCoincidence[] = [];
   const chosenSite = new Int32Array(n);
@@ -120,5 +120,5 @@ export function formCoincidences(sites: readonly SiteTriggerArrays[], rule: Coin
       extend(a + 1);
     }
   }
-  return clusterByTime(found, clusterWindowSeconds);
+  return clusterByTime(found, loudestWithinSeconds);
 }

@@ -1,4 +1,4 @@
-export * from "./lightTravelTime.js";
+export * from "./interSiteDelay.js";
 export * from "./sites.js";
 export * from "./siteResponse.js";
 export * from "./falseAlarm.js";

@@ -1,5 +1,5 @@
 import { type Injection, checkInjection } from "../inject/injection.js";
-import { type Detector, antennaPattern, siderealAngle, timeDelayFromEarthCenter } from "../waveform/antenna.js";
+import { type Detector, geocentreDelay, plusCrossResponse, siderealAngle } from "../waveform/antenna.js";
 
 /** How one site sees an injection: its antenna factors and when the signal arrives there. */
 export interface SiteResponse {
@@ -31,8 +31,8 @@ export function injectionAtSites(injection: Injection, detectors: readonly Detec
   const ci = Math.cos(inj.inclination);
   const ap = (1 + ci * ci) / 2;
   return detectors.map((d) => {
-    const { plus, cross } = antennaPattern(d, inj.rightAscension, inj.declination, inj.polarization, gmst);
-    const delaySeconds = timeDelayFromEarthCenter(d, inj.rightAscension, inj.declination, gmst);
+    const { plus, cross } = plusCrossResponse(d, inj, inj.polarization, gmst);
+    const delaySeconds = geocentreDelay(d, inj, gmst);
     return {
       site: d.name,
       delaySeconds,

@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import { type Detector, antennaPattern, siderealAngle, timeDelayFromEarthCenter } from "../waveform/antenna.js";
+import { type Detector, geocentreDelay, plusCrossResponse, siderealAngle } from "../waveform/antenna.js";
 import { taylorT4 } from "../waveform/taylorT4.js";
 
 /**
@@ -48,17 +48,17 @@ export interface ProjectionOptions {
 
 /**
  * The detector response h(t) = F+ h+(t) + F× h×(t) to an injection, sampled on a grid
- * (TaylorT4 polarisations from {@link taylorT4}; antenna factors from {@link antennaPattern}).
+ * (TaylorT4 polarisations from {@link taylorT4}; antenna factors from {@link plusCrossResponse}).
  * The coalescence time refers to the Earth's centre; at the detector the signal is shifted by the
- * plane-wave delay {@link timeDelayFromEarthCenter}. F+, F× and the delay are evaluated once, at the
+ * plane-wave delay {@link geocentreDelay}. F+, F× and the delay are evaluated once, at the
  * coalescence time (the Earth's rotation during the chirp is neglected), with the sidereal angle of
  * {@link siderealAngle}.
  */
 export function projectInjection(injection: Injection, detector: Detector, options: ProjectionOptions): StrainSegment {
   const inj = checkInjection(injection, "injection");
   const gmst = siderealAngle(inj.coalescenceTime);
-  const { plus, cross } = antennaPattern(detector, inj.rightAscension, inj.declination, inj.polarization, gmst);
-  const delay = timeDelayFromEarthCenter(detector, inj.rightAscension, inj.declination, gmst);
+  const { plus, cross } = plusCrossResponse(detector, inj, inj.polarization, gmst);
+  const delay = geocentreDelay(detector, inj, gmst);
   const gridStart = options.gridStartTime ?? 0;
   const wf = taylorT4({
     massSolar1: inj.primaryMass,

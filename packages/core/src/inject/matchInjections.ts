@@ -1,12 +1,12 @@
 import { InputError } from "../errors.js";
 import type { Candidate } from "../search/types.js";
-import { type Detector, siderealAngle, timeDelayFromEarthCenter } from "../waveform/antenna.js";
+import { type Detector, geocentreDelay, siderealAngle } from "../waveform/antenna.js";
 import type { Injection } from "./injection.js";
 
 /** When an injection reaches its ISCO at `detector`: Earth-centre time plus the plane-wave delay. */
 export function arrivalTimeAt(injection: Injection, detector: Detector): number {
   const t = injection.coalescenceTime;
-  return t + timeDelayFromEarthCenter(detector, injection.rightAscension, injection.declination, siderealAngle(t));
+  return t + geocentreDelay(detector, injection, siderealAngle(t));
 }
 
 /** The result of matching one batch's candidates to its injections. */

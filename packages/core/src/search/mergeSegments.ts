@@ -16,7 +16,7 @@ export interface RunLayout {
     readonly skippedSeconds?: number;
   }[];
   readonly templateCount: number;
-  readonly clusterWindowSeconds: number;
+  readonly loudestWithinSeconds: number;
 }
 
 /** The result of a run put together from segment records: what an unsharded run returns. */
@@ -53,7 +53,7 @@ interface Peak {
  */
 export function mergeSegmentRecords(layout: RunLayout, records: Iterable<SegmentRecord>): MergedScan {
   const T = layout.templateCount;
-  const w = layout.clusterWindowSeconds;
+  const w = layout.loudestWithinSeconds;
   const bySegment = new Map<string, SegmentRecord[]>();
   for (const r of records) {
     const key = `${r.input}:${r.segment}`;

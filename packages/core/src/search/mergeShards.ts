@@ -198,7 +198,7 @@ export function mergeShards(paths: readonly string[]): MergedShards {
     {
       inputs: first.inputs.map((i) => ({ file: i.file, segments: i.segments, sampleRate: i.sampleRate, skipped: i.skipped, skippedSeconds: i.skippedSeconds })),
       templateCount: first.search.templates,
-      clusterWindowSeconds: first.search.clusterWindowSeconds,
+      loudestWithinSeconds: first.search.loudestWithinSeconds,
     },
     records,
   );

@@ -35,7 +35,7 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
   if (!Number.isInteger(o.chi2Bins) || o.chi2Bins < 0 || o.chi2Bins === 1) {
     throw new InputError(`chi-squared bands must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bins})`);
   }
-  if (!(o.clusterWindowSeconds > 0)) throw new InputError(`the cluster window must be positive (got ${o.clusterWindowSeconds})`);
+  if (!(o.loudestWithinSeconds > 0)) throw new InputError(`the span kept to its loudest peak must be positive (got ${o.loudestWithinSeconds})`);
   if (o.chi2Allowance !== undefined && !(o.chi2Allowance >= 0 && Number.isFinite(o.chi2Allowance))) {
     throw new InputError(`the chi-squared allowance must be a number ≥ 0 (got ${o.chi2Allowance})`);
   }
@@ -48,12 +48,12 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
     const samples = Math.round(seconds * sampleRate);
     if (!(samples >= MIN_PSD_SEGMENT_SAMPLES)) {
       throw new InputError(
-        `--psd-segment: ${seconds} s is ${samples} samples at ${sampleRate} Hz; the PSD estimate needs at least ${MIN_PSD_SEGMENT_SAMPLES}`,
+        `--welch-segment: ${seconds} s is ${samples} samples at ${sampleRate} Hz; the PSD estimate needs at least ${MIN_PSD_SEGMENT_SAMPLES}`,
       );
     }
     if (!(1 / seconds <= o.fMinHz)) {
       throw new InputError(
-        `--psd-segment: ${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than fmin ${o.fMinHz} Hz; ` +
+        `--welch-segment: ${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than fmin ${o.fMinHz} Hz; ` +
           `use at least ${(1 / o.fMinHz).toPrecision(3)} s`,
       );
     }
@@ -248,7 +248,7 @@ export async function searchSource(
   const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);
   const templates = options.templates;
   const threads = searchThreads(options, plan);
-  const window = Math.max(1, Math.round(options.clusterWindowSeconds * fs));
+  const window = Math.max(1, Math.round(options.loudestWithinSeconds * fs));
   const truncSamples = Math.round(truncationSeconds(options) * fs);
   const filter = createSegmentFilter({
     size: n,
@@ -347,7 +347,7 @@ export async function searchSource(
         return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
       });
       const first = all.length;
-      const kept = clusterByTime(timed, options.clusterWindowSeconds);
+      const kept = clusterByTime(timed, options.loudestWithinSeconds);
       for (const tr of kept) {
         const t = templates[tr.templateIndex];
         const kEnd = filter.generate(t);
@@ -379,7 +379,7 @@ export async function searchSource(
   }
   const candidates = clusterByTime(
     all.map((c) => ({ ...c, time: c.coalescenceTime })),
-    options.clusterWindowSeconds,
+    options.loudestWithinSeconds,
   ).map(({ time: _t, ...c }) => c as Candidate);
   return { candidates, summary: summaryOf(analysed, gates, threads) };
 }

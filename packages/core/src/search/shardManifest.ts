@@ -40,7 +40,7 @@ export interface SearchDescription {
   snrThreshold: number;
   chi2Bins: number;
   chi2Allowance: number;
-  clusterWindowSeconds: number;
+  loudestWithinSeconds: number;
   /** e.g. "ajith2011" or "welch-median-4s" (the CLI's label). */
   psd: string;
   /** The noise curve's values at fixed frequencies (a model), or the estimate's settings. */
@@ -171,7 +171,7 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     snrThreshold: options.snrThreshold,
     chi2Bins: options.chi2Bins,
     chi2Allowance: options.chi2Allowance ?? 0,
-    clusterWindowSeconds: options.clusterWindowSeconds,
+    loudestWithinSeconds: options.loudestWithinSeconds,
     psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psd.segmentSeconds}s`,
     psdFingerprint:
       psd.kind === "model"

@@ -62,7 +62,7 @@ const key = (input: number, segment: number): string => `${input}:${segment}`;
  * Starts a scan run: checksums the inputs, plans their segments as searchSource will, derives the
  * run id and this shard's work, and opens (or resumes) the journal. Records are kept in memory
  * (they hold only the per-segment survivors and, when the bank is split, a few deciding peaks per
- * cluster window) and appended to the journal as each segment finishes.
+ * loudest-within span) and appended to the journal as each segment finishes.
  */
 export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
   if (setup.inputs.length === 0) throw new InputError("scan run: no input files");
@@ -77,7 +77,7 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
   const args = setup.arguments ?? {};
   const runId = scanRunId(setup.version, search, inputs, args);
   const T = options.templates.length;
-  const W = options.clusterWindowSeconds;
+  const W = options.loudestWithinSeconds;
   const work = shardWork(
     inputs.map((i) => i.segments),
     T,
@@ -102,7 +102,7 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
   const layout: RunLayout = {
     inputs: inputs.map((i) => ({ file: i.file, segments: i.segments, sampleRate: i.sampleRate, skipped: i.skipped, skippedSeconds: i.skippedSeconds })),
     templateCount: T,
-    clusterWindowSeconds: W,
+    loudestWithinSeconds: W,
   };
 
   return {

@@ -46,7 +46,7 @@ export interface SearchOptions {
    */
   readonly chi2Allowance?: number;
   /** Keep the loudest peak within ± this many seconds, across time and the bank. */
-  readonly clusterWindowSeconds: number;
+  readonly loudestWithinSeconds: number;
   readonly psd: PsdSource;
   /** Length of the truncated inverse-PSD filter (s); default the PSD estimate's segment, or 2 s for a model. */
   readonly truncationSeconds?: number;

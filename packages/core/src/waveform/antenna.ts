@@ -1,7 +1,7 @@
 import { InputError } from "../errors.js";
 import { C } from "../physics/constants.js";
 
-/** A 3-vector in Earth-fixed Cartesian coordinates (x toward longitude 0 on the equator, z toward the North pole). */
+/** A 3-vector in Earth-fixed Cartesian coordinates (x toward 0° east on the equator, z toward the North pole). */
 export type Vec3 = readonly [number, number, number];
 
 /** An L-shaped interferometer: its vertex and the unit vectors of its two arms, Earth-fixed. */
@@ -19,10 +19,16 @@ export interface Detector {
   readonly description?: string;
 }
 
-/** The two antenna factors of a detector for one sky position and polarisation angle. */
-export interface AntennaFactors {
+/** The plus and cross response factors F+ and F× of a detector for one sky position and polarisation angle. */
+export interface PlusCrossFactors {
   plus: number;
   cross: number;
+}
+
+/** Where a source sits on the sky: right ascension α and declination δ, rad. */
+export interface SkyPosition {
+  readonly rightAscension: number;
+  readonly declination: number;
 }
 
 /**
@@ -60,27 +66,29 @@ export function detectorFromArms(name: string, vertex: Vec3, armX: Vec3, armY: V
   return { name, vertex: [vertex[0], vertex[1], vertex[2]], armX: u, armY: v, tensor, description };
 }
 
-/** Geodetic description of an L-shaped detector. Angles in degrees. */
+/**
+ * Where an L-shaped detector stands and where its arms point. Angles in degrees.
+ * Position on the WGS-84 ellipsoid: `degreesNorth` (geodetic, −90..90) and `degreesEast` (−180..360);
+ * `heightMetres` above the ellipsoid (default 0). `armBearingsDegrees` holds the bearings of the first
+ * and the second arm, clockwise from local north seen from above (90 = east); the detector tensor is
+ * (u u − v v) / 2 with u along the first arm.
+ */
 export interface GeodeticSite {
   name: string;
-  /** Geodetic latitude, degrees north (−90..90). */
-  latitudeDeg: number;
-  /** Longitude, degrees east (−180..360). */
-  longitudeDeg: number;
-  /** Height of the vertex above the WGS-84 ellipsoid, m (default 0). */
-  elevationM?: number;
-  /** Azimuth of each arm, degrees measured from local North toward East. */
-  xArmAzimuthDeg: number;
-  yArmAzimuthDeg: number;
+  degreesNorth: number;
+  degreesEast: number;
+  heightMetres?: number;
+  armBearingsDegrees: readonly [number, number];
   description?: string;
 }
 
 /**
  * Converts a geodetic site to Earth-fixed vectors on the WGS-84 ellipsoid. The vertex is
- * ((N + h) cos φ cos λ, (N + h) cos φ sin λ, (N (1 − e²) + h) sin φ) with N = a / √(1 − e² sin² φ)
- * (standard geodetic-to-ECEF conversion, NIMA TR8350.2 (2000), Eq. 4-14). The arms lie in the local
- * horizontal plane (normal to the ellipsoid): an arm of azimuth A points along cos A n̂ + sin A ê with
- * local North n̂ = (−sin φ cos λ, −sin φ sin λ, cos φ) and East ê = (−sin λ, cos λ, 0).
+ * ((N + h) cos φ cos λ, (N + h) cos φ sin λ, (N (1 − e²) + h) sin φ) with N = a / √(1 − e² sin² φ),
+ * φ the geodetic angle north and λ the angle east (standard geodetic-to-ECEF conversion,
+ * NIMA TR8350.2 (2000), Eq. 4-14). The arms lie in the local horizontal plane (normal to the
+ * ellipsoid): an arm of bearing A points along cos A n̂ + sin A ê with local North
+ * n̂ = (−sin φ cos λ, −sin φ sin λ, cos φ) and East ê = (−sin λ, cos λ, 0).
  * Arm tilts out of that plane are ignored.
  */
 export function detectorFromGeodetic(site: GeodeticSite): Detector {
@@ -90,15 +98,16 @@ export function detectorFromGeodetic(site: GeodeticSite): Detector {
       throw new InputError(`detector "${name}": ${label} must be a number in [${lo}, ${hi}] (got ${value})`);
     }
   };
-  check("latitudeDeg", site.latitudeDeg, -90, 90);
-  check("longitudeDeg", site.longitudeDeg, -180, 360);
-  check("xArmAzimuthDeg", site.xArmAzimuthDeg, -360, 360);
-  check("yArmAzimuthDeg", site.yArmAzimuthDeg, -360, 360);
-  const h = site.elevationM ?? 0;
-  check("elevationM", h, -11_000, 10_000);
+  check("degreesNorth", site.degreesNorth, -90, 90);
+  check("degreesEast", site.degreesEast, -180, 360);
+  const [firstArmDeg, secondArmDeg] = site.armBearingsDegrees;
+  check("armBearingsDegrees[0]", firstArmDeg, -360, 360);
+  check("armBearingsDegrees[1]", secondArmDeg, -360, 360);
+  const h = site.heightMetres ?? 0;
+  check("heightMetres", h, -11_000, 10_000);
   const deg = Math.PI / 180;
-  const lat = site.latitudeDeg * deg;
-  const lon = site.longitudeDeg * deg;
+  const lat = site.degreesNorth * deg;
+  const lon = site.degreesEast * deg;
   const e2 = WGS84_FLATTENING * (2 - WGS84_FLATTENING);
   const sinLat = Math.sin(lat);
   const cosLat = Math.cos(lat);
@@ -110,19 +119,19 @@ export function detectorFromGeodetic(site: GeodeticSite): Detector {
   ];
   const north: Vec3 = [-sinLat * Math.cos(lon), -sinLat * Math.sin(lon), cosLat];
   const east: Vec3 = [-Math.sin(lon), Math.cos(lon), 0];
-  const arm = (azDeg: number): Vec3 => {
-    const a = azDeg * deg;
+  const arm = (bearingDeg: number): Vec3 => {
+    const a = bearingDeg * deg;
     const c = Math.cos(a);
     const s = Math.sin(a);
     return [c * north[0] + s * east[0], c * north[1] + s * east[1], c * north[2] + s * east[2]];
   };
-  return detectorFromArms(name, vertex, arm(site.xArmAzimuthDeg), arm(site.yArmAzimuthDeg), site.description);
+  return detectorFromArms(name, vertex, arm(firstArmDeg), arm(secondArmDeg), site.description);
 }
 
 /**
  * Unit vector from the Earth's centre toward a source at right ascension α and declination δ (rad),
  * in Earth-fixed coordinates at Greenwich mean sidereal angle `gmstRad`: the source's Earth-fixed
- * longitude is λ = α − GMST, so n̂ = (cos δ cos λ, cos δ sin λ, sin δ).
+ * angle east is λ = α − GMST, so n̂ = (cos δ cos λ, cos δ sin λ, sin δ).
  */
 export function sourceDirection(rightAscension: number, declination: number, gmstRad: number): Vec3 {
   const lam = rightAscension - gmstRad;
@@ -137,24 +146,19 @@ export function sourceDirection(rightAscension: number, declination: number, gms
  * and ê_δ = (−sin δ cos λ, −sin δ sin λ, cos δ) (toward North) at the source direction,
  * X = cos ψ ê_α + sin ψ ê_δ and Y = −sin ψ ê_α + cos ψ ê_δ. So for a source overhead of a
  * detector whose x arm points East and y arm North, F+ = cos 2ψ and F× = −sin 2ψ.
- * Angles in radians; `gmstRad` is the Greenwich mean sidereal angle.
+ * Angles in radians; `siderealAngleRad` is the Greenwich sidereal angle ({@link siderealAngle}).
  */
-export function antennaPattern(
-  detector: Detector,
-  rightAscension: number,
-  declination: number,
-  polarization: number,
-  gmstRad: number,
-): AntennaFactors {
-  const lam = rightAscension - gmstRad;
+export function plusCrossResponse(detector: Detector, sky: SkyPosition, polarisationRad: number, siderealAngleRad: number): PlusCrossFactors {
+  const { rightAscension, declination } = sky;
+  const lam = rightAscension - siderealAngleRad;
   const sl = Math.sin(lam);
   const cl = Math.cos(lam);
   const sd = Math.sin(declination);
   const cd = Math.cos(declination);
   const ea = [-sl, cl, 0];
   const ed = [-sd * cl, -sd * sl, cd];
-  const cp = Math.cos(polarization);
-  const sp = Math.sin(polarization);
+  const cp = Math.cos(polarisationRad);
+  const sp = Math.sin(polarisationRad);
   const x = [cp * ea[0] + sp * ed[0], cp * ea[1] + sp * ed[1], cp * ea[2] + sp * ed[2]];
   const y = [-sp * ea[0] + cp * ed[0], -sp * ea[1] + cp * ed[1], -sp * ea[2] + cp * ed[2]];
   const d = detector.tensor;
@@ -176,8 +180,8 @@ export function antennaPattern(
  * (plane-wave geometry; common practice, no source). Positive when the detector is farther from
  * the source than the Earth's centre.
  */
-export function timeDelayFromEarthCenter(detector: Detector, rightAscension: number, declination: number, gmstRad: number): number {
-  const n = sourceDirection(rightAscension, declination, gmstRad);
+export function geocentreDelay(detector: Detector, sky: SkyPosition, siderealAngleRad: number): number {
+  const n = sourceDirection(sky.rightAscension, sky.declination, siderealAngleRad);
   const r = detector.vertex;
   return -(n[0] * r[0] + n[1] * r[1] + n[2] * r[2]) / C;
 }
@@ -195,24 +199,22 @@ export function siderealAngle(timeSeconds: number): number {
 
 /**
  * Invented detector sites for demos and synthetic data (no real observatory):
- * - "site-a": vertex at 52.0° N, 30.0° W (mid-Atlantic, sea level), arms at azimuth 30° and 120°.
- * - "site-b": vertex at 20.0° S, 160.0° E (Coral Sea, sea level), arms at azimuth 75° and 165°.
+ * - "site-a": vertex at 52.0° N, 30.0° W (mid-Atlantic, sea level), arms at bearings 30° and 120°.
+ * - "site-b": vertex at 20.0° S, 160.0° E (Coral Sea, sea level), arms at bearings 75° and 165°.
  */
 export const SITE_A: Detector = detectorFromGeodetic({
   name: "site-a",
-  latitudeDeg: 52,
-  longitudeDeg: -30,
-  xArmAzimuthDeg: 30,
-  yArmAzimuthDeg: 120,
+  degreesNorth: 52,
+  degreesEast: -30,
+  armBearingsDegrees: [30, 120],
   description: "invented L-shaped site at 52.0 N, 30.0 W (synthetic; no real observatory)",
 });
 
 export const SITE_B: Detector = detectorFromGeodetic({
   name: "site-b",
-  latitudeDeg: -20,
-  longitudeDeg: 160,
-  xArmAzimuthDeg: 75,
-  yArmAzimuthDeg: 165,
+  degreesNorth: -20,
+  degreesEast: 160,
+  armBearingsDegrees: [75, 165],
   description: "invented L-shaped site at 20.0 S, 160.0 E (synthetic; no real observatory)",
 });
 

@@ -6,7 +6,7 @@ import type { Detector } from "../waveform/antenna.js";
  * difference a plane wave from any sky position can produce between them (plane-wave geometry;
  * common practice, no source).
  */
-export function lightTravelTime(a: Detector, b: Detector): number {
+export function interSiteDelay(a: Detector, b: Detector): number {
   const dx = a.vertex[0] - b.vertex[0];
   const dy = a.vertex[1] - b.vertex[1];
   const dz = a.vertex[2] - b.vertex[2];
@@ -21,12 +21,12 @@ export interface SitePairDelay {
   seconds: number;
 }
 
-/** {@link lightTravelTime} for every pair (i < j) of `detectors`, in list order. */
-export function pairwiseLightTravelTimes(detectors: readonly Detector[]): SitePairDelay[] {
+/** {@link interSiteDelay} for every pair (i < j) of `detectors`, in list order. */
+export function interSiteDelays(detectors: readonly Detector[]): SitePairDelay[] {
   const out: SitePairDelay[] = [];
   for (let i = 0; i < detectors.length; i++) {
     for (let j = i + 1; j < detectors.length; j++) {
-      out.push({ sites: [detectors[i].name, detectors[j].name], seconds: lightTravelTime(detectors[i], detectors[j]) });
+      out.push({ sites: [detectors[i].name, detectors[j].name], seconds: interSiteDelay(detectors[i], detectors[j]) });
     }
   }
   return out;
