@@ -12,7 +12,7 @@ import {
   shown,
   statInputFile,
 } from "./strainChecks.js";
-import type { StrainOpenOptions, StrainSource, StrainWriteInput } from "./strainTypes.js";
+import type { StrainOpenOptions, StrainRun, StrainSource, StrainWriteInput } from "./strainTypes.js";
 
 /** The two raw formats: little-endian IEEE-754 float32 (.f32) or float64 (.f64) samples. */
 export type RawStrainFormat = "f32" | "f64";
@@ -34,6 +34,8 @@ export interface RawSidecar {
   units?: string;
   /** Number of samples, when the sidecar states it. */
   length?: number;
+  /** The run that wrote the file, when the sidecar records it. */
+  run?: StrainRun;
 }
 
 /**
@@ -87,6 +89,12 @@ export function parseRawSidecar(sidecar: string, text: string, format: RawStrain
     }
     out.length = n;
   }
+  const run = o.run as Record<string, unknown> | undefined;
+  if (run !== undefined) {
+    const ok = run !== null && typeof run === "object" && typeof run.id === "string" && Array.isArray(run.sites) && run.sites.every((x) => typeof x === "string");
+    if (!ok) throw new InputError(`${sidecar}: run must be {"id": text, "sites": [names]} (got ${shown(run)})`);
+    out.run = { id: run.id as string, sites: [...(run.sites as string[])] };
+  }
   return out;
 }
 
@@ -120,6 +128,7 @@ class RawStrainSource implements StrainSource {
     private readonly checkSamples: boolean,
     readonly label?: string,
     readonly units?: string,
+    readonly run?: StrainRun,
   ) {
     this.handle = handle;
   }
@@ -238,14 +247,16 @@ export async function openRawStrain(
     options.nonFinite !== "allow",
     meta.label,
     meta.units,
+    meta.run,
   );
 }
 
 /**
- * Writes raw little-endian samples and then the sidecar, each atomically (temporary file, then
- * rename), so a reader that finds the sidecar finds the whole data file. Assumes a checked series.
+ * Writes raw little-endian samples and then the sidecar (at `sidecarPath`, default `<path>.json`),
+ * each atomically (temporary file, then rename), so a reader that finds the sidecar finds the whole
+ * data file. Assumes a checked series.
  */
-export function writeRawStrain(path: string, series: StrainWriteInput, format: RawStrainFormat): void {
+export function writeRawStrain(path: string, series: StrainWriteInput, format: RawStrainFormat, sidecarPath = rawSidecarPath(path)): void {
   const bytes = encodeLittleEndian(path, series.data, format);
   const meta: Record<string, unknown> = {
     sampleRate: series.sampleRate,
@@ -255,6 +266,7 @@ export function writeRawStrain(path: string, series: StrainWriteInput, format: R
   };
   if (series.label !== undefined) meta.label = series.label;
   if (series.units !== undefined) meta.units = series.units;
+  if (series.run !== undefined) meta.run = { id: series.run.id, sites: [...series.run.sites] };
   writeFileAtomic(path, bytes);
-  writeFileAtomic(rawSidecarPath(path), `${JSON.stringify(meta, null, 2)}\n`);
+  writeFileAtomic(sidecarPath, `${JSON.stringify(meta, null, 2)}\n`);
 }

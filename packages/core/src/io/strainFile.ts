@@ -112,7 +112,7 @@ export async function writeStrain(
   switch (format) {
     case "f32":
     case "f64":
-      writeRawStrain(path, series, format);
+      writeRawStrain(path, series, format, options.sidecarPath);
       return;
     case "text":
       writeTextStrain(path, series);

@@ -62,6 +62,8 @@ export interface StrainSource {
   readonly length: number;
   readonly label?: string;
   readonly units?: string;
+  /** The run that wrote the file, when its sidecar records one (raw files written by this tool). */
+  readonly run?: StrainRun;
   read(offset: number, count: number): Promise<Float64Array>;
   close(): Promise<void>;
 }
@@ -73,6 +75,17 @@ export interface StrainWriteInput {
   startTime: number;
   label?: string;
   units?: string;
+  /** Recorded in a raw file's sidecar: the run that wrote it (and its sibling files). */
+  run?: StrainRun;
+}
+
+/**
+ * The run that wrote a strain file: an id equal for equal settings, and the names of the sites
+ * whose files that run wrote together (one file per site).
+ */
+export interface StrainRun {
+  id: string;
+  sites: string[];
 }
 
 /** How to write a strain file. */
@@ -83,4 +96,6 @@ export interface StrainWriteOptions {
   dataset?: string;
   /** Default "error": refuse to write NaN/±Infinity samples (the reader would reject them). */
   nonFinite?: "error" | "allow";
+  /** Where a raw file's sidecar goes (default `<path>.json`); for writers staging a set of files. */
+  sidecarPath?: string;
 }
