@@ -1,4 +1,4 @@
-import { closeSync, fsyncSync, openSync, readdirSync, renameSync, rmSync, writeSync } from "node:fs";
+import { closeSync, fsyncSync, openSync, readdirSync, readFileSync, renameSync, rmSync, writeSync } from "node:fs";
 import { basename, dirname, join } from "node:path";
 import { outputTarget } from "./fileIdentity.js";
 
@@ -30,7 +30,8 @@ function processAlive(pid: number): boolean {
 /**
  * Removes the temporary files of our own naming ({@link partialPathFor}, also nested) that writes
  * to `path` left behind when their process was killed: only those whose process no longer exists.
- * Returns the names removed. A directory that cannot be listed is left alone.
+ * Files a pending set commit still lists are kept. Returns the names removed. A directory that
+ * cannot be listed is left alone.
  */
 export function removeStalePartials(path: string): string[] {
   const dir = dirname(path);
@@ -41,10 +42,21 @@ export function removeStalePartials(path: string): string[] {
   } catch {
     return [];
   }
+  // Files a pending set commit (fileSet.ts) still has to rename into place are not stale.
+  const pending = new Set<string>();
+  for (const name of names) {
+    if (!name.startsWith(".") || !name.endsWith(".set-commit.json")) continue;
+    try {
+      const rec = JSON.parse(readFileSync(join(dir, name), "utf8")) as { members?: { staged?: unknown }[] };
+      for (const m of rec.members ?? []) if (typeof m.staged === "string") pending.add(basename(m.staged));
+    } catch {
+      // unreadable: nothing to protect
+    }
+  }
   const removed: string[] = [];
   for (const name of names) {
     const m = pattern.exec(name);
-    if (!m || processAlive(Number(m[1]))) continue;
+    if (!m || pending.has(name) || processAlive(Number(m[1]))) continue;
     try {
       rmSync(join(dir, name), { force: true });
       removed.push(name);
