@@ -158,8 +158,3 @@ export function checkFilePlan(plan: FilePlan): void {
   }
   for (const t of targets) removeStalePartials(t);
 }
-
-/** Shorthand for one output file with no inputs to compare (kept for commands with a single output). */
-export function checkOutputFile(flag: string, path: string, inputs: readonly InputFile[] = []): void {
-  checkFilePlan({ inputs: [...inputs], outputs: [{ flag, path }] });
-}
