@@ -216,6 +216,8 @@ describe("12. merge reads only the shard files in the folder it is given", () =>
     expectRefused(["merge", "m-size"], /merge: m-size\/part-0\.jsonl: \d+ bytes, but its manifest records \d+: the file changed or was cut short; rerun shard 0\/2/);
     shardCopy("m-hash", (m) => (m.candidatesSha256 = "0".repeat(64)));
     expectRefused(["merge", "m-hash"], /merge: m-hash\/part-0\.jsonl: its SHA-256 differs from the one its manifest records/);
+    shardCopy("m-huge", (m) => (m.candidatesBytes = 2 ** 40));
+    expectRefused(["merge", "m-huge"], /merge: m-huge\/part-0\.manifest\.json: records a candidate file of 1099511627776 bytes, more than the \d+ a shard's records can take/);
     shardCopy("m-none", (m) => delete m.candidatesSha256);
     expectRefused(["merge", "m-none"], /records no size and SHA-256 of its candidate file/);
   });

@@ -71,6 +71,8 @@ export function findShardManifests(paths: readonly string[]): string[] {
 
 /** Largest manifest read (bytes): a manifest lists a few blocks and the inputs, far below this. */
 const MAX_MANIFEST_BYTES = 16 << 20;
+/** Largest shard record file read (bytes): survivors and deciding peaks of its segments, far below this. */
+const MAX_RECORD_BYTES = 1 << 30;
 
 /**
  * Reads a regular file of at most `maxBytes` (checked on the open file, so a device or a file
@@ -130,6 +132,9 @@ function readManifest(path: string): ShardManifest {
   }
   if (!Number.isSafeInteger(m.candidatesBytes) || m.candidatesBytes < 0 || typeof m.candidatesSha256 !== "string" || !/^[0-9a-f]{64}$/.test(m.candidatesSha256)) {
     throw new InputError(`merge: ${path}: records no size and SHA-256 of its candidate file (written by an older version?); rerun shard ${m.shard.index}/${m.shard.count}`);
+  }
+  if (m.candidatesBytes > MAX_RECORD_BYTES) {
+    throw new InputError(`merge: ${path}: records a candidate file of ${m.candidatesBytes} bytes, more than the ${MAX_RECORD_BYTES} a shard's records can take; split the run into more shards`);
   }
   return m;
 }
