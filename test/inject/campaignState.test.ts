@@ -24,9 +24,9 @@ describe("campaign state file", () => {
   it("round-trips finished batches, one line each, counting a repeated batch once", () => {
     const path = tmp.path("round.jsonl");
     startCampaignState(path, "f1", { seed: "x" });
-    appendCampaignBatch(path, batch(0));
-    appendCampaignBatch(path, batch(1));
-    appendCampaignBatch(path, batch(1));
+    appendCampaignBatch(path, "f1", batch(0));
+    appendCampaignBatch(path, "f1", batch(1));
+    appendCampaignBatch(path, "f1", batch(1));
     expect(readFileSync(path, "utf8").split("\n")).toHaveLength(5);
     expect(readCampaignState(path, "f1")).toEqual([batch(0), batch(1)]);
     expect(readCampaignState(tmp.path("absent.jsonl"), "f1")).toBeNull();
@@ -35,10 +35,10 @@ describe("campaign state file", () => {
   it("drops a torn last line and cuts it from the file so appending continues cleanly", () => {
     const path = tmp.path("torn.jsonl");
     startCampaignState(path, "f1", {});
-    appendCampaignBatch(path, batch(0));
+    appendCampaignBatch(path, "f1", batch(0));
     appendFileSync(path, '{"type":"batch","batch":1,"startTi');
     expect(readCampaignState(path, "f1")).toEqual([batch(0)]);
-    appendCampaignBatch(path, batch(1));
+    appendCampaignBatch(path, "f1", batch(1));
     expect(readCampaignState(path, "f1")).toEqual([batch(0), batch(1)]);
   });
 
@@ -48,5 +48,13 @@ describe("campaign state file", () => {
     expect(() => readCampaignState(path, "f2")).toThrow(/different arguments/);
     writeFileSync(path, '{"hello":1}\n');
     expect(() => readCampaignState(path, "f1")).toThrow(/not a campaign state file/);
+  });
+
+  it("refuses a batch line of another campaign (two campaigns shared one state file)", () => {
+    const path = tmp.path("shared.jsonl");
+    startCampaignState(path, "f1", {});
+    appendCampaignBatch(path, "f1", batch(0));
+    appendCampaignBatch(path, "f2", batch(1)); // a second campaign, still running, appends here
+    expect(() => readCampaignState(path, "f1")).toThrow(/line 3 is a batch of another campaign/);
   });
 });

@@ -19,7 +19,7 @@ import {
   type TemplateBank,
 } from "@chirpsieve/core";
 import { UsageError, withBankFlagErrors } from "../errors.js";
-import { checkOutputFile } from "../outputPath.js";
+import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
 
@@ -188,8 +188,10 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   const region = parseRegion(flags);
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   if (!flags.out) throw new UsageError(`--out: required (the bank file to write)`);
-  checkOutputFile("--out", flags.out);
-  if (flags.plot) checkOutputFile("--plot", flags.plot);
+  checkFilePlan({
+    inputs: noiseCurveInput("--noise-curve", flags.noiseCurve),
+    outputs: [{ flag: "--out", path: flags.out }, ...(flags.plot ? [{ flag: "--plot", path: flags.plot }] : [])],
+  });
   const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
@@ -303,7 +305,7 @@ async function runSweep(flags: SweepFlags): Promise<void> {
   const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
   const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
   const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
-  if (flags.plot) checkOutputFile("--plot", flags.plot);
+  if (flags.plot) checkFilePlan({ inputs: noiseCurveInput("--noise-curve", flags.noiseCurve), outputs: [{ flag: "--plot", path: flags.plot }] });
   const bar = progressBar("sweep");
   let result: SweepResult;
   try {

@@ -1,7 +1,7 @@
 import type { Command } from "commander";
-import { mergeShards, writeFileAtomic, type Candidate } from "@chirpsieve/core";
+import { mergeShards, readShardSet, writeFileAtomic, type Candidate } from "@chirpsieve/core";
 import { CANDIDATE_CAUTION, chooseCandidateFormat, renderCandidates } from "../candidateFormat.js";
-import { checkOutputFile } from "../outputPath.js";
+import { checkFilePlan } from "../outputPath.js";
 
 interface MergeFlags {
   out?: string;
@@ -33,7 +33,14 @@ export function registerMerge(program: Command): void {
 function runMerge(paths: string[], flags: MergeFlags): void {
   const wallStart = performance.now();
   const format = chooseCandidateFormat(flags);
-  if (flags.out) checkOutputFile("--out", flags.out);
+  if (flags.out) {
+    // Every shard's manifest and record file is an input: --out must be none of them.
+    const inputs = readShardSet(paths).flatMap((f) => [
+      { flag: "shard manifest", path: f.manifestPath },
+      { flag: "shard record file", path: f.candidatesPath },
+    ]);
+    checkFilePlan({ inputs, outputs: [{ flag: "--out", path: flags.out }] });
+  }
   const m = mergeShards(paths);
   const candidates: Candidate[] = m.candidates;
   const summary = {

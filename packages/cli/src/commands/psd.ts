@@ -15,7 +15,7 @@ import {
   type WelchPsd,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputFile, strainInputPaths } from "../outputPath.js";
+import { checkFilePlan, strainInputs } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag } from "../options.js";
 import { nonStrainInputs, printStrainWarnings } from "../strainInputs.js";
 
@@ -59,16 +59,16 @@ export function registerPsd(program: Command): void {
     });
 }
 
-/** Fails early, naming the flag, when a file cannot be written into its directory. */
-
 async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const segmentSeconds = parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
   const average = parseChoiceFlag("--average", flags.average, ["median", "mean"] as const);
   const fminFlag = flags.fmin === undefined ? undefined : parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
-  if (flags.out) checkOutputFile("--out", flags.out, strainInputPaths([file]));
-  if (flags.plot) checkOutputFile("--plot", flags.plot, strainInputPaths([file]));
+  checkFilePlan({
+    inputs: strainInputs("strain file", [file]),
+    outputs: [...(flags.out ? [{ flag: "--out", path: flags.out }] : []), ...(flags.plot ? [{ flag: "--plot", path: flags.plot }] : [])],
+  });
 
   const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
   printStrainWarnings(strain.warnings);

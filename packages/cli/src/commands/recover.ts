@@ -3,7 +3,11 @@ import { mkdirSync } from "node:fs";
 import { join } from "node:path";
 import {
   InputError,
+  acquireRunLock,
   appendCampaignBatch,
+  writeFileSet,
+  writeFileSynced,
+  type RunLock,
   campaignFingerprint,
   detectorByName,
   evaluateRequirements,
@@ -15,7 +19,6 @@ import {
   runCampaign,
   startCampaignState,
   summarizeCampaign,
-  writeFileAtomic,
   type BatchResult,
   type CampaignOptions,
   type PsdModel,
@@ -24,7 +27,7 @@ import {
   type StrainSource,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
+import { checkFilePlan, noiseCurveInput, strainInputs } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { openStrainInput } from "../strainInputs.js";
@@ -132,12 +135,25 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   if (flags.bank && cmd.getOptionValueSource("matchFloor") === "cli") throw new UsageError("--match-floor: only applies to a bank built on the fly, not with --bank");
   const noiseModel: PsdModel | undefined = flags.noiseCurve === undefined ? undefined : asUsage("--noise-curve", () => psdModelFromSpec(flags.noiseCurve!));
   if (strainFiles.length === 0 && fMinFlag >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
-  const inputs = [...strainInputPaths(flags.strain ?? []), ...(flags.bank ? [flags.bank] : [])];
-  if (flags.out) checkOutputFile("--out", flags.out, inputs);
-  if (flags.report) checkOutputFile("--report", flags.report, inputs);
-  if (flags.state) checkOutputDirectory("--state", flags.state);
   const stateDir = flags.state ?? (flags.out ? `${flags.out}.state` : flags.report ? `${flags.report}.state` : undefined);
   if (flags.resume && stateDir === undefined) throw new UsageError("--resume: needs --state DIR, --out or --report to know where the state file is");
+  const stateFlag = flags.state ? "--state" : flags.out ? "--out" : "--report";
+  checkFilePlan({
+    inputs: [
+      ...strainInputs("--strain", strainFiles),
+      ...(flags.bank ? [{ flag: "--bank", path: flags.bank }] : []),
+      ...noiseCurveInput("--noise-curve", flags.noiseCurve),
+      ...noiseCurveInput("--bank-noise-curve", flags.bankNoiseCurve),
+    ],
+    distinct: [strainFiles.map((f) => ({ flag: "--strain", path: f }))],
+    outputs: [
+      ...(flags.out ? [{ flag: "--out", path: flags.out }] : []),
+      ...(flags.report ? [{ flag: "--report", path: flags.report }] : []),
+      ...(stateDir !== undefined
+        ? [{ flag: stateFlag, path: stateDir, kind: "directory" as const }, { flag: stateFlag, path: join(stateDir, "campaign.jsonl"), createDirectory: true }]
+        : []),
+    ],
+  });
 
   // The PSD the search filters with: scan's rule (a named curve, else a Welch estimate).
   const useModel = strainFiles.length > 0 ? noiseModel !== undefined : !!flags.modelPsd;
@@ -148,6 +164,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
   const sources: StrainSource[] = [];
+  let lock: RunLock | undefined;
   try {
     for (const f of strainFiles) sources.push(await openStrainInput(f, { rate: cmd.getOptionValueSource("rate") === "cli" ? rate : undefined, start, dataset: flags.dataset }));
 
@@ -194,6 +211,9 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
     let statePath: string | undefined;
     if (stateDir !== undefined) {
       mkdirSync(stateDir, { recursive: true });
+      // One live campaign per state: a second run waits for nothing and is refused; a killed
+      // run's lock is stale (its process is gone) and taken over.
+      lock = asUsage(stateFlag, () => acquireRunLock(join(stateDir, "campaign.lock"), `the campaign state in ${stateDir}`));
       statePath = join(stateDir, "campaign.jsonl");
       const previous = flags.resume ? readCampaignState(statePath, fingerprint) : null;
       if (previous === null) startCampaignState(statePath, fingerprint, args);
@@ -208,7 +228,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       result = await runCampaign(options, {
         completed,
         onBatch: (r) => {
-          if (statePath) appendCampaignBatch(statePath, r);
+          if (statePath) appendCampaignBatch(statePath, fingerprint, r);
         },
         onProgress: (done, total) => {
           progress.update(0, 1, done, total);
@@ -248,13 +268,20 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
     });
 
     const json = `${JSON.stringify(doc, null, 2)}\n`;
-    if (flags.out) writeFileAtomic(flags.out, json);
-    if (flags.report) writeFileAtomic(flags.report, (await import("../report.js")).renderCampaignReport(doc));
+    // --out and --report are one set: a kill leaves both old or both new.
+    if (flags.out || flags.report) {
+      const html = flags.report ? (await import("../report.js")).renderCampaignReport(doc) : "";
+      await writeFileSet((flags.out ?? flags.report)!, (staged) => {
+        if (flags.out) writeFileSynced(staged(flags.out), json);
+        if (flags.report) writeFileSynced(staged(flags.report), html);
+      });
+    }
     if (flags.json) process.stdout.write(json);
     else process.stdout.write(formatCampaignText(doc));
     for (const c of checks.filter((c) => !c.met)) process.stderr.write(`chirpsieve: requirement not met: ${c.rule}: ${c.detail}\n`);
     if (checks.some((c) => !c.met)) process.exitCode = 1;
   } finally {
+    lock?.release();
     for (const s of sources) await s.close();
   }
 }

@@ -18,6 +18,7 @@ import {
   type PsdSource,
   type SearchSummary,
   journalPathFor,
+  manifestPathFor,
   parseShardSpec,
   startScanRun,
   joinContiguousInputs,
@@ -26,7 +27,7 @@ import {
   type SearchInput,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
+import { checkFilePlan, noiseCurveInput, strainInputs, type FilePlan } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { nonStrainInputs, openStrainInput } from "../strainInputs.js";
@@ -122,9 +123,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const analysisIntervals = flags.keepTimes === undefined ? undefined : readIntervalFile(flags.keepTimes);
   const excludedIntervals = flags.dropTimes === undefined ? undefined : readIntervalFile(flags.dropTimes);
   const format = chooseCandidateFormat(flags);
-  // A shard creates its output directory itself (every task of a job array may race to do so).
-  if (flags.out && !flags.shard) checkOutputFile("--out", flags.out, [...strainInputPaths(files), ...(flags.bank ? [flags.bank] : []), ...(flags.sites ? [flags.sites] : [])]);
-  if (flags.plot) checkOutputDirectory("--plot", flags.plot);
+  checkFilePlan(scanFilePlan(files, network, flags));
   const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
@@ -154,6 +153,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     throw err;
   }
   const nonStrain = nonStrainInputs(sources);
+  if (network.length > 0) checkSitesFromOneRun(network, sources);
   // Files of one site whose samples continue each other are searched as one stream (no lead-in
   // lost at their boundaries); --site files are one per site.
   const streams: SearchInput[] = network.length > 0 ? sources : joinContiguousInputs(sources);
@@ -293,6 +293,54 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   }
 }
 
+/**
+ * Everything a scan reads and writes: the strain files (and sidecars), bank, noise-curve tables and
+ * sites file; --out, and for a shard its manifest, for --resume its journal, and --plot. A shard
+ * may create its output directory (every task of a job array may race to do so).
+ */
+function scanFilePlan(files: string[], network: NetworkSite[], flags: ScanFlags): FilePlan {
+  const strainFlag = network.length > 0 ? "--site" : "strain file";
+  const strain = strainInputs(strainFlag, files);
+  const inputs = [
+    ...strain,
+    ...(flags.bank ? [{ flag: "--bank", path: flags.bank }] : []),
+    ...noiseCurveInput("--noise-curve", flags.noiseCurve),
+    ...noiseCurveInput("--bank-noise-curve", flags.bankNoiseCurve),
+    ...(flags.sites ? [{ flag: "--sites", path: flags.sites }] : []),
+  ];
+  const distinct = network.length > 0
+    ? [network.map((s) => ({ flag: "--site", path: s.file, shown: `${s.name}=${s.file}` }))]
+    : [files.map((f) => ({ flag: strainFlag, path: f }))];
+  const outputs: FilePlan["outputs"] = [];
+  if (flags.out) {
+    const createDirectory = !!flags.shard;
+    outputs.push({ flag: "--out", path: flags.out, createDirectory });
+    if (flags.shard) outputs.push({ flag: "--shard", path: manifestPathFor(flags.out), createDirectory });
+    if (flags.resume) outputs.push({ flag: "--resume", path: journalPathFor(flags.out), createDirectory });
+  }
+  if (flags.plot) outputs.push({ flag: "--plot", path: flags.plot, kind: "directory" });
+  return { inputs, outputs, distinct };
+}
+
+/**
+ * Refuses sites whose files were written by different runs of a multi-site `simulate` (their
+ * sidecars record the run): such files are not one simulated network, and their coincidences
+ * would mean nothing. Files that record no run (or a single-site one) are not judged.
+ */
+function checkSitesFromOneRun(network: NetworkSite[], sources: StrainSource[]): void {
+  let first: { site: NetworkSite; id: string } | undefined;
+  network.forEach((site, i) => {
+    const run = sources[i].run;
+    if (!run || run.sites.length < 2) return;
+    if (!first) first = { site, id: run.id };
+    else if (run.id !== first.id) {
+      throw new UsageError(
+        `--site: ${first.site.name}=${first.site.file} and ${site.name}=${site.file} come from different simulate runs ` +
+          `(run ids ${first.id.slice(0, 12)}… and ${run.id.slice(0, 12)}…); rerun simulate to write the sites together`,
+      );
+    }
+  });
+}
 
 /** Runs a search step, adding the flag that lets bad data be left out to core's refusal of it. */
 async function withBadDataHint<T>(work: () => Promise<T>): Promise<T> {

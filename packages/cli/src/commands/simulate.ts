@@ -2,6 +2,8 @@ import type { Command } from "commander";
 import {
   type Injection,
   InputError,
+  campaignFingerprint,
+  writeFileSet,
   chirpMass,
   siteByName,
   siteCatalogue,
@@ -18,7 +20,8 @@ import {
   writeStrain,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
-import { checkOutputFile } from "../outputPath.js";
+import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
+import { VERSION } from "../version.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { DEFAULT_PSD_SEGMENT_SECONDS } from "../searchFlags.js";
 
@@ -144,10 +147,19 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     const out = multi ? siteFileName(flags.out!, d.name) : flags.out!;
     return { detector: d, out, manifest: multi ? `${out}.injections.json` : (flags.manifest ?? `${out}.injections.json`) };
   });
-  for (const o of outputs) {
-    checkOutputFile("--out", o.out, flags.inject ? [flags.inject] : []);
-    checkOutputFile("--manifest", o.manifest);
-  }
+  const raw = format === "f32" || format === "f64";
+  checkFilePlan({
+    inputs: [
+      ...(flags.inject ? [{ flag: "--inject", path: flags.inject }] : []),
+      ...noiseCurveInput("--noise-curve", flags.noiseCurve),
+      ...(flags.sites ? [{ flag: "--sites", path: flags.sites }] : []),
+    ],
+    outputs: outputs.flatMap((o) => [
+      { flag: "--out", path: o.out },
+      ...(raw ? [{ flag: "--out", path: `${o.out}.json` }] : []),
+      { flag: "--manifest", path: o.manifest },
+    ]),
+  });
 
   const random = flags.injectRandom !== undefined;
   if (random && flags.inject !== undefined) throw new UsageError("--inject-random: cannot be combined with --inject");
@@ -234,54 +246,71 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   const network = injections.map((inj, k) =>
     random && inj.optimalSnr !== undefined ? inj.optimalSnr : Math.sqrt(perSite.reduce((a, site) => a + site[k] ** 2, 0)),
   );
+  // Equal settings give an equal run id (and equal bytes); the sidecars record it with the sites
+  // written together, so a reader can tell files of one run from files of two.
+  const run = {
+    id: campaignFingerprint({
+      tool: "chirpsieve simulate", version: VERSION, noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start,
+      duration, fMinHz: fmin, seed, detectors: detectors.map((d) => d.name), injections, label: flags.label ?? null,
+    }),
+    sites: detectors.map((d) => d.name),
+  };
   const lines: string[] = [];
   if (edgeNote) lines.push(edgeNote);
-  for (const [oi, o] of outputs.entries()) {
-    // The noise of each site is independent (its own seed), one site keeps `SEED:noise`.
-    const siteInjections = injections.map((inj, k) => ({
-      ...inj,
-      optimalSnr: perSite[oi][k],
-      ...(multi ? { networkOptimalSnr: network[k] } : {}),
-    }));
-    const noiseSeed = multi ? `${seed}:noise:${o.detector.name}` : `${seed}:noise`;
-    // Generated in chunks; held once, as float32 when the file is float32, to keep memory down.
-    const data = format === "f32" ? new Float32Array(samples) : new Float64Array(samples);
-    let offset = 0;
-    for (const chunk of synthesizeStrain({
-      psd,
-      sampleRate: rate,
-      startTime: start,
-      duration,
-      seed: noiseSeed,
-      fMinHz: fmin,
-      injections: siteInjections,
-      detector: o.detector,
-      noise: flags.noise,
-    })) {
-      data.set(chunk, offset);
-      offset += chunk.length;
-    }
-    await writeStrain(o.out, { data, sampleRate: rate, startTime: start, label: flags.label ?? `synthetic ${o.detector.name}`, units: "strain" });
-    writeInjectionManifest(
-      o.manifest,
-      injectionManifest(
-        { noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, detector: o.detector.name },
-        siteInjections,
-      ),
-    );
-    lines.push(
-      `wrote ${o.out}: ${duration} s at ${rate} Hz, ${flags.noise ? `${psd.name} noise` : "no noise"}, ` +
-        `${siteInjections.length} injection${siteInjections.length === 1 ? "" : "s"} on ${o.detector.name} (synthetic data)`,
-      `manifest ${o.manifest}`,
-    );
-    for (const inj of siteInjections) {
-      lines.push(
-        `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
-          `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
-          `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}${inj.networkOptimalSnr !== undefined ? ` (network ${inj.networkOptimalSnr.toFixed(2)})` : ""}`,
+  // Every file of every site is staged first and renamed into place together (writeFileSet): a kill
+  // leaves the whole old set or the whole new one.
+  await writeFileSet(flags.out, async (staged) => {
+    for (const [oi, o] of outputs.entries()) {
+      // The noise of each site is independent (its own seed), one site keeps `SEED:noise`.
+      const siteInjections = injections.map((inj, k) => ({
+        ...inj,
+        optimalSnr: perSite[oi][k],
+        ...(multi ? { networkOptimalSnr: network[k] } : {}),
+      }));
+      const noiseSeed = multi ? `${seed}:noise:${o.detector.name}` : `${seed}:noise`;
+      // Generated in chunks; held once, as float32 when the file is float32, to keep memory down.
+      const data = format === "f32" ? new Float32Array(samples) : new Float64Array(samples);
+      let offset = 0;
+      for (const chunk of synthesizeStrain({
+        psd,
+        sampleRate: rate,
+        startTime: start,
+        duration,
+        seed: noiseSeed,
+        fMinHz: fmin,
+        injections: siteInjections,
+        detector: o.detector,
+        noise: flags.noise,
+      })) {
+        data.set(chunk, offset);
+        offset += chunk.length;
+      }
+      await writeStrain(
+        staged(o.out),
+        { data, sampleRate: rate, startTime: start, label: flags.label ?? `synthetic ${o.detector.name}`, units: "strain", run },
+        { format, sidecarPath: raw ? staged(`${o.out}.json`) : undefined },
       );
+      writeInjectionManifest(
+        staged(o.manifest),
+        injectionManifest(
+          { noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, detector: o.detector.name },
+          siteInjections,
+        ),
+      );
+      lines.push(
+        `wrote ${o.out}: ${duration} s at ${rate} Hz, ${flags.noise ? `${psd.name} noise` : "no noise"}, ` +
+          `${siteInjections.length} injection${siteInjections.length === 1 ? "" : "s"} on ${o.detector.name} (synthetic data)`,
+        `manifest ${o.manifest}`,
+      );
+      for (const inj of siteInjections) {
+        lines.push(
+          `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
+            `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
+            `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}${inj.networkOptimalSnr !== undefined ? ` (network ${inj.networkOptimalSnr.toFixed(2)})` : ""}`,
+        );
+      }
     }
-  }
+  });
   process.stdout.write(`${lines.join("\n")}\n`);
 }
 

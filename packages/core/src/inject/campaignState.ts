@@ -2,12 +2,13 @@ import { createHash } from "node:crypto";
 import { closeSync, existsSync, fsyncSync, openSync, readFileSync, truncateSync, writeSync } from "node:fs";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
+import { crashPoint } from "../io/crashPoint.js";
 import type { BatchResult } from "./campaign.js";
 
 /** The first line of a campaign state file. */
 export interface CampaignStateHeader {
   type: "campaign-state";
-  format: 1;
+  format: 2;
   /** Hash of the arguments that determine the campaign's results ({@link campaignFingerprint}). */
   fingerprint: string;
   /** The arguments themselves, for a person reading the file. */
@@ -45,20 +46,25 @@ function appendLine(path: string, line: string): void {
 
 /** Starts (or restarts) a state file: the header line alone, written atomically. */
 export function startCampaignState(path: string, fingerprint: string, args: unknown): void {
-  const header: CampaignStateHeader = { type: "campaign-state", format: 1, fingerprint, arguments: args };
+  const header: CampaignStateHeader = { type: "campaign-state", format: 2, fingerprint, arguments: args };
   writeFileAtomic(path, `${JSON.stringify(header)}\n`);
 }
 
-/** Records one finished batch: one JSON line appended with one write and an fsync. */
-export function appendCampaignBatch(path: string, result: BatchResult): void {
-  appendLine(path, JSON.stringify({ type: "batch", ...result }));
+/**
+ * Records one finished batch of the campaign `fingerprint`: one JSON line, carrying the campaign's
+ * fingerprint, appended with one write and an fsync.
+ */
+export function appendCampaignBatch(path: string, fingerprint: string, result: BatchResult): void {
+  appendLine(path, JSON.stringify({ type: "batch", campaign: fingerprint, ...result }));
+  crashPoint(`campaign-batch-${result.batch}`);
 }
 
 /**
  * Reads the finished batches of a state file written for the same fingerprint. A last line cut
  * short by a crash (no newline, or not JSON) is dropped and cut from the file so that appending
  * continues cleanly; a batch recorded twice counts once. Throws InputError when the file is not a
- * state file or was written for different arguments. Returns null when the file does not exist.
+ * state file, was written for different arguments, or holds a batch line of another campaign (two
+ * campaigns shared the file). Returns null when the file does not exist.
  */
 export function readCampaignState(path: string, fingerprint: string): BatchResult[] | null {
   if (!existsSync(path)) return null;
@@ -78,7 +84,10 @@ export function readCampaignState(path: string, fingerprint: string): BatchResul
       throw new InputError(`${path}: line ${i + 1} is not valid JSON; the state file is damaged (start afresh without --resume)`);
     }
     if (i === 0) {
-      if (rec.type !== "campaign-state" || rec.format !== 1 || typeof rec.fingerprint !== "string") {
+      if (rec.type === "campaign-state" && rec.format === 1) {
+        throw new InputError(`${path}: a state file of an older version (its batches carry no campaign identity); start afresh without --resume`);
+      }
+      if (rec.type !== "campaign-state" || rec.format !== 2 || typeof rec.fingerprint !== "string") {
         throw new InputError(`${path}: not a campaign state file (its first line is not a campaign-state header)`);
       }
       header = rec as unknown as CampaignStateHeader;
@@ -89,7 +98,14 @@ export function readCampaignState(path: string, fingerprint: string): BatchResul
         );
       }
     } else if (rec.type === "batch") {
-      const { type: _t, ...result } = rec;
+      if (rec.campaign !== fingerprint) {
+        const other = typeof rec.campaign === "string" ? `${rec.campaign.slice(0, 12)}…` : "none";
+        throw new InputError(
+          `${path}: line ${i + 1} is a batch of another campaign (fingerprint ${other}, this one ${fingerprint.slice(0, 12)}…): two campaigns shared this state; ` +
+            "start afresh without --resume, and give each campaign its own --state",
+        );
+      }
+      const { type: _t, campaign: _c, ...result } = rec;
       const r = result as unknown as BatchResult;
       if (!batches.has(r.batch)) batches.set(r.batch, r);
     }

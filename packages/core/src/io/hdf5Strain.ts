@@ -1,6 +1,8 @@
 // HDF5 strain files through h5wasm (internal: use strainFile.ts).
 import { open, rename, rm } from "node:fs/promises";
-import { basename, dirname, join, resolve } from "node:path";
+import { resolve } from "node:path";
+import { partialPathFor, removeStalePartials } from "./atomicWrite.js";
+import { outputTarget } from "./fileIdentity.js";
 import { InputError } from "../errors.js";
 import { Hdf5Failure, hdf5Request } from "./hdf5Client.js";
 import { agrees, checkFinite, checkReadRange, inputFsError, shown, statInputFile } from "./strainChecks.js";
@@ -384,7 +386,9 @@ export function hdf5DatasetSegments(dataset: string): string[] {
 export async function writeHdf5Strain(path: string, series: StrainWriteInput, dataset = "strain"): Promise<void> {
   const segments = hdf5DatasetSegments(dataset);
   const data = Float64Array.from(series.data);
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.${Date.now()}.partial`);
+  const target = outputTarget(path);
+  removeStalePartials(target);
+  const tmp = partialPathFor(target);
   const numberAttrs: [string, number][] = [
     ["sampleRate", series.sampleRate],
     ["startTime", series.startTime],
@@ -409,7 +413,7 @@ export async function writeHdf5Strain(path: string, series: StrainWriteInput, da
     } finally {
       await handle.close();
     }
-    await rename(tmp, path);
+    await rename(tmp, target);
   } catch (err) {
     await rm(tmp, { force: true });
     throw err;

@@ -1,4 +1,6 @@
 export * from "./atomicWrite.js";
+export * from "./fileIdentity.js";
+export * from "./fileSet.js";
 export * from "./strainTypes.js";
 export * from "./strainFormat.js";
 export * from "./strainFile.js";
@@ -7,3 +9,4 @@ export * from "./readTextInput.js";
 export * from "./intervalFile.js";
 export * from "./constantSeries.js";
 export * from "./strainUnits.js";
+export * from "./runLock.js";

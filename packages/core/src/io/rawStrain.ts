@@ -12,7 +12,7 @@ import {
   shown,
   statInputFile,
 } from "./strainChecks.js";
-import type { StrainOpenOptions, StrainSource, StrainWriteInput } from "./strainTypes.js";
+import type { StrainOpenOptions, StrainRun, StrainSource, StrainWriteInput } from "./strainTypes.js";
 
 /** The two raw formats: IEEE-754 float32 (.f32) or float64 (.f64) samples. */
 export type RawStrainFormat = "f32" | "f64";
@@ -21,7 +21,7 @@ export type RawStrainFormat = "f32" | "f64";
 export type ByteOrder = "little" | "big";
 
 /** The keys a sidecar may hold; any other is reported as a warning and ignored. */
-export const RAW_SIDECAR_KEYS: readonly string[] = ["sampleRate", "startTime", "label", "units", "length", "sampleType", "byteOrder"];
+export const RAW_SIDECAR_KEYS: readonly string[] = ["sampleRate", "startTime", "label", "units", "length", "sampleType", "byteOrder", "run"];
 
 const SAMPLE_TYPE: Record<RawStrainFormat, "float32" | "float64"> = { f32: "float32", f64: "float64" };
 const SAMPLE_BYTES: Record<RawStrainFormat, number> = { f32: 4, f64: 8 };
@@ -44,6 +44,8 @@ export interface RawSidecar {
   byteOrder: ByteOrder;
   /** One line per unknown key, naming the sidecar (the key is ignored). */
   warnings: string[];
+  /** The run that wrote the file, when the sidecar records it. */
+  run?: StrainRun;
 }
 
 /**
@@ -108,6 +110,12 @@ export function parseRawSidecar(sidecar: string, text: string, format: RawStrain
     }
     out.length = n;
   }
+  const run = o.run as Record<string, unknown> | undefined;
+  if (run !== undefined) {
+    const ok = run !== null && typeof run === "object" && typeof run.id === "string" && Array.isArray(run.sites) && run.sites.every((x) => typeof x === "string");
+    if (!ok) throw new InputError(`${sidecar}: run must be {"id": text, "sites": [names]} (got ${shown(run)})`);
+    out.run = { id: run.id as string, sites: [...(run.sites as string[])] };
+  }
   return out;
 }
 
@@ -143,6 +151,7 @@ class RawStrainSource implements StrainSource {
     readonly warnings: readonly string[],
     readonly label?: string,
     readonly units?: string,
+    readonly run?: StrainRun,
   ) {
     this.handle = handle;
   }
@@ -267,15 +276,22 @@ export async function openRawStrain(
     meta.warnings,
     meta.label,
     meta.units,
+    meta.run,
   );
 }
 
 /**
  * Writes raw samples in `byteOrder` (default little-endian) and then the sidecar (which states
- * the byte order), each atomically (temporary file, then rename), so a reader that finds the
- * sidecar finds the whole data file. Assumes a checked series.
+ * the byte order; at `sidecarPath`, default `<path>.json`), each atomically (temporary file, then
+ * rename), so a reader that finds the sidecar finds the whole data file. Assumes a checked series.
  */
-export function writeRawStrain(path: string, series: StrainWriteInput, format: RawStrainFormat, byteOrder: ByteOrder = "little"): void {
+export function writeRawStrain(
+  path: string,
+  series: StrainWriteInput,
+  format: RawStrainFormat,
+  byteOrder: ByteOrder = "little",
+  sidecarPath = rawSidecarPath(path),
+): void {
   const bytes = encodeSamples(path, series.data, format, byteOrder);
   const meta: Record<string, unknown> = {
     sampleRate: series.sampleRate,
@@ -286,6 +302,7 @@ export function writeRawStrain(path: string, series: StrainWriteInput, format: R
   };
   if (series.label !== undefined) meta.label = series.label;
   if (series.units !== undefined) meta.units = series.units;
+  if (series.run !== undefined) meta.run = { id: series.run.id, sites: [...series.run.sites] };
   writeFileAtomic(path, bytes);
-  writeFileAtomic(rawSidecarPath(path), `${JSON.stringify(meta, null, 2)}\n`);
+  writeFileAtomic(sidecarPath, `${JSON.stringify(meta, null, 2)}\n`);
 }

@@ -117,7 +117,7 @@ export async function writeStrain(
   switch (format) {
     case "f32":
     case "f64":
-      writeRawStrain(path, series, format, byteOrder);
+      writeRawStrain(path, series, format, byteOrder, options.sidecarPath);
       return;
     case "text":
       writeTextStrain(path, series);

@@ -68,6 +68,8 @@ export interface StrainSource {
   readonly units?: string;
   /** Non-fatal remarks about the file (e.g. an unknown sidecar key), one line each naming the file. */
   readonly warnings?: readonly string[];
+  /** The run that wrote the file, when its sidecar records one (raw files written by this tool). */
+  readonly run?: StrainRun;
   read(offset: number, count: number): Promise<Float64Array>;
   close(): Promise<void>;
 }
@@ -79,6 +81,17 @@ export interface StrainWriteInput {
   startTime: number;
   label?: string;
   units?: string;
+  /** Recorded in a raw file's sidecar: the run that wrote it (and its sibling files). */
+  run?: StrainRun;
+}
+
+/**
+ * The run that wrote a strain file: an id equal for equal settings, and the names of the sites
+ * whose files that run wrote together (one file per site).
+ */
+export interface StrainRun {
+  id: string;
+  sites: string[];
 }
 
 /** How to write a strain file. */
@@ -91,4 +104,6 @@ export interface StrainWriteOptions {
   byteOrder?: "little" | "big";
   /** Default "error": refuse to write NaN/±Infinity samples (the reader would reject them). */
   nonFinite?: "error" | "allow";
+  /** Where a raw file's sidecar goes (default `<path>.json`); for writers staging a set of files. */
+  sidecarPath?: string;
 }

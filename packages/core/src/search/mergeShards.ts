@@ -1,4 +1,5 @@
-import { existsSync, readdirSync, readFileSync, statSync } from "node:fs";
+import { createHash } from "node:crypto";
+import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readSync, statSync } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
 import { InputError } from "../errors.js";
 import { mergeSegmentRecords, type MergedScan } from "./mergeSegments.js";
@@ -68,10 +69,44 @@ export function findShardManifests(paths: readonly string[]): string[] {
   return out;
 }
 
+/** Largest manifest read (bytes): a manifest lists a few blocks and the inputs, far below this. */
+const MAX_MANIFEST_BYTES = 16 << 20;
+/** Largest shard record file read (bytes): survivors and deciding peaks of its segments, far below this. */
+const MAX_RECORD_BYTES = 1 << 30;
+
+/**
+ * Reads a regular file of at most `maxBytes` (checked on the open file, so a device or a file
+ * swapped in between is never read unbounded). Returns the bytes.
+ */
+function readBoundedFile(path: string, maxBytes: number, what: string): Buffer {
+  let fd = -1;
+  try {
+    fd = openSync(path, "r");
+    const st = fstatSync(fd);
+    if (!st.isFile()) throw new InputError(`merge: ${path}: not a regular file (${what})`);
+    if (st.size > maxBytes) throw new InputError(`merge: ${path}: ${st.size} bytes, more than the ${maxBytes} expected of ${what}`);
+    const buf = Buffer.alloc(st.size);
+    let got = 0;
+    while (got < buf.length) {
+      const n = readSync(fd, buf, got, buf.length - got, got);
+      if (n <= 0) break;
+      got += n;
+    }
+    if (got !== st.size) throw new InputError(`merge: ${path}: changed while being read`);
+    return buf;
+  } catch (err) {
+    if (err instanceof InputError) throw err;
+    throw new InputError(`merge: ${path}: cannot read ${what} (${(err as Error).message.split("\n")[0]})`);
+  } finally {
+    if (fd >= 0) closeSync(fd);
+  }
+}
+
 function readManifest(path: string): ShardManifest {
   let m: ShardManifest;
+  const bytes = readBoundedFile(path, MAX_MANIFEST_BYTES, "a shard manifest");
   try {
-    m = JSON.parse(readFileSync(path, "utf8")) as ShardManifest;
+    m = JSON.parse(bytes.toString("utf8")) as ShardManifest;
   } catch (error) {
     throw new InputError(`merge: ${path}: not a readable JSON manifest (${(error as Error).message.split("\n")[0]})`);
   }
@@ -91,6 +126,16 @@ function readManifest(path: string): ShardManifest {
     typeof m.search === "object" &&
     Array.isArray(m.covered?.blocks);
   if (!ok) throw new InputError(`merge: ${path}: not a chirpsieve shard manifest`);
+  // The record file must be a plain name in the manifest's own folder: no path, no way out of it.
+  if (m.candidates === "" || m.candidates === "." || m.candidates === ".." || /[\\/\0]/.test(m.candidates)) {
+    throw new InputError(`merge: ${path}: candidates ${JSON.stringify(m.candidates)} is not a file name in the manifest's folder`);
+  }
+  if (!Number.isSafeInteger(m.candidatesBytes) || m.candidatesBytes < 0 || typeof m.candidatesSha256 !== "string" || !/^[0-9a-f]{64}$/.test(m.candidatesSha256)) {
+    throw new InputError(`merge: ${path}: records no size and SHA-256 of its candidate file (written by an older version?); rerun shard ${m.shard.index}/${m.shard.count}`);
+  }
+  if (m.candidatesBytes > MAX_RECORD_BYTES) {
+    throw new InputError(`merge: ${path}: records a candidate file of ${m.candidatesBytes} bytes, more than the ${MAX_RECORD_BYTES} a shard's records can take; split the run into more shards`);
+  }
   return m;
 }
 
@@ -155,9 +200,18 @@ export function readShardRecords(f: ShardFiles): SegmentRecord[] {
   if (!existsSync(f.candidatesPath)) {
     throw new InputError(`merge: ${f.candidatesPath}: no such file (the candidates of shard ${shardLabel(f.manifest.shard)})`);
   }
-  const lines = readFileSync(f.candidatesPath, "utf8").split("\n").filter((l) => l.trim() !== "");
   const label = shardLabel(f.manifest.shard);
   const where = `merge: ${f.candidatesPath}`;
+  if (lstatSync(f.candidatesPath).isSymbolicLink()) throw new InputError(`${where}: a symbolic link; a shard's candidate file must be a regular file in the shard folder`);
+  const size = statSync(f.candidatesPath).size;
+  if (size !== f.manifest.candidatesBytes) {
+    throw new InputError(`${where}: ${size} bytes, but its manifest records ${f.manifest.candidatesBytes}: the file changed or was cut short; rerun shard ${label}`);
+  }
+  const bytes = readBoundedFile(f.candidatesPath, f.manifest.candidatesBytes, `the candidates of shard ${label}`);
+  if (createHash("sha256").update(bytes).digest("hex") !== f.manifest.candidatesSha256) {
+    throw new InputError(`${where}: its SHA-256 differs from the one its manifest records: the file changed; rerun shard ${label}`);
+  }
+  const lines = bytes.toString("utf8").split("\n").filter((l) => l.trim() !== "");
   const parsed = lines.map((l, i) => {
     try {
       return JSON.parse(l) as Record<string, unknown>;

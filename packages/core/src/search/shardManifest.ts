@@ -62,8 +62,11 @@ export interface ShardManifest {
   /** Hash of everything that shapes the result, except the shard: equal for every shard of one run. */
   runId: string;
   shard: ShardSpec;
-  /** The candidate (segment record) file, relative to the manifest's folder. */
+  /** The candidate (segment record) file's name, in the manifest's folder. */
   candidates: string;
+  /** Size (bytes) and SHA-256 (hex) of the candidate file as written: a merge reads nothing else. */
+  candidatesBytes: number;
+  candidatesSha256: string;
   /** Blocks of (input, segments, templates) this shard ran, inclusive ranges. */
   covered: { blocks: WorkBlock[] };
   inputs: RunInput[];

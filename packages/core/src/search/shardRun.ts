@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { mkdirSync } from "node:fs";
 import { basename, dirname } from "node:path";
 import { InputError } from "../errors.js";
@@ -147,7 +148,8 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
       const lines = [JSON.stringify({ type: "shard", tool: "chirpsieve", runId, shard })];
       for (const c of covered) lines.push(JSON.stringify(records.get(key(c.input, c.segment))));
       lines.push(JSON.stringify({ type: "end", segments: covered.length }));
-      writeFileAtomic(candidatesPath, lines.join("\n") + "\n");
+      const text = Buffer.from(lines.join("\n") + "\n", "utf8");
+      writeFileAtomic(candidatesPath, text);
       const manifest: ShardManifest = {
         tool: "chirpsieve",
         format: 1,
@@ -155,6 +157,8 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
         runId,
         shard,
         candidates: basename(candidatesPath),
+        candidatesBytes: text.length,
+        candidatesSha256: createHash("sha256").update(text).digest("hex"),
         covered: { blocks: work.blocks.map((b) => ({ input: b.input, segments: [...b.segments] as [number, number], templates: [...b.templates] as [number, number] })) },
         inputs,
         search,
