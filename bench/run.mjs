@@ -297,7 +297,7 @@ const rssLong = rssChild(16 * SECONDS);
 log(`  ${rssShort.seconds} s: ${rssShort.peakRssMb.toFixed(0)} MB; ${rssLong.seconds} s: ${rssLong.peakRssMb.toFixed(0)} MB`);
 
 // The README's demo (`npm run demo`): the whole command, CLI start-up and bank placement included
-// (the demo issue asks for under a minute on a 2-core machine). Median of 3 runs.
+// (target: under a minute on a 2-core machine). Median of 3 runs.
 const demoScript = JSON.parse(readFileSync(new URL("../package.json", import.meta.url), "utf8")).scripts.demo;
 const demoArgs = demoScript.split(/\s+/).slice(1);
 const demoRoot = fileURLToPath(new URL("..", import.meta.url));

@@ -1,8 +1,27 @@
-import { describe, expect, it } from "vitest";
-import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { describe, expect, it, vi } from "vitest";
+import { mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { ajith2011, buildBank, formatBankFile, parseBankFile, readBankFile, writeBankFile } from "@chirpsieve/core";
+
+/**
+ * Fault injection for the atomic-write test: while `fault.failAfterBytes` is set, the library's
+ * writeSync writes at most that many bytes for real and then throws ENOSPC, as a full disk would
+ * in the middle of a write. Otherwise it is the real writeSync.
+ */
+const fault = vi.hoisted(() => ({ failAfterBytes: undefined as number | undefined, written: 0 }));
+vi.mock("node:fs", async (importOriginal) => {
+  const fs = await importOriginal<typeof import("node:fs")>();
+  const writeSync = ((fd: number, buffer: Uint8Array, offset?: number, length?: number) => {
+    if (fault.failAfterBytes === undefined) return (fs.writeSync as Function)(fd, buffer, offset, length);
+    const room = fault.failAfterBytes - fault.written;
+    if (room <= 0) throw Object.assign(new Error("ENOSPC: no space left on device, write"), { code: "ENOSPC", syscall: "write" });
+    const n = (fs.writeSync as Function)(fd, buffer, offset, Math.min(room, length ?? buffer.length - (offset ?? 0)));
+    fault.written += n;
+    return n;
+  }) as typeof fs.writeSync;
+  return { ...fs, default: { ...fs, writeSync }, writeSync };
+});
 
 const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011, massRatioCap: 2 });
 /** A template with unequal masses (swapping its masses makes it invalid). */
@@ -58,10 +77,24 @@ describe("bank files", () => {
     }
   });
 
-  it("writes atomically: a failed write leaves no partial file", () => {
+  it("writes atomically: a write that fails midway leaves the old file intact and no temporary file", () => {
     const dir = mkdtempSync(join(tmpdir(), "chirpsieve-bank-"));
-    writeFileSync(join(dir, "keep.json"), "old");
-    expect(() => writeBankFile(join(dir, "missing-dir", "b.json"), bank)).toThrow();
-    expect(readFileSync(join(dir, "keep.json"), "utf8")).toBe("old");
+    const path = join(dir, "bank.json");
+    writeFileSync(path, "old bank");
+    const text = formatBankFile(bank);
+    fault.failAfterBytes = Math.floor(text.length / 2); // half the file reaches the disk, then it is full
+    fault.written = 0;
+    try {
+      expect(() => writeBankFile(path, bank)).toThrow(/ENOSPC/);
+    } finally {
+      fault.failAfterBytes = undefined;
+    }
+    expect(fault.written).toBe(Math.floor(text.length / 2)); // the fault struck in mid-write
+    expect(readFileSync(path, "utf8")).toBe("old bank");
+    expect(readdirSync(dir)).toEqual(["bank.json"]);
+    // Without the fault the same call replaces the file whole.
+    writeBankFile(path, bank);
+    expect(readFileSync(path, "utf8")).toBe(text);
+    expect(readdirSync(dir)).toEqual(["bank.json"]);
   });
 });

@@ -120,7 +120,7 @@ describe("economy of the placement", () => {
 
 describe("economy of a band a few cells wide", () => {
   it("1–3 M_sun from 30 Hz (MM 0.97) holds at most 1.3× its metric-volume estimate, and is covered", () => {
-    // The example region: a band from zero to about 5.6 covering radii wide (under the placement
+    // An example region: a band from zero to about 5.6 covering radii wide (under the placement
     // metric), so a lattice needs a boundary layer as large as its area term (6004 templates alone).
     // Staggered rows along the band (stripPlacement.ts) need no boundary layer: measured 4555 templates,
     // 1.29× the metric-volume estimate (3524; Owen, Phys. Rev. D 53, 6749 (1996)). An ideal strip

@@ -55,7 +55,6 @@ describe("time-slide background of two independent noise streams", () => {
   it("finds as many foreground coincidences as R1 · R2 · 2τ · T predicts (Poisson, 4σ)", () => {
     const expected = expectedPerSlide(a, b, 5.5, seconds);
     const observed = r.coincidences.length;
-    console.log(`foreground: expected ${expected.toFixed(1)}, observed ${observed}`);
     expect(Math.abs(observed - expected)).toBeLessThan(4 * Math.sqrt(expected));
   });
 
@@ -69,7 +68,6 @@ describe("time-slide background of two independent noise streams", () => {
         loudestWithinSeconds: 0.1,
         timingToleranceSeconds: TOLERANCE,
       }).summary.backgroundCoincidences;
-      console.log(`background, both members above ${x}: expected ${expected.toFixed(1)}, observed ${observed}`);
       // Slides pair different triggers, so their counts are close to independent Poisson draws.
       expect(Math.abs(observed - expected)).toBeLessThan(4 * Math.sqrt(expected) + 1);
     }
@@ -99,7 +97,6 @@ describe("time-slide background of three independent noise streams", () => {
     // Triple coincidences are ~R · 2τ / M ≈ 0.2 % of the pairs (and then replace pairs): ignored.
     const expected = r.summary.slides * perSlide;
     const observed = r.summary.backgroundCoincidences;
-    console.log(`three sites: ${r.summary.slides} slides, background expected ${expected.toFixed(1)}, observed ${observed}; foreground ${r.coincidences.length} vs ${perSlide.toFixed(1)}`);
     expect(r.summary.slides).toBe(200);
     expect(Math.abs(observed - expected)).toBeLessThan(4 * Math.sqrt(expected) + 0.01 * expected);
     expect(Math.abs(r.coincidences.length - perSlide)).toBeLessThan(4 * Math.sqrt(perSlide));
@@ -143,7 +140,6 @@ describe("false-alarm probabilities under the noise-only hypothesis", () => {
     expect(empty).toBe(0);
     const ks = kstest(loudestFaps, "uniform", 0, 1);
     const mean = loudestFaps.reduce((s, x) => s + x, 0) / loudestFaps.length;
-    console.log(`loudest FAP: KS p = ${ks.pValue.toFixed(3)}, mean ${mean.toFixed(3)} over ${loudestFaps.length}`);
     expect(ks.pValue).toBeGreaterThan(0.01);
     // Mean of U(0,1) is 1/2 with standard error 1/√(12 n).
     expect(Math.abs(mean - 0.5)).toBeLessThan(4 / Math.sqrt(12 * loudestFaps.length));
@@ -151,7 +147,6 @@ describe("false-alarm probabilities under the noise-only hypothesis", () => {
 
   it("the share of background at least as loud is uniform over all foreground coincidences (KS test)", () => {
     const ks = kstest(fractions, "uniform", 0, 1);
-    console.log(`background share: KS p = ${ks.pValue.toFixed(3)} over ${fractions.length}`);
     expect(ks.pValue).toBeGreaterThan(0.01);
   });
 });

@@ -45,10 +45,6 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
     }
     const r = analyseCoincidences(scans, { slideStepSeconds: 1 });
     const fg = Math.min(scans[0].analysedSeconds, scans[1].analysedSeconds);
-    console.log(
-      `triggers ${scans.map((s) => s.candidates.length).join(" + ")}, analysed ${fg} s, coincidences ${r.coincidences.length}, ` +
-        `background ${r.summary.backgroundCoincidences} in ${r.summary.slides} slides, FAPs ${r.coincidences.map((c) => c.falseAlarmProbability.toFixed(3)).join(" ")}`,
-    );
     expect(scans[0].candidates.length).toBeGreaterThan(20);
     expect(r.summary.slidesPerSide).toBe(63); // ⌊(128 − 1) / 2⌋
     expect(r.summary.foregroundSeconds).toBe(fg);

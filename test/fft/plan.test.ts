@@ -22,7 +22,7 @@ function stored(x: Float64Array, backend: FftBackendName): Float64Array {
 // pffft's plan and copy API run the same float32 transform on the same float32 input, so they
 // agree exactly; fft.js's plan inverts via inverseTransform·N, its copy API via conjugation.
 const backends: { name: FftBackendName; agreement: number; tolerance: number }[] = [
-  { name: "fftjs", agreement: 1e-13, tolerance: 1e-9 },
+  { name: "fftjs", agreement: 1e-13, tolerance: 1e-13 }, // measured worst 1.6e-15 against the naive DFT
   { name: "pffft", agreement: 0, tolerance: 1e-4 },
 ];
 

@@ -17,12 +17,6 @@ describe("a seeded campaign of 100 BNS injections at optimal SNR 10–20 in ajit
     expect(outcomes.map((o) => o.index)).toEqual(Array.from({ length: 100 }, (_, i) => i));
     const falseCandidates = result.batches.flatMap((b) => b.falseCandidates);
     const s = summarizeCampaign(outcomes, falseCandidates, options.population, 0);
-    // Measured (seed "bns-10-20"): printed for the record.
-    console.log(
-      `BNS 10–20: efficiency ${s.efficiency} (${s.found}/${s.injections}), median |ΔMc/Mc| ${s.chirpMassError?.medianAbsolute.toExponential(2)}, ` +
-        `median |Δt| ${((s.timeErrorSeconds?.medianAbsolute ?? NaN) * 1000).toFixed(3)} ms, ρ_rec/ρ_opt median ${s.snrRatio?.median.toFixed(3)}, ` +
-        `false ${s.falseCandidates}`,
-    );
     expect(s.efficiency!).toBeGreaterThanOrEqual(0.95);
     expect(s.chirpMassError!.medianAbsolute).toBeLessThanOrEqual(0.005);
     expect(s.timeErrorSeconds!.medianAbsolute).toBeLessThanOrEqual(0.001);

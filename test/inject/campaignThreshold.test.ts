@@ -39,7 +39,6 @@ describe("detection efficiency near the threshold (BNS in ajith2011 noise, thres
     const r = await runCampaign(options);
     const outcomes = r.batches.flatMap((b) => b.injections);
     const s = summarizeCampaign(outcomes, r.batches.flatMap((b) => b.falseCandidates), options.population, 0);
-    console.log(`BNS 3–5: efficiency ${s.efficiency} (${s.found}/${s.injections}); Gaussian expectation ${predicted(3, 5, 7, 0.97).toFixed(4)}`);
     expect(s.efficiency!).toBeLessThan(0.2);
   });
 
@@ -52,9 +51,7 @@ describe("detection efficiency near the threshold (BNS in ajith2011 noise, thres
     // the measured median recovered/optimal SNR at SNR 10–20 is ≈ 0.95, which includes the PSD estimate).
     const ff = 0.97;
     const rows = s.efficiencyBySnr.map((b) => ({ ...b, expected: predicted(b.snrLow, b.snrHigh, 7, ff) }));
-    for (const b of rows) console.log(`SNR ${b.snrLow}–${b.snrHigh}: ${b.found}/${b.total} = ${b.efficiency?.toFixed(3)} [${b.lower?.toFixed(3)}, ${b.upper?.toFixed(3)}], Gaussian ${b.expected.toFixed(3)}`);
     const rho50 = predictedCrossing(7, ff);
-    console.log(`50% crossing: measured ${s.snr50?.toFixed(3)}, Gaussian expectation ${rho50.toFixed(3)} (FF ${ff}), ${predictedCrossing(7, 1).toFixed(3)} (FF 1)`);
     expect(s.snr50).not.toBeNull();
     expect(s.snr50!).toBeGreaterThan(6);
     expect(s.snr50!).toBeLessThan(9);

@@ -62,7 +62,7 @@ describe("optimal SNR", () => {
 
   it("sees an optimally placed 1.4+1.4 binary at SNR ≈ 8 at 500 Mpc on the ajith2011 curve from 10 Hz", () => {
     // Ajith, Phys. Rev. D 84, 084037 (2011) curve: SNR 8 at ≈ 500 Mpc, optimal orientation, inspiral to ISCO
-    // (shared/references.md, from memory): allow 10%.
+    // (from memory): allow 10%.
     const snr = optimalSnr(overhead, ajith2011, 4096, 10, equator);
     expect(Math.abs(snr / 8 - 1)).toBeLessThan(0.1); // measured 8.03
   });

@@ -32,7 +32,6 @@ describe("FFT backends agree on the search output", () => {
       };
       const a = await loudest("pffft");
       const b = await loudest("fftjs");
-      console.log(`${psd}: pffft SNR ${a.snr.toFixed(6)}, fftjs SNR ${b.snr.toFixed(6)}, relative difference ${Math.abs(a.snr / b.snr - 1).toExponential(2)}`);
       expect(Math.abs(a.coalescenceTime - arrivalTime(inj))).toBeLessThan(0.005);
       expect(a.templateIndex).toBe(b.templateIndex);
       expect(Math.abs(a.snr / b.snr - 1)).toBeLessThan(1e-3);

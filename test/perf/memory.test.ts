@@ -87,12 +87,6 @@ describe("memory of a long scan", () => {
     const start = process.memoryUsage().rss;
     const short = await scanPeakRss(generatedNoise(600, "memory-short"));
     const long = await scanPeakRss(generatedNoise(4 * 3600, "memory-long"));
-    const seriesMb = (4 * 3600 * FS * 8) / MB;
-    console.log(
-      `RSS at start ${(start / MB).toFixed(0)} MB; peak 10 min ${(short.peak / MB).toFixed(0)} MB (${short.summary.segments} segments); ` +
-        `peak 4 h ${(long.peak / MB).toFixed(0)} MB (${long.summary.segments} segments of ${long.summary.segmentSamples} samples); ` +
-        `the 4-hour series alone would take ${seriesMb.toFixed(0)} MB`,
-    );
     expect(long.summary.analysedSeconds).toBeGreaterThan(4 * 3600 - 60);
     expect(long.peak - start).toBeLessThan(192 * MB);
     expect(long.peak - short.peak).toBeLessThan(48 * MB);

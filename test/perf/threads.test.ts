@@ -1,6 +1,6 @@
 // Worker threads give the same candidates as one thread. The workers run the compiled
-// packages/core/dist/search/searchWorker.js, so the core is built first (tsc -b; the search's
-// own files must compile, errors elsewhere in the workspace do not stop tsc from emitting).
+// packages/core/dist/search/searchWorker.js, so the core is built first with tsc -b, and a failed
+// build fails the test: the workers never run a stale dist/.
 import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
@@ -25,7 +25,9 @@ const FMIN = 30;
 const root = fileURLToPath(new URL("../..", import.meta.url));
 
 beforeAll(async () => {
-  spawnSync("npx", ["tsc", "-b", "packages/core"], { cwd: root, stdio: "ignore" });
+  const build = spawnSync("npx", ["tsc", "-b", "packages/core"], { cwd: root, encoding: "utf8" });
+  expect(build.error, "could not run tsc").toBeUndefined();
+  expect(build.status, `tsc -b packages/core failed:\n${build.stdout}${build.stderr}`).toBe(0);
   expect(existsSync(fileURLToPath(searchWorkerUrl()))).toBe(true);
   await loadFftBackends();
 });
@@ -69,7 +71,6 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
         expect(many.summary.threads).toBe(threads);
         expectSameCandidates(one.candidates, many.candidates);
       }
-      console.log(`${fftBackend}: ${one.candidates.length} candidates in ${one.summary.segments} segments, ${options.templates.length} templates; identical with ${counts.join(" and ")} threads`);
     });
   }
 

@@ -7,7 +7,8 @@ import { injectionAt, simulatedData } from "../search/fixtures.js";
  * masses, maximised over time and phase: noise-free data holding the projected TaylorT4 signal is
  * filtered with that one template in the model PSD, so SNR / optimal SNR is the normalised overlap.
  * The two approximants differ by design at 3.5PN (Buonanno, Iyer, Ochsner, Pan & Sathyaprakash,
- * Phys. Rev. D 80, 084043 (2009), Sec. V); the issue expects "above 0.9".
+ * Phys. Rev. D 80, 084043 (2009), Sec. V), so the overlap sits below 1: 0.9 is the floor we require
+ * of it, and the value measured here (0.964) is held as a regression value.
  */
 async function overlap(m1: number, m2: number, fMin: number): Promise<number> {
   const fs = 2048;
@@ -27,10 +28,10 @@ async function overlap(m1: number, m2: number, fMin: number): Promise<number> {
 }
 
 describe("TaylorT4 against TaylorF2 at 3.5PN, same masses, maximised over time and phase (ajith2011, from 30 Hz)", () => {
-  it("10+10 M_sun: overlap 0.964 measured (above 0.9 as expected; the approximants differ by design)", async () => {
+  it("10+10 M_sun: overlap above 0.9 (measured here 0.964; the approximants differ by design)", async () => {
     const o = await overlap(10, 10, 30);
-    console.log(`TaylorT4 vs TaylorF2 overlap, 10+10 M_sun from 30 Hz: ${o.toFixed(4)}`);
     expect(o).toBeGreaterThan(0.9);
+    expect(Math.abs(o - 0.964)).toBeLessThan(0.005); // measured here (regression)
     expect(o).toBeLessThan(1.0001);
   });
 });

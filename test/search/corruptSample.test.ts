@@ -28,8 +28,8 @@ describe("corrupt samples", () => {
   });
 
   it("stop the scan with one line naming file, sample and time, or are left out alone while the rest is searched", async () => {
-    // A 1e30 sample used to turn the filter output into NaN (float32 overflow of X/S) and drop every
-    // candidate of its segment, the injected chirp included, without a word.
+    // Unchecked, a 1e30 sample turns the filter output into NaN (float32 overflow of X/S) and drops
+    // every candidate of its segment, the injected chirp included, without a word.
     const inj = atSnr(injectionAt(1.4, 1.3, 100), 20, ajith2011, FS, FMIN);
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 256, seed: "corrupt-scan", fMin: FMIN, injections: [inj] });
     data[1000] = 1e30;

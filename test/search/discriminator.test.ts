@@ -41,7 +41,6 @@ describe("chi-squared discriminator and reweighted SNR (Allen 2005; Babak et al.
     const c = await loudest(data);
     expect(c.snr).toBeGreaterThan(25);
     expect(c.chi2 / c.chi2Dof).toBeGreaterThan(5);
-    console.log(`glitch: SNR ${c.snr.toFixed(1)}, chi2/dof ${(c.chi2 / c.chi2Dof).toFixed(1)}, reweighted ${c.reweightedSnr.toFixed(2)}`);
     expect(c.reweightedSnr).toBeLessThan(opts.snrThreshold);
   });
 
@@ -67,10 +66,6 @@ describe("chi-squared discriminator and reweighted SNR (Allen 2005; Babak et al.
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 64, seed: "t4-allowance", fMin: FMIN, injections: [inj] });
     const plain = await loudest(data);
     const allowed = await loudest(data, false, { chi2Allowance: 0.03 });
-    console.log(
-      `TaylorT4 10+8: SNR ${plain.snr.toFixed(1)}, chi2/dof ${(plain.chi2 / plain.chi2Dof).toFixed(2)}, ` +
-        `reweighted ${plain.reweightedSnr.toFixed(1)} without and ${allowed.reweightedSnr.toFixed(1)} with δ = 0.03`,
-    );
     expect(allowed.snr).toBe(plain.snr);
     expect(plain.reweightedSnr / plain.snr).toBeLessThan(0.85);
     expect(allowed.reweightedSnr / allowed.snr).toBeGreaterThan(0.9);
@@ -80,7 +75,6 @@ describe("chi-squared discriminator and reweighted SNR (Allen 2005; Babak et al.
     const glitchy = simulatedData({ psd: ajith2011, fs: FS, seconds: 64, seed: "glitch", fMin: FMIN });
     addSineGaussian(glitchy, 40, 120, 9, (1e-21 * 30) / base.snr);
     const glitch = await loudest(glitchy, false, { chi2Allowance: 0.03 });
-    console.log(`glitch with δ = 0.03: reweighted ${glitch.reweightedSnr.toFixed(2)}`);
     expect(glitch.reweightedSnr).toBeLessThan(opts.snrThreshold);
   });
 

@@ -1,7 +1,9 @@
 import { describe, expect, it } from "vitest";
 import kstest from "@stdlib/stats-kstest";
+import chisquareCdf from "@stdlib/stats-base-dists-chisquare-cdf";
 import {
   ajith2011,
+  chiSquared,
   colouredNoise,
   computeSegmentSpectrum,
   createComplexPlan,
@@ -75,6 +77,60 @@ describe("matched-filter SNR in stationary Gaussian noise", () => {
         const err = Math.sqrt((p * (1 - p)) / (searched / 8));
         expect(Math.abs(fractions[t] - p)).toBeLessThan(5 * err);
       }
+    });
+  }
+});
+
+describe("chi-squared discriminator in stationary Gaussian noise", () => {
+  /**
+   * χ² of one template at samples 1 s apart in 42 seeded noise realisations of 32 s each (PSD known
+   * exactly), away from the filter's wrap-around stretch and edges.
+   */
+  function chiSquaredInNoise(psd: PsdModel, m1: number, m2: number, p: number): number[] {
+    const fs = 2048;
+    const n = 1 << 16;
+    const fMin = 30;
+    const bins = n / 2 + 1;
+    const df = fs / n;
+    const psdBins = interpolatePsd(psd, df, bins);
+    const buffers = { weighted: new Float64Array(n + 2), inversePsd: new Float64Array(bins), spectrum: new Float64Array(n + 2) };
+    const fft = createRealFft(n);
+    const gen = createTaylorF2Generator(bins, df);
+    const tmpl = new Float64Array(2 * bins);
+    const kEnd = gen.generate(tmpl, fMin, m1, m2, 1);
+    const out: number[] = [];
+    for (let r = 0; r < 42; r++) {
+      const data = colouredNoise(psd, n, fs, `chi2-${psd.name}-${r}`);
+      const spec = computeSegmentSpectrum(data, psdBins, fs, fMin, 0.95 * (fs / 2), fft, buffers);
+      for (let j = 6 * fs; j < n - 2 * fs; j += fs) {
+        const { chi2, dof } = chiSquared(spec, tmpl, kEnd, j, p);
+        expect(dof).toBe(2 * p - 2);
+        out.push(chi2);
+      }
+    }
+    return out;
+  }
+
+  for (const [psd, m1, m2, p] of [
+    [ajith2011, 10, 8, 16],
+    [flatPsd(), 6, 4, 4],
+  ] as const) {
+    it(`follows χ² with 2p − 2 = ${2 * p - 2} degrees of freedom (${psd.name} noise, ${m1}+${m2} M_sun, p = ${p}; KS test)`, () => {
+      // Allen, Phys. Rev. D 71, 062001 (2005), Sec. IV: in Gaussian noise the discriminator with p
+      // equal-power sub-bands is χ²-distributed with 2p − 2 degrees of freedom. The χ² CDF
+      // (@stdlib/stats-base-dists-chisquare-cdf) and the KS test (@stdlib/stats-kstest) are @stdlib's.
+      const samples = chiSquaredInNoise(psd, m1, m2, p);
+      const dof = 2 * p - 2;
+      expect(samples.length).toBeGreaterThanOrEqual(1000);
+      const result = kstest(samples, (x: number) => chisquareCdf(x, dof));
+      expect(result.pValue).toBeGreaterThan(0.01);
+      // Mean k = dof and variance 2k of the χ² distribution, within 4 standard errors (the sample
+      // variance's relative standard error is √((2 + 12/k)/m) from the χ² kurtosis 12/k).
+      const m = samples.length;
+      const mean = samples.reduce((a, b) => a + b, 0) / m;
+      const variance = samples.reduce((a, b) => a + (b - mean) ** 2, 0) / (m - 1);
+      expect(Math.abs(mean - dof)).toBeLessThan(4 * Math.sqrt((2 * dof) / m));
+      expect(Math.abs(variance / (2 * dof) - 1)).toBeLessThan(4 * Math.sqrt((2 + 12 / dof) / m));
     });
   }
 });

@@ -10,18 +10,12 @@ import { tempDir } from "./fixtures.js";
 const dir = tempDir("shard-cli");
 const strain = join(dir, "synthetic.f64");
 const SCAN = ["scan", strain, "--mass-range", "8:12", "--fmin", "40", "--min-snr", "5", "--loudest-within", "0.4", "--welch-segment", "2", "--segment", "8", "--quiet"];
-/** The scan CLI has the flags only once the lead has wired them in (see issue 9's report). */
-const wired = runCli(["scan", "--help"]).stdout.includes("--shard");
-// Skipped until wired; under CI=true the missing flag fails instead.
-const CI = process.env.CI === "true";
-if (!wired && !CI) console.warn("test/shard/cli.test.ts: skipped: `chirpsieve scan` has no --shard yet (wire issue 9's lines into commands/scan.ts)");
 
 const candidateLines = (text: string) => text.split("\n").filter((l) => l.startsWith('{"type":"candidate"'));
 let single: string;
 
-describe.skipIf(!wired && !CI)("scan --shard and merge on the command line", () => {
+describe("scan --shard and merge on the command line", () => {
   beforeAll(async () => {
-    if (!wired) throw new Error("`chirpsieve scan` has no --shard: wire issue 9's lines into commands/scan.ts");
     // Invented scenario: 40 s of seeded noise at 1024 Hz with one chirp (10+8 M_sun) at t = 20.2 s.
     const fs = 1024;
     const data = colouredNoise(ajith2011, 40 * fs, fs, "shard-cli");

@@ -12,18 +12,13 @@ const dir = tempDir("resume-cli");
 const strain = join(dir, "synthetic.f64");
 // fft.js keeps each segment slow enough (tens of ms) that the kill surely lands midway.
 const SCAN = ["scan", strain, "--mass-range", "6:12", "--fmin", "40", "--min-snr", "5", "--loudest-within", "0.4", "--welch-segment", "2", "--segment", "8", "--fft", "fftjs", "--quiet"];
-const wired = runCli(["scan", "--help"]).stdout.includes("--resume");
-// Skipped until wired; under CI=true the missing flag fails instead.
-const CI = process.env.CI === "true";
-if (!wired && !CI) console.warn("test/shard/cliResume.test.ts: skipped: `chirpsieve scan` has no --resume yet (wire issue 9's lines into commands/scan.ts)");
 
 const candidateLines = (text: string) => text.split("\n").filter((l) => l.startsWith('{"type":"candidate"'));
 const segmentLines = (path: string) => (existsSync(path) ? readFileSync(path, "utf8").split("\n").filter((l) => l.startsWith('{"type":"segment"')).length : 0);
 let single: string;
 
-describe.skipIf(!wired && !CI)("scan --resume on the command line", () => {
+describe("scan --resume on the command line", () => {
   beforeAll(async () => {
-    if (!wired) throw new Error("`chirpsieve scan` has no --resume: wire issue 9's lines into commands/scan.ts");
     // Invented scenario: 64 s of seeded noise at 1024 Hz with one chirp (9+7 M_sun) at t = 30.2 s.
     const fs = 1024;
     const data = colouredNoise(ajith2011, 64 * fs, fs, "resume-cli");

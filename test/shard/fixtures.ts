@@ -96,5 +96,5 @@ export async function expectHookWired(): Promise<void> {
       done: () => {},
     },
   });
-  if (!asked) throw new Error("searchSource ignores options.segmentHook: wire the lines given in issue 9's report into search/scan.ts");
+  if (!asked) throw new Error("searchSource ignores options.segmentHook: the filter loop in search/scan.ts must ask the hook for its segments");
 }

@@ -24,9 +24,17 @@ describe("detector geometry", () => {
       expect(dot(d.armX, d.armX)).toBeCloseTo(1, 14);
       expect(dot(d.armY, d.armY)).toBeCloseTo(1, 14);
       expect(dot(d.armX, d.armY)).toBeCloseTo(0, 14);
-      // Arms are horizontal: orthogonal to the ellipsoid normal (cos φ cos λ, cos φ sin λ, sin φ).
+      // Arms are horizontal: orthogonal to the ellipsoid normal (cos φ cos λ, cos φ sin λ, sin φ) at
+      // the geodetic latitude φ and longitude λ of the site (WGS-84, NIMA TR8350.2).
+      const [latDeg, lonDeg] = d === SITE_A ? [52, -30] : [-20, 160];
+      const phi = (latDeg * Math.PI) / 180;
+      const lam = (lonDeg * Math.PI) / 180;
+      const up = [Math.cos(phi) * Math.cos(lam), Math.cos(phi) * Math.sin(lam), Math.sin(phi)];
+      expect(Math.abs(dot(d.armX, up))).toBeLessThan(1e-14);
+      expect(Math.abs(dot(d.armY, up))).toBeLessThan(1e-14);
+      // D = (X X − Y Y)/2 of two orthogonal unit arms is traceless.
       const t = d.tensor;
-      expect(t[0] + t[4] + t[8]).toBeCloseTo(0, 14); // traceless
+      expect(t[0] + t[4] + t[8]).toBeCloseTo(0, 14);
     }
     expect(detectorByName("site-a")).toBe(SITE_A);
     expect(() => detectorByName("nowhere")).toThrow(/unknown detector "nowhere"/);

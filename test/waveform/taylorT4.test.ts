@@ -15,7 +15,7 @@ import {
   taylorT4Evolution,
 } from "@chirpsieve/core";
 
-const EULER_GAMMA = 0.5772156649015329;
+import { energyDerivativeSeries, fluxSeries, seriesQuotient } from "./pnSeries.js";
 
 /** Unwrapped GW phase 2φ of a face-on waveform (h+ = −A cos 2φ, h× = −A sin 2φ). */
 function gwPhase(hPlus: Float64Array, hCross: Float64Array): Float64Array {
@@ -54,32 +54,8 @@ describe("TaylorT4 coefficients", () => {
   it("equal the series quotient −F(v) / (dE/dv) of the 3PN energy and 3.5PN flux", () => {
     // Energy: Blanchet, Living Rev. Relativ. 17, 2 (2014), Eq. (233); flux: ibid., Eq. (314) (from memory;
     // the two recalled series and the recalled TaylorT4 table of Buonanno et al. 2009 agree to rounding).
-    const pi = Math.PI;
     for (const eta of [0.25, 0.2, 0.1, 0.01]) {
-      const e = [
-        1,
-        -3 / 4 - eta / 12,
-        -27 / 8 + (19 / 8) * eta - (eta * eta) / 24,
-        -675 / 64 + (34445 / 576 - (205 / 96) * pi * pi) * eta - (155 / 96) * eta ** 2 - (35 / 5184) * eta ** 3,
-      ];
-      const dE = [1, 0, 2 * e[1], 0, 3 * e[2], 0, 4 * e[3], 0]; // dE/dv ∝ Σ (k+1) e_k v^{2k}
-      const flux = [
-        1,
-        0,
-        -1247 / 336 - (35 / 12) * eta,
-        4 * pi,
-        -44711 / 9072 + (9271 / 504) * eta + (65 / 18) * eta ** 2,
-        (-8191 / 672 - (583 / 24) * eta) * pi,
-        6643739519 / 69854400 + (16 / 3) * pi * pi - (1712 / 105) * EULER_GAMMA +
-          (-134543 / 7776 + (41 / 48) * pi * pi) * eta - (94403 / 3024) * eta ** 2 - (775 / 324) * eta ** 3,
-        (-16285 / 504 + (214745 / 1728) * eta + (193385 / 3024) * eta ** 2) * pi,
-      ];
-      const q: number[] = [];
-      for (let k = 0; k < 8; k++) {
-        let s = flux[k];
-        for (let j = 1; j <= k; j++) s -= dE[j] * q[k - j];
-        q.push(s);
-      }
+      const q = seriesQuotient(fluxSeries(eta), energyDerivativeSeries(eta));
       const { a, a6Log } = taylorT4Coefficients(eta);
       for (let k = 0; k < 8; k++) expect(a[k]).toBeCloseTo(q[k], 10);
       expect(a6Log).toBeCloseTo(-856 / 105, 14); // the ln(16 v²) term of the flux passes through unchanged
@@ -99,7 +75,7 @@ describe("TaylorT4 evolution", () => {
     const vs = ev.velocity(30);
     const t = ev.interval(vs, ev.vIsco).time;
     const tau = (v: number): number => (5 * ev.totalMassSeconds) / (256 * ev.eta * v ** 8);
-    expect(t / (tau(vs) - tau(ev.vIsco)) - 1).toBeLessThan(1e-9);
+    expect(Math.abs(t / (tau(vs) - tau(ev.vIsco)) - 1)).toBeLessThan(1e-9);
   });
 
   it("takes a time from 20 Hz to the ISCO within 0.5% of the TaylorF2 chirp time", () => {

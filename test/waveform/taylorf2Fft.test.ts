@@ -114,7 +114,6 @@ describe("TaylorF2 (Newtonian) against the FFT of a time-domain Newtonian chirp,
 
   it("overlap maximised over time and phase ≥ 0.99, at the lag t_c (sign of the time convention)", () => {
     const { overlap, lag } = maximisedOverlap(tmpl);
-    console.log(`maximised overlap ${overlap.toFixed(5)}, peak lag ${lag.toFixed(5)} s, t_c ${tc.toFixed(5)} s`);
     expect(overlap).toBeGreaterThan(0.99);
     expect(Math.abs(lag - tc)).toBeLessThanOrEqual(dt);
   });
@@ -132,7 +131,6 @@ describe("TaylorF2 (Newtonian) against the FFT of a time-domain Newtonian chirp,
     const overlap = (4 * df * Math.hypot(re, im)) / (sigmaData * sigmaTmpl);
     const phaseOffset = Math.atan2(im, re);
     const ratio = sigmaData / sigmaTmpl;
-    console.log(`overlap at t_c ${overlap.toFixed(5)}, residual phase ${phaseOffset.toFixed(3)} rad, σ_data/σ_template ${ratio.toFixed(4)}`);
     expect(overlap).toBeGreaterThan(0.99);
     expect(Math.abs(ratio - 1)).toBeLessThan(0.02);
     // The chirp has GW phase 0 at t_c, so φ_c = 0 of the template must leave no residual phase.
@@ -143,7 +141,6 @@ describe("TaylorF2 (Newtonian) against the FFT of a time-domain Newtonian chirp,
     const conj = new Float64Array(tmpl);
     for (let k = 0; k < nBins; k++) conj[2 * k + 1] = -conj[2 * k + 1];
     const { overlap } = maximisedOverlap(conj);
-    console.log(`overlap with the conjugate template ${overlap.toFixed(5)}`);
     expect(overlap).toBeLessThan(0.1);
   });
 });

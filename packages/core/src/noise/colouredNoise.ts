@@ -51,7 +51,7 @@ function heldPsd(evaluate: (f: number) => number, fLow: number, fHigh: number): 
  * Seeded coloured Gaussian noise by filtering white noise with a finite (FIR) filter whose
  * amplitude response is √(S(f)·fs/2), applied by overlap-save FFT convolution.
  *
- * Normalisation (derived here; the convention is design.md's one-sided S with
+ * Normalisation (derived here; the convention is the one-sided S with
  * σ² = ∫_0^{fs/2} S df): white noise of unit variance at rate fs has one-sided PSD 2/fs; a filter
  * with frequency response H(f) multiplies a PSD by |H(f)|², so |H(f)|² = S(f)·fs/2 gives output
  * PSD S(f). Equivalently, in terms of an N-point DFT of the output, E|X[k]|² = N·fs·S(f_k)/2, i.e.

@@ -12,7 +12,7 @@ export interface WhitenOptions {
 
 /**
  * Whitens a series by a one-sided PSD: X = FFT(x), Y[k] = X[k] / √(S(f_k)·fs/2), y = IFFT(Y)/N.
- * For stationary noise with PSD S, E|X[k]|² = N·fs·S(f_k)/2 (design.md convention), so E|Y[k]|² = N
+ * For stationary noise with PSD S, E|X[k]|² = N·fs·S(f_k)/2 (one-sided convention), so E|Y[k]|² = N
  * and y has unit variance and a flat one-sided PSD 2/fs (common practice, no source). Bins below
  * fLowHz or above fHighHz, and bins where S is not positive and finite (e.g. +Infinity outside a
  * table), are set to zero; the output variance is then the fraction of the band kept
