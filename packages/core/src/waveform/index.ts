@@ -1,4 +1,5 @@
 export * from "./pnCoefficients.js";
+export * from "./alignedSpinPhase.js";
 export * from "./taylorf2.js";
 export * from "./chirpTimes.js";
 export * from "./cycles.js";
