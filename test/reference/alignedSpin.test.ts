@@ -7,6 +7,7 @@ import {
   spinOrbitBeta,
   spinSpinSigma,
   taylorF2PhaseCoefficients,
+  taylorT4SpinCorrections,
 } from "@chirpsieve/core";
 
 const BINARIES: [number, number, number, number][] = [
@@ -124,6 +125,19 @@ describe("spin-orbit phase terms through 3.5PN follow from the published spin-or
       }
       const b5 = -(40 / 3) * r[5];
       expect(Math.abs(odd(p.b, q.b, 5) - b5)).toBeLessThan(1e-6 * Math.max(1, Math.abs(b5)));
+    });
+    it(`${m1}+${m2} M_sun, χ = ${chi1}, ${chi2}: the TaylorT4 spin corrections are the spin-linear part of F/E′ (and σ at v⁴) to 1e-6`, () => {
+      const h = 1e-4;
+      const inv1 = (a: number[]) => inv(a);
+      const plus = inv1(ratio(m1, m2, chi1, chi2, h));
+      const minus = inv1(ratio(m1, m2, chi1, chi2, -h));
+      const t4 = taylorT4SpinCorrections(m1, m2, chi1, chi2);
+      for (const k of [3, 5, 6, 7]) {
+        const expected = (plus[k] - minus[k]) / (2 * h);
+        expect(Math.abs(t4[k] - expected)).toBeLessThan(1e-6 * Math.max(1, Math.abs(expected)));
+      }
+      expect(t4[4]).toBeCloseTo(spinSpinSigma(m1, m2, chi1, chi2), 12);
+      expect([t4[0], t4[1], t4[2]]).toEqual([0, 0, 0]);
     });
   }
 });

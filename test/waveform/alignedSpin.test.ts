@@ -56,7 +56,7 @@ describe("aligned spins leave non-spinning results unchanged", () => {
   });
   it("while a spin of 0.3 changes each of them", () => {
     const spun = nonSpinning([0.3, 0.3]);
-    for (const key of ["phase", "f2bins", "genbins", "phasorbins"]) {
+    for (const key of ["phase", "f2bins", "genbins", "phasorbins", "t4", "t4cycles"]) {
       expect(spun[key], key).not.toStrictEqual((BEFORE as Record<string, unknown>)[key]);
     }
   });
@@ -83,6 +83,7 @@ describe("bad spins throw InputError naming the spin", () => {
     ["χ1 = 1 (extremal excluded)", () => taylorF2Phase(50, 10, 5, 7, 1, 0)],
     ["χ2 = −1.2", () => taylorF2Phase(50, 10, 5, 7, 0, -1.2)],
     ["χ1 = NaN", () => taylorF2Into(new Float64Array(20), 10, 1, 2, 1, 1, 1, Infinity, 7, NaN, 0)],
+    ["TaylorT4 χ2 = 2", () => taylorT4Cycles(10, 5, 30, undefined, 7, 0, 2)],
   ];
   for (const [name, call] of cases) {
     it(name, () => {

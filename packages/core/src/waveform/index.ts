@@ -1,5 +1,6 @@
 export * from "./pnCoefficients.js";
 export * from "./alignedSpinPhase.js";
+export * from "./alignedSpinEnergyFlux.js";
 export * from "./taylorf2.js";
 export * from "./chirpTimes.js";
 export * from "./cycles.js";
