@@ -4,6 +4,7 @@ export * from "./alignedSpinEnergyFlux.js";
 export * from "./taylorf2.js";
 export * from "./chirpTimes.js";
 export * from "./cycles.js";
+export * from "./inspiralShare.js";
 export * from "./taylorT4Evolution.js";
 export * from "./taylorT4.js";
 export * from "./antenna.js";
