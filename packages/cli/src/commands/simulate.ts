@@ -19,6 +19,7 @@ import {
 import { UsageError } from "../errors.js";
 import { checkOutputFile } from "../outputPath.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
+import { SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
 
 interface SimulateFlags {
   noiseCurve: string;
@@ -31,6 +32,7 @@ interface SimulateFlags {
   inject?: string;
   injectRandom?: string;
   massRange?: string;
+  spinRange?: string;
   snrRange?: string;
   distanceRange?: string;
   detector: string;
@@ -58,6 +60,7 @@ export function registerSimulate(program: Command): void {
     .option("--inject <file>", "injections to add: a JSON array, or an object with an \"injections\" array")
     .option("--inject-random <N>", "add N random injections (masses, sky, orientation and times drawn from the seed)")
     .option("--mass-range <min:max>", "component masses of random injections, M_sun", "1:3")
+    .option("--spin-range <min:max>", SPIN_RANGE_HELP)
     .option("--snr-range <min:max>", "optimal SNR range of random injections (distance scaled to hit it)")
     .option("--distance-range <min:max>", "distance range of random injections, Mpc (uniform in volume)")
     .option("--detector <names>", "site(s) the signals are projected onto: one name, or a comma-separated list for one file per site (built-in invented sites, or from --sites)", "site-a")
@@ -135,7 +138,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
 
   const random = flags.injectRandom !== undefined;
   if (random && flags.inject !== undefined) throw new UsageError("--inject-random: cannot be combined with --inject");
-  for (const name of ["massRange", "snrRange", "distanceRange"] as const) {
+  for (const name of ["massRange", "spinRange", "snrRange", "distanceRange"] as const) {
     if (!random && given(cmd, name)) {
       const flag = `--${name.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`;
       throw new UsageError(`${flag}: only applies with --inject-random`);
@@ -143,6 +146,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   }
 
   let injections: Injection[] = [];
+  let spinRange: [number, number] | undefined;
   if (flags.inject !== undefined) {
     injections = readInjectionFile(flags.inject);
     // An injection that coalesces outside the data could never be recovered from it: refuse it.
@@ -164,6 +168,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   } else if (random) {
     const count = parseNumberFlag("--inject-random", flags.injectRandom!, { min: 0, integer: true });
     const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange ?? "1:3");
+    spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
     if (flags.snrRange !== undefined && flags.distanceRange !== undefined) {
       throw new UsageError("--snr-range: give either --snr-range or --distance-range, not both");
     }
@@ -176,6 +181,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
       injections = drawInjections({
         count,
         massRangeSolar,
+        ...(spinRange ? { spinRange } : {}),
         snrRange,
         distanceMpc,
         seed: `${seed}:injections`,
@@ -218,7 +224,17 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     writeInjectionManifest(
       o.manifest,
       injectionManifest(
-        { noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, detector: o.detector.name },
+        {
+          noiseCurve: psd.name,
+          noise: flags.noise,
+          sampleRate: rate,
+          startTime: start,
+          duration,
+          fMinHz: fmin,
+          seed,
+          detector: o.detector.name,
+          ...(spinRange ? { spinRange } : {}),
+        },
         siteInjections,
       ),
     );
@@ -231,7 +247,10 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
       lines.push(
         `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
           `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
-          `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}`,
+          `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}` +
+          (inj.primarySpin !== undefined || inj.secondarySpin !== undefined
+            ? `  spins ${(inj.primarySpin ?? 0).toFixed(3)}, ${(inj.secondarySpin ?? 0).toFixed(3)}`
+            : ""),
       );
     }
   }

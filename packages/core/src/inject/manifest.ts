@@ -28,11 +28,20 @@ export interface InjectionManifest {
   seed: string | number;
   /** Name of the (invented) detector the signals were projected onto. */
   detector: string;
+  /**
+   * When the injections spin: the range each aligned spin χ was drawn from, uniformly and
+   * independently for the two bodies (absent for non-spinning injections).
+   */
+  spinRange?: [number, number];
   injections: ManifestInjection[];
 }
 
 /** Builds a manifest; every injection needs its optimalSnr (NaN is written as null otherwise). */
 export function injectionManifest(meta: Omit<InjectionManifest, "synthetic" | "injections">, injections: Injection[]): InjectionManifest {
+  const spinFields = (inj: Injection) =>
+    inj.primarySpin !== undefined || inj.secondarySpin !== undefined
+      ? { primarySpin: inj.primarySpin ?? 0, secondarySpin: inj.secondarySpin ?? 0 }
+      : {};
   return {
     synthetic: true,
     noiseCurve: meta.noiseCurve,
@@ -43,6 +52,7 @@ export function injectionManifest(meta: Omit<InjectionManifest, "synthetic" | "i
     fMinHz: meta.fMinHz,
     seed: meta.seed,
     detector: meta.detector,
+    ...(meta.spinRange ? { spinRange: meta.spinRange } : {}),
     injections: injections.map((inj) => ({
       primaryMass: inj.primaryMass,
       secondaryMass: inj.secondaryMass,
@@ -55,6 +65,7 @@ export function injectionManifest(meta: Omit<InjectionManifest, "synthetic" | "i
       polarization: inj.polarization,
       phase: inj.phase,
       optimalSnr: inj.optimalSnr ?? Number.NaN,
+      ...spinFields(inj),
     })),
   };
 }
