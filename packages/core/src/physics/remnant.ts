@@ -47,7 +47,7 @@ export function kerrIscoEnergy(spin: number): number {
  * ν = η, ã = (χ1 + χ2 q²)/(1 + q²):
  *   a_f = ã + s4 ã² ν + s5 ã ν² + t0 ã ν + 2√3 ν + t2 ν² + t3 ν³,
  *   s4 = −0.1229, s5 = 0.4537, t0 = −2.8904, t2 = −3.5171, t3 = 2.5763.
- * Source: Rezzolla et al., Astrophys. J. Lett. 674, L29 (2008) (aligned-spin case of their fit).
+ * Source: Rezzolla et al., Phys. Rev. D 78, 044002 (2008) (aligned-spin case of their fit).
  */
 function finalSpin(q: number, nu: number, chiHeavy: number, chiLight: number): number {
   const at = (chiHeavy + chiLight * q * q) / (1 + q * q);
@@ -69,7 +69,7 @@ function finalMassFraction(q: number, nu: number, chiHeavy: number, chiLight: nu
 /**
  * Mass (as a fraction of m1 + m2) and spin of the remnant black hole of two black holes of masses
  * m1Solar, m2Solar and aligned spins chi1, chi2 ∈ (−1, 1), from the numerical-relativity fits of
- * Barausse, Morozova & Rezzolla, ApJ 758, 63 (2012) (mass) and Rezzolla et al., ApJ Lett. 674, L29
+ * Barausse, Morozova & Rezzolla, ApJ 758, 63 (2012) (mass) and Rezzolla et al., Phys. Rev. D 78, 044002
  * (2008) (spin); equal masses without spin give M_f ≈ 0.952 M and a_f ≈ 0.686. The spin is kept
  * within ±0.998 (beyond the fits' range it would be extrapolation). The order of the bodies does not matter.
  */
