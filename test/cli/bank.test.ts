@@ -44,7 +44,9 @@ describe("chirpsieve bank", () => {
   });
 
   it("builds a bank (the default subcommand), prints a one-line summary and writes JSON and SVG", () => {
-    expect(built.stderr).toBe("");
+    // 8–20 M_sun from 20 Hz reaches binaries whose inspiral to the ISCO carries < 90% of their SNR: one warning.
+    expect(built.stderr).toMatch(/^chirpsieve: warning: \d+ of \d+ templates \(total mass [\d.]+–40\.0 M_sun\) carry less than 90% of their signal's SNR in the inspiral to the ISCO .*lighter chirp masses and earlier times/);
+    expect(built.stderr.trim().split("\n")).toHaveLength(1);
     expect(built.code).toBe(0);
     expect(built.stdout).toMatch(/^\S+bank\.json: \d+ templates .* metric-volume estimate \d+/);
     const bank = JSON.parse(readFileSync(bankPath, "utf8"));
@@ -117,5 +119,26 @@ describe("chirpsieve bank", () => {
     ];
     const results = await runCliAll(cases.map(([args]) => args));
     results.forEach((r, i) => expectOneLineError(r, cases[i][1]));
+  });
+});
+
+describe("chirpsieve bank: the edge of the inspiral", () => {
+  it("records the inspiral share in the JSON summary and does not warn for a neutron-star bank", () => {
+    const r = runCli(["bank", "--mass-range", "1:2", "--fmin", "30", "--noise-curve", "ajith2011", "--match-floor", "0.9", "--out", join(dir, "light.json"), "--json"]);
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stderr).toBe("");
+    const doc = JSON.parse(r.stdout);
+    expect(doc.inspiralEdge.threshold).toBe(0.9);
+    expect(doc.inspiralEdge.below).toBe(0);
+    expect(doc.inspiralEdge.totalMassRangeSolar).toBeNull();
+    expect(doc.inspiralEdge.lowestShare).toBeGreaterThan(0.999);
+  });
+  it("names the mass range of the templates below 0.9 in the summary of a heavy bank", () => {
+    const r = runCli(["bank", "--mass-range", "20:40", "--fmin", "30", "--noise-curve", "ajith2011", "--match-floor", "0.9", "--out", join(dir, "heavy.json"), "--json"]);
+    expect(r.code, r.stderr).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.inspiralEdge.below).toBe(doc.inspiralEdge.templates);
+    expect(doc.inspiralEdge.totalMassRangeSolar[0]).toBeGreaterThanOrEqual(40 - 1e-9);
+    expect(r.stderr).toMatch(/^chirpsieve: warning: \d+ of \d+ templates \(total mass 40\.0–80\.0 M_sun\)/);
   });
 });

@@ -111,3 +111,26 @@ describe("chirpsieve scan", () => {
     });
   });
 });
+
+describe("chirpsieve scan: the edge of the inspiral", () => {
+  it("warns once, naming the total-mass range of templates whose inspiral carries < 90% of the SNR, and records it in the summary", () => {
+    const r = runCli(["scan", file, "--mass-range", "8:12", "--fmin", "30", "--noise-curve", "ajith2011", "--json"]);
+    expect(r.code, r.stderr).toBe(0);
+    const warnings = r.stderr.split("\n").filter((l) => l.startsWith("chirpsieve: warning:"));
+    expect(warnings).toHaveLength(1);
+    expect(warnings[0]).toMatch(/templates \(total mass [\d.]+–24\.0 M_sun\) carry less than 90% .* lighter chirp masses and earlier times/);
+    const summary = JSON.parse(r.stdout.trim().split("\n").at(-1)!);
+    expect(summary.type).toBe("summary");
+    expect(summary.inspiralEdge.threshold).toBe(0.9);
+    expect(summary.inspiralEdge.below).toBeGreaterThan(0);
+    expect(summary.inspiralEdge.totalMassRangeSolar[1]).toBeCloseTo(24, 6);
+    expect(summary.inspiralEdge.psd).toBe("ajith2011");
+  });
+  it("with --quiet keeps stderr clear but still records the edge (with the design curve standing in for an estimated PSD)", () => {
+    const r = runCli(["scan", file, ...base, "--json"]);
+    expect(r.stderr).toBe("");
+    const summary = JSON.parse(r.stdout.trim().split("\n").at(-1)!);
+    expect(summary.inspiralEdge.below).toBeGreaterThan(0);
+    expect(summary.inspiralEdge.psd).toMatch(/^ajith2011 \(design curve standing in for the estimated PSD\)$/);
+  });
+});

@@ -95,3 +95,28 @@ describe("chirpsieve simulate", () => {
     expect(existsSync(out)).toBe(false);
   });
 });
+
+describe("chirpsieve simulate --spin-range", () => {
+  it("draws aligned spins in the range, prints them and records them and the range in the manifest", () => {
+    const out = join(tmp(), "spin.f32");
+    const r = runCli([
+      "simulate", "--duration", "64", "--rate", "1024", "--seed", "4", "--fmin", "30", "--inject-random", "2",
+      "--mass-range", "5:15", "--spin-range=-0.5:0.6", "--snr-range", "8:20", "--out", out,
+    ]);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/spins -?\d\.\d{3}, -?\d\.\d{3}/);
+    const m = JSON.parse(readFileSync(`${out}.injections.json`, "utf8"));
+    expect(m.spinRange).toEqual([-0.5, 0.6]);
+    for (const inj of m.injections) {
+      expect(inj.primarySpin).toBeGreaterThanOrEqual(-0.5);
+      expect(inj.secondarySpin).toBeLessThanOrEqual(0.6);
+    }
+  });
+  it("refuses a spin of 1, and a spin range without random injections (one line, exit 2)", () => {
+    const out = join(tmp(), "bad.f32");
+    expectOneLineError(runCli(["simulate", "--duration", "16", "--out", out, "--inject-random", "1", "--spin-range", "0:1", "--snr-range", "8:9"]), /--spin-range: .*between −1 and 1/);
+    expectOneLineError(runCli(["simulate", "--duration", "16", "--out", out, "--spin-range", "0:0.5"]), /--spin-range: only applies with --inject-random/);
+    expect(existsSync(out)).toBe(false);
+  });
+});

@@ -26,18 +26,18 @@ import { taylorF2Chirp } from "../search/fixtures.js";
  * |(h_fast|h̃)| / (h̃|h̃) in ajith2011 noise, without maximising over time or phase (so a lower
  * bound on the match), and the largest phase difference of any bin.
  */
-function fastVsExact(seconds: number, fs: number, fLow: number, m1: number, m2: number) {
+function fastVsExact(seconds: number, fs: number, fLow: number, m1: number, m2: number, chi1 = 0, chi2 = 0) {
   const n = seconds * fs;
   const nBins = n / 2 + 1;
   const df = fs / n;
   const exact = new Float64Array(2 * nBins);
-  taylorF2Into(exact, nBins, df, fLow, m1, m2, 1);
+  taylorF2Into(exact, nBins, df, fLow, m1, m2, 1, Infinity, 7, chi1, chi2);
   const { kStart, kEnd } = taylorF2BinRange(nBins, df, fLow, m1, m2);
   const u = new Float64Array(2 * nBins);
   for (let k = kStart; k < kEnd; k++) u[2 * k] = 1;
   const phasor = createTaylorF2Phasor(df);
   const out = new Float64Array(2 * nBins);
-  phasor.multiply(u, out, kStart, kEnd, m1, m2, 1);
+  phasor.multiply(u, out, kStart, kEnd, m1, m2, 1, chi1, chi2);
   const psd = interpolatePsd(ajith2011, df, nBins);
   let re = 0, im = 0, norm = 0, worstPhase = 0;
   for (let k = kStart; k < kEnd; k++) {
@@ -70,6 +70,16 @@ describe("fast phase path of the search (taylorF2Phasor)", () => {
       expect(match).toBeGreaterThanOrEqual(0.9999);
       expect(worstPhase).toBeLessThanOrEqual(DEFAULT_PHASOR_PHASE_ERROR);
     });
+  }
+
+  for (const [seconds, fs, fLow, m1, m2] of cases) {
+    for (const [chi1, chi2] of [[0.99, 0.99], [-0.99, -0.99], [0.99, -0.99]]) {
+      it(`keeps every bin within the phase bound with aligned spins ${chi1}, ${chi2} (${m1}+${m2} M_sun from ${fLow} Hz)`, () => {
+        const { match, worstPhase } = fastVsExact(seconds, fs, fLow, m1, m2, chi1, chi2);
+        expect(match).toBeGreaterThanOrEqual(0.9999);
+        expect(worstPhase).toBeLessThanOrEqual(DEFAULT_PHASOR_PHASE_ERROR);
+      });
+    }
   }
 
   it("writes h̃ for the chi-squared test (SegmentFilter.generate) within the phase bound of the exact template, bin by bin", () => {

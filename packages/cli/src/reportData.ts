@@ -22,6 +22,8 @@ export interface CampaignPopulationDescription {
   snrRange: [number, number] | null;
   distanceRangeMpc: [number, number] | null;
   distanceDistribution: "volume" | "uniform" | null;
+  /** Aligned spins: each body's χ uniform and independent in this range (absent: non-spinning injections). */
+  spinRange?: [number, number];
   seed: string;
   detector: string;
   fMinHz: number;
@@ -129,6 +131,7 @@ export function campaignDocument(input: {
     recoveredChirpMass: r(o.recoveredChirpMass, 6),
     chirpMassError: r(o.chirpMassError, 8),
     timeError: r(o.timeError, 7),
+    ...(o.primarySpin !== undefined ? { primarySpin: r(o.primarySpin, 5)!, secondarySpin: r(o.secondarySpin ?? 0, 5)! } : {}),
   }));
   const falseCandidates: FalseCandidate[] = input.falseCandidates.map((c) => ({
     batch: c.batch,
@@ -176,7 +179,9 @@ export function formatCampaignText(doc: CampaignDocument): string {
   const p = doc.population;
   const out: string[] = [];
   out.push(
-    `recover: ${s.injections} injections of ${p.massRangeSolar.join("–")} M_sun into ${p.noise}, ${doc.layout.batches} batch(es) on ${p.detector}`,
+    `recover: ${s.injections} injections of ${p.massRangeSolar.join("–")} M_sun` +
+      (p.spinRange ? ` (aligned spins uniform in ${p.spinRange.join(" to ")})` : "") +
+      ` into ${p.noise}, ${doc.layout.batches} batch(es) on ${p.detector}`,
   );
   out.push(`found ${s.found}, missed ${s.missed}: efficiency ${s.efficiency === null ? "-" : s.efficiency.toFixed(3)} [${s.efficiencyLower?.toFixed(3)}, ${s.efficiencyUpper?.toFixed(3)}] (${s.interval})`);
   out.push("efficiency by optimal SNR:");

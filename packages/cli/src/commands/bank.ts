@@ -22,6 +22,7 @@ import { UsageError, withBankFlagErrors } from "../errors.js";
 import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
+import { checkInspiralEdge, warnInspiralEdge } from "../inspiralEdge.js";
 
 /** What a user of `bank` can change when the bank would exceed --template-cap. */
 const LIMIT_REMEDY = "narrow it, raise --fmin, lower --match-floor or raise --template-cap";
@@ -195,9 +196,11 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
+  const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fminHz);
+  warnInspiralEdge(inspiralEdge);
   if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
   if (flags.json) {
-    process.stdout.write(JSON.stringify({ file: flags.out, ...report, countOverVolumeEstimate: report.templateCount / report.volumeEstimate }) + "\n");
+    process.stdout.write(JSON.stringify({ file: flags.out, ...report, countOverVolumeEstimate: report.templateCount / report.volumeEstimate, inspiralEdge }) + "\n");
     return;
   }
   process.stdout.write(buildSummary(flags.out, bank, report) + "\n");

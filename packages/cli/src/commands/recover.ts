@@ -29,6 +29,7 @@ import {
 import { UsageError } from "../errors.js";
 import { checkFilePlan, noiseCurveInput, strainInputs } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
 import { createProgress } from "../progress.js";
 import { openStrainInput } from "../strainInputs.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
@@ -39,6 +40,7 @@ interface RecoverFlags extends SearchFlags {
   strain?: string[];
   count: string;
   massRange: string;
+  spinRange?: string;
   snrRange?: string;
   distanceRange?: string;
   distanceDistribution: string;
@@ -77,6 +79,7 @@ export function registerRecover(program: Command): void {
     .option("--strain <file...>", "inject into these strain files instead of simulated noise")
     .option("--count <N>", "number of injections", "100")
     .option("--mass-range <min:max>", "component masses of the injections (and of a bank built on the fly), M_sun", "1:3")
+    .option("--spin-range <min:max>", `${SPIN_RANGE_HELP}; injected with spinning TaylorT4, searched with the bank as it is`)
     .option("--snr-range <min:max>", "optimal SNR range of the injections (distance scaled to hit it)")
     .option("--distance-range <min:max>", "distance range of the injections, Mpc")
     .option("--distance-distribution <kind>", "with --distance-range: volume (p ∝ D²) or uniform (in distance)", "volume")
@@ -117,6 +120,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const requirements: Requirement[] = flags.require.map((r) => asUsage("--require", () => parseRequirement(r)));
   const count = parseNumberFlag("--count", flags.count, { min: 1, max: 1_000_000, integer: true });
   const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange);
+  const spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
   if (flags.snrRange !== undefined && flags.distanceRange !== undefined) throw new UsageError("--snr-range and --distance-range: give one, not both");
   if (flags.snrRange === undefined && flags.distanceRange === undefined) throw new UsageError("--snr-range or --distance-range: one is needed to place the injections");
   const snrRange = flags.snrRange === undefined ? undefined : parseRangeFlag("--snr-range", flags.snrRange);
@@ -175,6 +179,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       strain: sources.map((s) => ({ file: s.file, sampleRate: s.sampleRate, startTime: s.startTime, samples: s.length })),
       count,
       massRangeSolar,
+      ...(spinRange ? { spinRange } : {}),
       snrRange: snrRange ?? null,
       distanceRangeMpc: distanceMpc ?? null,
       distanceDistribution: distanceMpc ? distanceDistribution : null,
@@ -199,7 +204,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
     const fingerprint = campaignFingerprint(args);
 
     const options: CampaignOptions = {
-      population: { count, massRangeSolar, snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
+      population: { count, massRangeSolar, ...(spinRange ? { spinRange } : {}), snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
       data: strainFiles.length ? { kind: "strain", sources } : { kind: "simulated", psd: noiseModel!, sampleRate: rate },
       search: { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend, threads, gating },
       detector,
@@ -250,6 +255,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       population: {
         count,
         massRangeSolar,
+        ...(spinRange ? { spinRange } : {}),
         snrRange: snrRange ?? null,
         distanceRangeMpc: distanceMpc ?? null,
         distanceDistribution: distanceMpc ? distanceDistribution : null,

@@ -42,6 +42,7 @@ import {
   formatCoincidencesTable,
 } from "../candidateFormat.js";
 import { VERSION } from "../version.js";
+import { checkInspiralEdge, warnInspiralEdge } from "../inspiralEdge.js";
 
 interface ScanFlags extends SearchFlags {
   shard?: string;
@@ -101,7 +102,7 @@ export function registerScan(program: Command): void {
     .option("--shard <I/N>", "scan only piece I of N (0-based) and write it for `chirpsieve merge`; auto/N takes I from SLURM_ARRAY_TASK_ID or JOB_COMPLETION_INDEX")
     .option("--shard-by <how>", "split the work by templates, time or both", "both")
     .option("--resume", "keep a journal beside --out and continue a killed scan rerun with the same arguments")
-    .option("--quiet", "no progress (bar on a terminal, periodic lines otherwise)")
+    .option("--quiet", "no progress (bar on a terminal, periodic lines otherwise) and no advisory warnings (the summary still records them; data that cannot be searched is always reported)")
     .action(async (files: string[], flags: ScanFlags, cmd: Command) => {
       await runScan(files, flags, cmd);
     });
@@ -138,6 +139,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
 
   const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
   const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
+  const inspiralEdge = checkInspiralEdge(templates, psd.kind === "model" ? psd.model : undefined, fMinHz);
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
@@ -197,6 +199,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   if (run && shard) {
     run.writeShard(flags.out!);
     run.finish();
+    if (!flags.quiet) warnInspiralEdge(inspiralEdge);
     if (!flags.quiet) process.stderr.write(`chirpsieve: shard ${shard.index}/${shard.count} written to ${flags.out}; merge the ${shard.count} shards with \`chirpsieve merge\`\n`);
     return;
   }
@@ -251,6 +254,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
     ...(nonStrain.length > 0 ? { distancesUnavailable: nonStrain.map((n) => ({ file: n.file, units: n.units, why: "units are not dimensionless strain" })) } : {}),
+    inspiralEdge,
     caution: CANDIDATE_CAUTION,
   };
 
@@ -280,6 +284,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   if (flags.out) writeFileAtomic(flags.out, text);
   else process.stdout.write(text);
   run?.finish();
+  if (!flags.quiet) warnInspiralEdge(inspiralEdge);
   if (flags.out && !flags.quiet) {
     process.stderr.write(`chirpsieve: ${candidates.length} candidate(s) written to ${flags.out}\n`);
   }

@@ -24,6 +24,7 @@ import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
 import { VERSION } from "../version.js";
 import { parseNumberFlag, parseRangeFlag } from "../options.js";
 import { DEFAULT_PSD_SEGMENT_SECONDS } from "../searchFlags.js";
+import { SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
 
 interface SimulateFlags {
   noiseCurve: string;
@@ -36,6 +37,7 @@ interface SimulateFlags {
   inject?: string;
   injectRandom?: string;
   massRange?: string;
+  spinRange?: string;
   snrRange?: string;
   distanceRange?: string;
   edgeMargin?: string;
@@ -68,6 +70,7 @@ export function registerSimulate(program: Command): void {
         "keep clear of the start and end that a scan with the same --fmin and --mass-range cannot search (see --edge-margin)",
     )
     .option("--mass-range <min:max>", "component masses of random injections, M_sun", "1:3")
+    .option("--spin-range <min:max>", SPIN_RANGE_HELP)
     .option(
       "--snr-range <min:max>",
       "optimal SNR range of random injections (distance scaled to hit it); with several --detector sites this is the " +
@@ -163,7 +166,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
 
   const random = flags.injectRandom !== undefined;
   if (random && flags.inject !== undefined) throw new UsageError("--inject-random: cannot be combined with --inject");
-  for (const name of ["massRange", "snrRange", "distanceRange", "edgeMargin"] as const) {
+  for (const name of ["massRange", "spinRange", "snrRange", "distanceRange", "edgeMargin"] as const) {
     if (!random && given(cmd, name)) {
       const flag = `--${name.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`;
       throw new UsageError(`${flag}: only applies with --inject-random`);
@@ -172,6 +175,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
 
   let injections: Injection[] = [];
   let edgeNote: string | undefined;
+  let spinRange: [number, number] | undefined;
   if (flags.inject !== undefined) {
     injections = readInjectionFile(flags.inject);
     // An injection that coalesces outside the data could never be recovered from it: refuse it.
@@ -193,6 +197,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   } else if (random) {
     const count = parseNumberFlag("--inject-random", flags.injectRandom!, { min: 0, integer: true });
     const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange ?? "1:3");
+    spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
     if (flags.snrRange !== undefined && flags.distanceRange !== undefined) {
       throw new UsageError("--snr-range: give either --snr-range or --distance-range, not both");
     }
@@ -219,6 +224,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
         ...(multi ? { detectors } : {}),
         count,
         massRangeSolar,
+        ...(spinRange ? { spinRange } : {}),
         snrRange,
         distanceMpc,
         seed: `${seed}:injections`,
@@ -293,7 +299,17 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
       writeInjectionManifest(
         staged(o.manifest),
         injectionManifest(
-          { noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, detector: o.detector.name },
+          {
+            noiseCurve: psd.name,
+            noise: flags.noise,
+            sampleRate: rate,
+            startTime: start,
+            duration,
+            fMinHz: fmin,
+            seed,
+            detector: o.detector.name,
+            ...(spinRange ? { spinRange } : {}),
+          },
           siteInjections,
         ),
       );
@@ -306,7 +322,10 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
         lines.push(
           `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
             `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
-            `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}${inj.networkOptimalSnr !== undefined ? ` (network ${inj.networkOptimalSnr.toFixed(2)})` : ""}`,
+            `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}${inj.networkOptimalSnr !== undefined ? ` (network ${inj.networkOptimalSnr.toFixed(2)})` : ""}` +
+            (inj.primarySpin !== undefined || inj.secondarySpin !== undefined
+              ? `  spins ${(inj.primarySpin ?? 0).toFixed(3)}, ${(inj.secondarySpin ?? 0).toFixed(3)}`
+              : ""),
         );
       }
     }

@@ -9,13 +9,21 @@ import { placementMetric } from "./placementMetric.js";
 import { createPhaseChart } from "./phaseChart.js";
 import { chirpMassFromMassEta, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
 
-/** One non-spinning inspiral template. Masses in solar masses, chirp times (from the bank's fmin) in s. */
+/**
+ * One inspiral template. Masses in solar masses, chirp times (from the bank's fmin) in s. Spins are
+ * the dimensionless components χ ∈ (−1, 1) along the orbital angular momentum; absent means 0
+ * (non-spinning). The chirp times are those of the non-spinning series.
+ */
 export interface Template {
   primaryMass: number;
   secondaryMass: number;
   chirpMass: number;
   tau0: number;
   tau3: number;
+  /** Aligned spin χ1 of the primary (default 0). */
+  primarySpin?: number;
+  /** Aligned spin χ2 of the secondary (default 0). */
+  secondarySpin?: number;
 }
 
 /** Who made a bank file and how (provenance). */

@@ -24,6 +24,8 @@ export interface CampaignPopulation {
   count: number;
   /** Both component masses uniform in [min, max], M_sun. */
   massRangeSolar: [number, number];
+  /** Aligned spins: each body's χ uniform and independent in [min, max] ⊂ (−1, 1); absent: no spins. */
+  spinRange?: [number, number];
   /** Distance range [min, max], Mpc. */
   distanceMpc?: [number, number];
   /** How distances are drawn in distanceMpc: uniform in volume (p ∝ D², default) or in distance. */
@@ -106,6 +108,9 @@ export interface InjectionOutcome {
   chirpMassError: number | null;
   /** Candidate coalescence time − arrival time, s. */
   timeError: number | null;
+  /** Aligned spins of the injection, present only for a population drawn with a spin range. */
+  primarySpin?: number;
+  secondarySpin?: number;
 }
 
 /** A candidate that matched no injection. */
@@ -153,6 +158,12 @@ export function validatePopulation(p: CampaignPopulation): void {
   if ((p.distanceMpc === undefined) === (p.snrRange === undefined)) throw new InputError("give exactly one of a distance range and an SNR range");
   if (p.distanceMpc !== undefined) checkRange("distance range", p.distanceMpc);
   if (p.snrRange !== undefined) checkRange("SNR range", p.snrRange);
+  if (p.spinRange !== undefined) {
+    const r = p.spinRange;
+    if (!Array.isArray(r) || r.length !== 2 || !(r[0] > -1) || !(r[1] < 1) || !(r[1] >= r[0])) {
+      throw new InputError(`spin range must satisfy −1 < min ≤ max < 1 (got ${String(r)})`);
+    }
+  }
   const dd = p.distanceDistribution ?? "volume";
   if (dd !== "volume" && dd !== "uniform") throw new InputError(`distance distribution must be "volume" or "uniform" (got "${dd}")`);
   if (typeof p.seed !== "string" || p.seed === "") throw new InputError("seed must be a non-empty string");
@@ -193,7 +204,9 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
   const [mLo] = p.massRangeSolar;
   const fIsco = taylorT4Evolution(mLo, mLo).fIscoHz;
   if (search.fMinHz >= fIsco) throw new InputError(`fmin ${search.fMinHz} Hz is not below the ISCO frequency ${fIsco.toFixed(1)} Hz of the lightest binary`);
-  const longestInjection = taylorT4Duration(mLo, mLo, search.fMinHz);
+  // Aligned spins lengthen the inspiral (orbital hang-up): the longest chirp has the largest spins.
+  const spinTop = p.spinRange ? p.spinRange[1] : 0;
+  const longestInjection = taylorT4Duration(mLo, mLo, search.fMinHz, undefined, spinTop, spinTop);
   let longestTemplate = 0;
   for (const t of search.templates) longestTemplate = Math.max(longestTemplate, templateDurationSeconds(t.primaryMass, t.secondaryMass, search.fMinHz));
   const trunc = truncationSeconds(search);
@@ -272,6 +285,7 @@ export function drawBatchInjections(options: CampaignOptions, layout: CampaignLa
   const injections = drawInjections({
     count: batchInjectionCount(layout, p.count, b),
     massRangeSolar: p.massRangeSolar,
+    ...(p.spinRange ? { spinRange: p.spinRange } : {}),
     distanceMpc: p.distanceMpc,
     snrRange: p.snrRange,
     seed: `${p.seed}:injections:${b}`,
@@ -372,6 +386,7 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
       recoveredSnr: c ? c.snr : null,
       reweightedSnr: c ? c.reweightedSnr : null,
       recoveredChirpMass: c ? c.chirpMass : null,
+      ...(inj.primarySpin !== undefined ? { primarySpin: inj.primarySpin, secondarySpin: inj.secondarySpin ?? 0 } : {}),
       chirpMassError: c ? c.chirpMass / mc - 1 : null,
       timeError: c ? c.coalescenceTime - arrival : null,
     };

@@ -11,6 +11,11 @@ export interface InjectionPopulationOptions {
   count: number;
   /** Both component masses are drawn uniformly in [min, max], M_sun. */
   massRangeSolar: [number, number];
+  /**
+   * Aligned-spin range [min, max] ⊂ (−1, 1): each body's spin χ along the orbital angular momentum
+   * is drawn uniformly and independently in it. Absent: non-spinning injections (no spin fields).
+   */
+  spinRange?: [number, number];
   /** Distance range [min, max], Mpc, drawn uniformly in volume (p(D) ∝ D²). */
   distanceMpc?: [number, number];
   /** Target optimal SNR range [min, max], drawn uniformly; the distance is scaled to hit it. */
@@ -45,6 +50,15 @@ export interface InjectionPopulationOptions {
 /** Largest plane-wave delay between the Earth's centre and a detector on its surface, s (R_earth / c, rounded up). */
 const MAX_EARTH_DELAY = 0.0214;
 
+function checkSpinRange(r: unknown): [number, number] {
+  if (!Array.isArray(r) || r.length !== 2 || !r.every((x) => typeof x === "number" && Number.isFinite(x))) {
+    throw new InputError("spinRange must be two finite numbers [min, max]");
+  }
+  const [lo, hi] = r as [number, number];
+  if (!(lo > -1) || !(hi < 1) || !(hi >= lo)) throw new InputError(`spinRange must satisfy −1 < min ≤ max < 1 (got ${lo}, ${hi})`);
+  return [lo, hi];
+}
+
 function checkRange(name: string, r: unknown, lowest: number): [number, number] {
   if (!Array.isArray(r) || r.length !== 2 || !r.every((x) => typeof x === "number" && Number.isFinite(x))) {
     throw new InputError(`${name} must be two finite numbers [min, max]`);
@@ -69,6 +83,8 @@ function checkRange(name: string, r: unknown, lowest: number): [number, number] 
  *   of chirp k+1 from fMinHz to the ISCO (the 21.4 ms covers the Earth-centre-to-detector delay).
  *   The slack left after those minimum spacings is shared out by sorted uniform draws. The first
  *   chirp may begin before the series (only its overlapping part is injected).
+ * - with spinRange, aligned spins χ1, χ2 uniform and independent in it, from a second stream seeded
+ *   with `${seed}:aligned-spins` (so the other draws are those of the same population without spins).
  * Draw order (so the stream is reproducible): all masses, then per injection the distance (or
  * SNR), cos ι, α, sin δ, ψ and phase, then the placement offsets.
  * optimalSnr is filled in when `psd` and `sampleRate` are given.
@@ -77,6 +93,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
   const o = options;
   if (!Number.isInteger(o.count) || o.count < 0) throw new InputError(`count must be a non-negative integer (got ${o.count})`);
   const [mLo, mHi] = checkRange("massRangeSolar", o.massRangeSolar, 0);
+  const spinRange = o.spinRange === undefined ? undefined : checkSpinRange(o.spinRange);
   if ((o.distanceMpc === undefined) === (o.snrRange === undefined)) {
     throw new InputError("give exactly one of distanceMpc and snrRange");
   }
@@ -119,12 +136,19 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
     const b = mLo + (mHi - mLo) * rng();
     masses.push(a >= b ? [a, b] : [b, a]);
   }
-  const durations = masses.map(([a, b]) => {
+  // Spins come from their own stream, so that a population without spins is drawn exactly as before.
+  const spins: [number, number][] = [];
+  if (spinRange) {
+    const spinRng = seedrandom(`${String(o.seed)}:aligned-spins`);
+    const [sLo, sHi] = spinRange;
+    for (let k = 0; k < n; k++) spins.push([sLo + (sHi - sLo) * spinRng(), sLo + (sHi - sLo) * spinRng()]);
+  }
+  const durations = masses.map(([a, b], k) => {
     const fIsco = taylorT4Evolution(a, b).fIscoHz;
     if (o.fMinHz >= fIsco) {
       throw new InputError(`fMinHz ${o.fMinHz} Hz is not below the ISCO frequency (${fIsco.toFixed(1)} Hz) of a ${a.toFixed(2)}+${b.toFixed(2)} M_sun binary`);
     }
-    return taylorT4Duration(a, b, o.fMinHz);
+    return spinRange ? taylorT4Duration(a, b, o.fMinHz, undefined, spins[k][0], spins[k][1]) : taylorT4Duration(a, b, o.fMinHz);
   });
 
   const drawn = masses.map(([m1, m2]) => {
@@ -169,6 +193,10 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
       polarization: d.polarization,
       phase: d.phase,
     };
+    if (spinRange) {
+      inj.primarySpin = spins[k][0];
+      inj.secondarySpin = spins[k][1];
+    }
     if (wantSnr) {
       const snr = snrOf(inj);
       if (sRange) {

@@ -27,6 +27,10 @@ export interface Injection {
   phase: number;
   /** Optimal (noise-weighted) SNR in the detector, when known (drawInjections and `simulate` fill it in). */
   optimalSnr?: number;
+  /** Dimensionless spin χ1 ∈ (−1, 1) of the heavier body along the orbital angular momentum (absent: 0). */
+  primarySpin?: number;
+  /** Dimensionless spin χ2 ∈ (−1, 1) of the lighter body along the orbital angular momentum (absent: 0). */
+  secondarySpin?: number;
 }
 
 /** A strain segment on a uniform grid: `data[0]` sits at grid index `startIndex`. */
@@ -48,7 +52,7 @@ export interface ProjectionOptions {
 
 /**
  * The detector response h(t) = F+ h+(t) + F× h×(t) to an injection, sampled on a grid
- * (TaylorT4 polarisations from {@link taylorT4}; antenna factors from {@link plusCrossResponse}).
+ * (TaylorT4 polarisations from {@link taylorT4}, with the injection's aligned spins; antenna factors from {@link plusCrossResponse}).
  * The coalescence time refers to the Earth's centre; at the detector the signal is shifted by the
  * plane-wave delay {@link geocentreDelay}. F+, F× and the delay are evaluated once, at the
  * coalescence time (the Earth's rotation during the chirp is neglected), with the sidereal angle of
@@ -72,6 +76,8 @@ export function projectInjection(injection: Injection, detector: Detector, optio
     gridStartTime: 0,
     fStartHz: options.fMinHz,
     fEndHz: options.fMaxHz,
+    chi1: inj.primarySpin ?? 0,
+    chi2: inj.secondarySpin ?? 0,
   });
   const data = wf.hPlus;
   const hc = wf.hCross;
@@ -126,7 +132,7 @@ export const INJECTION_FIELDS = [
 /**
  * Validates an injection record (e.g. read from a file); `where` prefixes each message (such as
  * `injections.json: injection 3`). Returns a clean copy (extra fields dropped, optimalSnr kept if
- * it is a finite number).
+ * it is a finite number; primarySpin and secondarySpin kept when present, each in (−1, 1)).
  */
 export function checkInjection(value: unknown, where: string): Injection {
   if (value === null || typeof value !== "object" || Array.isArray(value)) {
@@ -153,6 +159,14 @@ export function checkInjection(value: unknown, where: string): Injection {
   }
   if (Math.abs(inj.declination) > Math.PI / 2) {
     throw new InputError(`${where}: declination must be in [−π/2, π/2] rad (got ${inj.declination})`);
+  }
+  for (const key of ["primarySpin", "secondarySpin"] as const) {
+    const x = rec[key];
+    if (x === undefined) continue;
+    if (typeof x !== "number" || !Number.isFinite(x) || !(Math.abs(x) < 1)) {
+      throw new InputError(`${where}: ${key} must be a dimensionless aligned spin in (−1, 1) (got ${JSON.stringify(x)})`);
+    }
+    inj[key] = x;
   }
   const snr = rec.optimalSnr;
   if (typeof snr === "number" && Number.isFinite(snr)) inj.optimalSnr = snr;

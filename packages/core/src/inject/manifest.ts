@@ -30,6 +30,11 @@ export interface InjectionManifest {
   seed: string | number;
   /** Name of the (invented) detector the signals were projected onto. */
   detector: string;
+  /**
+   * When the injections spin: the range each aligned spin χ was drawn from, uniformly and
+   * independently for the two bodies (absent for non-spinning injections).
+   */
+  spinRange?: [number, number];
   injections: ManifestInjection[];
 }
 
@@ -38,6 +43,10 @@ export function injectionManifest(
   meta: Omit<InjectionManifest, "synthetic" | "injections">,
   injections: (Injection & { networkOptimalSnr?: number })[],
 ): InjectionManifest {
+  const spinFields = (inj: Injection) =>
+    inj.primarySpin !== undefined || inj.secondarySpin !== undefined
+      ? { primarySpin: inj.primarySpin ?? 0, secondarySpin: inj.secondarySpin ?? 0 }
+      : {};
   return {
     synthetic: true,
     noiseCurve: meta.noiseCurve,
@@ -48,6 +57,7 @@ export function injectionManifest(
     fMinHz: meta.fMinHz,
     seed: meta.seed,
     detector: meta.detector,
+    ...(meta.spinRange ? { spinRange: meta.spinRange } : {}),
     injections: injections.map((inj) => ({
       primaryMass: inj.primaryMass,
       secondaryMass: inj.secondaryMass,
@@ -61,6 +71,7 @@ export function injectionManifest(
       phase: inj.phase,
       optimalSnr: inj.optimalSnr ?? Number.NaN,
       ...(inj.networkOptimalSnr !== undefined ? { networkOptimalSnr: inj.networkOptimalSnr } : {}),
+      ...spinFields(inj),
     })),
   };
 }

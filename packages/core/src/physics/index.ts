@@ -7,3 +7,5 @@ export * from "./orbitalDecay.js";
 export * from "./chirp.js";
 export * from "./isco.js";
 export * from "./binaryDescription.js";
+export * from "./remnant.js";
+export * from "./ringdown.js";

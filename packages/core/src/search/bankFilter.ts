@@ -44,14 +44,24 @@ export interface BankFilter {
   /**
    * Complex SNR series of one template (masses in solar masses, at 1 Mpc) into `snr`; returns
    * σ (s, at 1 Mpc) and the template's kEnd, or σ = 0 when it has no power in the band (then
-   * `snr` is not written).
+   * `snr` is not written). Aligned spins chi1, chi2 ∈ (−1, 1), default 0 (non-spinning).
    */
-  filter(weights: SegmentWeights, m1Solar: number, m2Solar: number): { sigma: number; kEnd: number };
+  filter(weights: SegmentWeights, m1Solar: number, m2Solar: number, chi1?: number, chi2?: number): { sigma: number; kEnd: number };
   /**
    * Filters templates from..to−1 of `masses` (m1, m2 pairs, solar masses), writes each σ into
-   * sigmas[index] and appends the windowed peaks above threshold to `triggers`.
+   * sigmas[index] and appends the windowed peaks above threshold to `triggers`. `spins`, when
+   * given, holds each template's aligned spins (χ1, χ2 pairs, the same layout as `masses`).
    */
-  scan(weights: SegmentWeights, masses: Float64Array, from: number, to: number, peaks: PeakWindow, sigmas: Float64Array, triggers: Trigger[]): void;
+  scan(
+    weights: SegmentWeights,
+    masses: Float64Array,
+    from: number,
+    to: number,
+    peaks: PeakWindow,
+    sigmas: Float64Array,
+    triggers: Trigger[],
+    spins?: Float64Array,
+  ): void;
   /**
    * Makes the FFT plan and runs one transform of zeros, so that the first template does not pay
    * for the first touch of the plan's memory (~0.2 s for 2^21 points in a fresh thread).
@@ -73,7 +83,7 @@ export function createBankFilter(config: BankFilterConfig): BankFilter {
   const result = { sigma: 0, kEnd: 0 };
   const getPlan = (): ComplexPlan => (plan ??= createComplexPlan(n, config.backend));
 
-  function filter(weights: SegmentWeights, m1: number, m2: number): { sigma: number; kEnd: number } {
+  function filter(weights: SegmentWeights, m1: number, m2: number, chi1 = 0, chi2 = 0): { sigma: number; kEnd: number } {
     const { kStart, kEnd } = taylorF2BinRange(nBins, df, config.fMinHz, m1, m2, config.fMaxHz);
     result.kEnd = kEnd;
     result.sigma = 0;
@@ -88,7 +98,7 @@ export function createBankFilter(config: BankFilterConfig): BankFilter {
     if (dirtyHi > 2 * kTo) input.fill(0, 2 * kTo, dirtyHi);
     dirtyLo = 2 * kFrom;
     dirtyHi = 2 * kTo;
-    phasor.multiply(weights.u, input, kFrom, kTo, m1, m2, Math.sqrt((4 * df) / dC));
+    phasor.multiply(weights.u, input, kFrom, kTo, m1, m2, Math.sqrt((4 * df) / dC), chi1, chi2);
     p.inverse();
     result.sigma = (taylorF2Amplitude(m1, m2, 1) * Math.sqrt(4 * df * dC)) / weights.scale;
     return result;
@@ -100,9 +110,11 @@ export function createBankFilter(config: BankFilterConfig): BankFilter {
       return getPlan().output;
     },
     filter,
-    scan(weights, masses, from, to, peaks, sigmas, triggers) {
+    scan(weights, masses, from, to, peaks, sigmas, triggers, spins) {
       for (let ti = from; ti < to; ti++) {
-        const { sigma } = filter(weights, masses[2 * ti], masses[2 * ti + 1]);
+        const { sigma } = spins
+          ? filter(weights, masses[2 * ti], masses[2 * ti + 1], spins[2 * ti], spins[2 * ti + 1])
+          : filter(weights, masses[2 * ti], masses[2 * ti + 1]);
         sigmas[ti] = sigma;
         if (sigma > 0) findWindowPeaks(getPlan().output, peaks.start, peaks.end, peaks.threshold, peaks.window, ti, triggers);
       }

@@ -15,7 +15,8 @@ export interface TaylorF2Phasor {
   /**
    * out[k] = scale · u[k] · e^{+iΨ(k·dfHz)} for kFrom ≤ k < kTo (interleaved complex arrays; other
    * bins untouched), Ψ the TaylorF2 phase of {@link taylorF2FrequencySeriesInto} (t_c = 0, φ_c = 0,
-   * including the −π/4). kFrom ≥ 1. No allocation. `u` and `out` may be the same array.
+   * including the −π/4; aligned spins chi1, chi2 ∈ (−1, 1), default 0). kFrom ≥ 1. No allocation.
+   * `u` and `out` may be the same array.
    */
   multiply(
     u: Float32Array | Float64Array,
@@ -25,6 +26,8 @@ export interface TaylorF2Phasor {
     m1Solar: number,
     m2Solar: number,
     scale: number,
+    chi1?: number,
+    chi2?: number,
   ): void;
   /**
    * The template itself by the same fast phase: out[k] = scale · amplitude[k] · e^{−iΨ(k·dfHz)}
@@ -40,6 +43,8 @@ export interface TaylorF2Phasor {
     m1Solar: number,
     m2Solar: number,
     scale: number,
+    chi1?: number,
+    chi2?: number,
   ): void;
 }
 
@@ -86,8 +91,10 @@ export function createTaylorF2Phasor(
     m1Solar: number,
     m2Solar: number,
     scale: number,
+    chi1: number,
+    chi2: number,
   ): void {
-    taylorF2FrequencySeriesInto(m1Solar, m2Solar, pnOrder, c, d);
+    taylorF2FrequencySeriesInto(m1Solar, m2Solar, pnOrder, c, d, chi1, chi2);
     if (!(kFrom >= 1) || kTo <= kFrom) return;
     // max|Ψ‴| over a block starting at f, in rad/bin³: 1.5 · (440/27)|c₀| f^{−14/3} df³, so
     // max|Ψ‴| h³ / (9√3) ≤ ε  ⇔  h ≤ hScale · f^{14/9}.
@@ -122,11 +129,11 @@ export function createTaylorF2Phasor(
     dfHz,
     pnOrder,
     maxPhaseError,
-    multiply(u, out, kFrom, kTo, m1Solar, m2Solar, scale) {
-      run(0, u, out, kFrom, kTo, m1Solar, m2Solar, scale);
+    multiply(u, out, kFrom, kTo, m1Solar, m2Solar, scale, chi1 = 0, chi2 = 0) {
+      run(0, u, out, kFrom, kTo, m1Solar, m2Solar, scale, chi1, chi2);
     },
-    template(amplitude, out, kFrom, kTo, m1Solar, m2Solar, scale) {
-      run(1, amplitude, out, kFrom, kTo, m1Solar, m2Solar, scale);
+    template(amplitude, out, kFrom, kTo, m1Solar, m2Solar, scale, chi1 = 0, chi2 = 0) {
+      run(1, amplitude, out, kFrom, kTo, m1Solar, m2Solar, scale, chi1, chi2);
     },
   };
 }

@@ -3,7 +3,8 @@
 import { M_SUN, T_SUN } from "../physics/constants.js";
 import { iscoGwFrequency } from "../physics/isco.js";
 import { InputError } from "../errors.js";
-import { orbitalPhaseCoefficients } from "./pnCoefficients.js";
+import { orbitalPhaseCoefficients, taylorF2PhaseCoefficients } from "./pnCoefficients.js";
+import { addAlignedSpinPhaseTermsInto, requireAlignedSpins } from "./alignedSpinPhase.js";
 import { requireMasses, requirePositiveFinite } from "./taylorf2Validate.js";
 
 /** GW cycle counts between two frequencies, total and per PN order. */
@@ -52,4 +53,42 @@ export function gwCycleCounts(m1Solar: number, m2Solar: number, fLowHz: number, 
     total += n;
   }
   return { total, byTwicePnOrder };
+}
+
+/**
+ * GW cycles from fLowHz to fHighHz (default: the Schwarzschild ISCO of the total mass) of the
+ * TaylorF2 phasing with aligned spins chi1, chi2 ∈ (−1, 1): the GW phase at the stationary point is
+ * φ(f) = 2π f t(f) − Ψ(f) − π/4 with 2π t(f) = dΨ/df (Cutler & Flanagan, Phys. Rev. D 49, 2658 (1994)),
+ * so with Ψ = 3/(128 η v⁵) Σ (a_k + b_k ln v) v^k and f d/df = (v/3) d/dv,
+ *   φ(v) = 3/(128 η) Σ_k [((k − 8)/3)(a_k + b_k ln v) + b_k/3] v^{k−5},   N = (φ(v2) − φ(v1)) / 2π,
+ * coefficients of taylorF2PhaseCoefficients plus addAlignedSpinPhaseTermsInto. Without spins it
+ * equals the total of {@link gwCycleCounts} up to the truncation difference of the two series.
+ */
+export function stationaryPhaseCycles(
+  m1Solar: number,
+  m2Solar: number,
+  fLowHz: number,
+  fHighHz?: number,
+  chi1 = 0,
+  chi2 = 0,
+): number {
+  const where = "stationaryPhaseCycles";
+  requireMasses(where, m1Solar, m2Solar);
+  requirePositiveFinite(where, "fLowHz", fLowHz);
+  requireAlignedSpins(where, chi1, chi2);
+  const mTotal = m1Solar + m2Solar;
+  const f2 = fHighHz ?? iscoGwFrequency(mTotal * M_SUN);
+  requirePositiveFinite(where, "fHighHz", f2);
+  if (!(f2 > fLowHz)) throw new InputError(`${where}: fHighHz (${f2}) must exceed fLowHz (${fLowHz})`);
+  const eta = Math.min((m1Solar * m2Solar) / (mTotal * mTotal), 0.25);
+  const { a, b } = taylorF2PhaseCoefficients(eta, 7);
+  if (chi1 !== 0 || chi2 !== 0) addAlignedSpinPhaseTermsInto(m1Solar, m2Solar, chi1, chi2, 7, a, b);
+  const piM = Math.PI * mTotal * T_SUN;
+  const phase = (v: number): number => {
+    const lv = Math.log(v);
+    let s = 0;
+    for (let k = 0; k < 8; k++) s += (((k - 8) / 3) * (a[k] + b[k] * lv) + b[k] / 3) * Math.pow(v, k - 5);
+    return (3 / (128 * eta)) * s;
+  };
+  return (phase(Math.cbrt(piM * f2)) - phase(Math.cbrt(piM * fLowHz))) / (2 * Math.PI);
 }

@@ -35,6 +35,12 @@ export interface TaylorT4Options {
   endTaperCycles?: number;
   /** Highest power of v kept in the TaylorT4 series (default 7 = 3.5PN; 0 = Newtonian). */
   pnOrder?: number;
+  /**
+   * Dimensionless spins χ1, χ2 ∈ (−1, 1) of the two bodies along the orbital angular momentum
+   * (default 0); they enter the orbital evolution (waveform/alignedSpinEnergyFlux.ts), not the amplitude.
+   */
+  chi1?: number;
+  chi2?: number;
 }
 
 /** A sampled two-polarisation waveform segment on a uniform grid. */
@@ -57,7 +63,7 @@ export interface TimeDomainWaveform {
 const MAX_DV_OVER_V = 1e-3;
 
 /**
- * TaylorT4 time-domain inspiral of a non-spinning quasi-circular binary, sampled at exactly the grid
+ * TaylorT4 time-domain inspiral of a quasi-circular binary (aligned spins optional), sampled at exactly the grid
  * times t_i = gridStartTime + i / sampleRate.
  *
  * The orbit follows dv/dt = (32η/5M) v⁹ Σ a_k v^k (TaylorT4 to 3.5PN: Buonanno, Iyer, Ochsner, Pan &
@@ -76,7 +82,7 @@ const MAX_DV_OVER_V = 1e-3;
  */
 export function taylorT4(options: TaylorT4Options): TimeDomainWaveform {
   const o = options;
-  const ev = taylorT4Evolution(o.massSolar1, o.massSolar2, o.pnOrder ?? TAYLOR_T4_MAX_ORDER);
+  const ev = taylorT4Evolution(o.massSolar1, o.massSolar2, o.pnOrder ?? TAYLOR_T4_MAX_ORDER, o.chi1 ?? 0, o.chi2 ?? 0);
   const fs = o.sampleRate;
   if (!(fs > 0) || !Number.isFinite(fs)) throw new InputError(`sampleRate must be a positive number (got ${fs})`);
   if (!(o.distanceMpc > 0) || !Number.isFinite(o.distanceMpc)) {

@@ -1,5 +1,7 @@
 import { InputError } from "../errors.js";
 import { C, T_SUN } from "../physics/constants.js";
+import { requireAlignedSpins } from "./alignedSpinPhase.js";
+import { taylorT4SpinCorrections } from "./alignedSpinEnergyFlux.js";
 
 /** Euler–Mascheroni constant γ_E (appears in the 3PN flux). */
 const EULER_GAMMA = 0.5772156649015329;
@@ -8,7 +10,8 @@ const EULER_GAMMA = 0.5772156649015329;
 export const TAYLOR_T4_MAX_ORDER = 7;
 
 /**
- * The orbital evolution of a non-spinning quasi-circular binary in the TaylorT4 approximant:
+ * The orbital evolution of a quasi-circular binary (spins aligned with the orbital angular momentum,
+ * or none) in the TaylorT4 approximant:
  * the energy-balance equation dv/dt = −F(v) / (dE/dv) with the ratio re-expanded as one PN series,
  * plus the orbital phase dφ/dt = v³ / M (M = G M_total / c³ in seconds, v = (M ω)^{1/3}).
  */
@@ -16,6 +19,9 @@ export interface TaylorT4Evolution {
   /** Component masses, solar masses. */
   readonly massSolar1: number;
   readonly massSolar2: number;
+  /** Aligned dimensionless spins χ1, χ2 ∈ (−1, 1) (0 = non-spinning). */
+  readonly chi1: number;
+  readonly chi2: number;
   /** Total mass as a time, G M / c³, s. */
   readonly totalMassSeconds: number;
   /** Symmetric mass ratio η = m1 m2 / M². */
@@ -80,11 +86,19 @@ export function taylorT4Coefficients(eta: number): { a: Float64Array; a6Log: num
 const SIMPSON_PANELS = 4096;
 
 /**
- * Builds the TaylorT4 orbital evolution of a non-spinning binary with component masses in solar
- * masses. `pnOrder` is the highest power of v kept (0, 2, 3, …, 7; default 7 = 3.5PN).
- * Throws InputError for non-positive masses or if dv/dt is not positive up to the ISCO.
+ * Builds the TaylorT4 orbital evolution of a binary with component masses in solar masses and
+ * aligned spins chi1, chi2 ∈ (−1, 1) (default 0). `pnOrder` is the highest power of v kept (0, 2, 3,
+ * …, 7; default 7 = 3.5PN). Spins add {@link taylorT4SpinCorrections} to the non-spinning table
+ * (not evaluated at all when both are zero). Throws InputError for non-positive masses, spins
+ * outside (−1, 1), or if dv/dt is not positive up to the ISCO.
  */
-export function taylorT4Evolution(massSolar1: number, massSolar2: number, pnOrder = TAYLOR_T4_MAX_ORDER): TaylorT4Evolution {
+export function taylorT4Evolution(
+  massSolar1: number,
+  massSolar2: number,
+  pnOrder = TAYLOR_T4_MAX_ORDER,
+  chi1 = 0,
+  chi2 = 0,
+): TaylorT4Evolution {
   if (!(massSolar1 > 0) || !Number.isFinite(massSolar1)) {
     throw new InputError(`primary mass must be a positive number of solar masses (got ${massSolar1})`);
   }
@@ -94,10 +108,15 @@ export function taylorT4Evolution(massSolar1: number, massSolar2: number, pnOrde
   if (!Number.isInteger(pnOrder) || pnOrder < 0 || pnOrder > TAYLOR_T4_MAX_ORDER) {
     throw new InputError(`TaylorT4 pnOrder must be an integer 0..${TAYLOR_T4_MAX_ORDER} (got ${pnOrder})`);
   }
+  requireAlignedSpins("taylorT4Evolution", chi1, chi2);
   const mTotal = massSolar1 + massSolar2;
   const m = T_SUN * mTotal;
   const eta = (massSolar1 * massSolar2) / (mTotal * mTotal);
   const { a: coef, a6Log: a6LogFull } = taylorT4Coefficients(eta);
+  if (chi1 !== 0 || chi2 !== 0) {
+    const spin = taylorT4SpinCorrections(massSolar1, massSolar2, chi1, chi2);
+    for (let k = 0; k < 8; k++) coef[k] += spin[k];
+  }
   for (let k = pnOrder + 1; k < 8; k++) coef[k] = 0;
   const a6Log = pnOrder >= 6 ? a6LogFull : 0;
   const [, , a2, a3, a4, a5, a6, a7] = coef;
@@ -123,7 +142,10 @@ export function taylorT4Evolution(massSolar1: number, massSolar2: number, pnOrde
       const v = Math.exp(s0 + i * h);
       const g = dvdt(v);
       if (!(g > 0)) {
-        throw new InputError(`TaylorT4: dv/dt is not positive at v = ${v.toPrecision(4)} for masses ${massSolar1}+${massSolar2}`);
+        throw new InputError(
+          `TaylorT4: dv/dt is not positive at v = ${v.toPrecision(4)} for masses ${massSolar1}+${massSolar2}` +
+            (chi1 !== 0 || chi2 !== 0 ? ` with spins ${chi1}, ${chi2}` : ""),
+        );
       }
       const w = i === 0 || i === SIMPSON_PANELS ? 1 : i % 2 === 1 ? 4 : 2;
       const dt = v / g; // dt/d(ln v)
@@ -136,6 +158,8 @@ export function taylorT4Evolution(massSolar1: number, massSolar2: number, pnOrde
   return {
     massSolar1,
     massSolar2,
+    chi1,
+    chi2,
     totalMassSeconds: m,
     eta,
     pnOrder,
@@ -149,18 +173,34 @@ export function taylorT4Evolution(massSolar1: number, massSolar2: number, pnOrde
 }
 
 /**
- * Duration (s) of the TaylorT4 inspiral from GW frequency fStartHz to fEndHz (default: the ISCO).
+ * Duration (s) of the TaylorT4 inspiral from GW frequency fStartHz to fEndHz (default: the ISCO),
+ * with aligned spins chi1, chi2 (default 0).
  * Throws InputError if fStartHz is not below the end frequency.
  */
-export function taylorT4Duration(massSolar1: number, massSolar2: number, fStartHz: number, fEndHz?: number): number {
-  const ev = taylorT4Evolution(massSolar1, massSolar2);
+export function taylorT4Duration(
+  massSolar1: number,
+  massSolar2: number,
+  fStartHz: number,
+  fEndHz?: number,
+  chi1 = 0,
+  chi2 = 0,
+): number {
+  const ev = taylorT4Evolution(massSolar1, massSolar2, TAYLOR_T4_MAX_ORDER, chi1, chi2);
   const [vs, ve] = velocityRange(ev, fStartHz, fEndHz);
   return ev.interval(vs, ve).time;
 }
 
-/** Number of GW cycles (GW phase / 2π = orbital phase / π) of the TaylorT4 inspiral from fStartHz to fEndHz (default ISCO). */
-export function taylorT4Cycles(massSolar1: number, massSolar2: number, fStartHz: number, fEndHz?: number, pnOrder = TAYLOR_T4_MAX_ORDER): number {
-  const ev = taylorT4Evolution(massSolar1, massSolar2, pnOrder);
+/** Number of GW cycles (GW phase / 2π = orbital phase / π) of the TaylorT4 inspiral from fStartHz to fEndHz (default ISCO), aligned spins chi1, chi2 (default 0). */
+export function taylorT4Cycles(
+  massSolar1: number,
+  massSolar2: number,
+  fStartHz: number,
+  fEndHz?: number,
+  pnOrder = TAYLOR_T4_MAX_ORDER,
+  chi1 = 0,
+  chi2 = 0,
+): number {
+  const ev = taylorT4Evolution(massSolar1, massSolar2, pnOrder, chi1, chi2);
   const [vs, ve] = velocityRange(ev, fStartHz, fEndHz);
   return ev.interval(vs, ve).orbitalPhase / Math.PI;
 }

@@ -1,5 +1,7 @@
-// TaylorF2: the stationary-phase frequency-domain inspiral of a quasi-circular, non-spinning
-// compact binary, 3.5PN phase with the Newtonian (quadrupole) amplitude, cut at the ISCO.
+// TaylorF2: the stationary-phase frequency-domain inspiral of a quasi-circular compact binary with
+// spins aligned with the orbital angular momentum (χ1, χ2; default 0 = non-spinning), 3.5PN phase
+// (spin terms: waveform/alignedSpinPhase.ts) with the Newtonian (quadrupole) amplitude, cut at the
+// Schwarzschild ISCO of the total mass. With χ1 = χ2 = 0 no spin term is evaluated at all.
 //
 // Conventions (the project's):
 //   Fourier transform  h̃(f) = ∫ h(t) e^{−2πift} dt;  one-sided PSD;  (a|b) = 4 Re ∫ a b* / S_n df.
@@ -14,6 +16,7 @@ import { M_SUN, MPC, C, T_SUN } from "../physics/constants.js";
 import { iscoGwFrequency } from "../physics/isco.js";
 import { InputError } from "../errors.js";
 import { taylorF2PhaseCoefficientsInto } from "./pnCoefficients.js";
+import { addAlignedSpinPhaseTermsInto, requireAlignedSpins } from "./alignedSpinPhase.js";
 import {
   checkPnOrder,
   requireBinCount,
@@ -61,7 +64,8 @@ export function taylorF2Amplitude(m1Solar: number, m2Solar: number, distanceMpc 
  *   c_k = (3/(128η)) μ^{k−5} (a_k + b_k ln μ),  d_k = (3/(128η)) μ^{k−5} b_k / 3,
  * the same series rearranged (Blanchet, Living Rev. Relativ. 17, 2 (2014); Buonanno et al.,
  * Phys. Rev. D 80, 084043 (2009), Sec. III). Only d_5 and d_6 are non-zero. `c` and `d` need
- * length ≥ 8. No allocation; checks the masses, the PN order and the arrays.
+ * length ≥ 8. Aligned spins chi1, chi2 ∈ (−1, 1) (default 0) add the terms of
+ * waveform/alignedSpinPhase.ts. No allocation; checks the masses, spins, PN order and the arrays.
  */
 export function taylorF2FrequencySeriesInto(
   m1Solar: number,
@@ -69,20 +73,39 @@ export function taylorF2FrequencySeriesInto(
   pnOrder: number,
   c: Float64Array,
   d: Float64Array,
+  chi1 = 0,
+  chi2 = 0,
 ): void {
   const where = "taylorF2FrequencySeriesInto";
   requireMasses(where, m1Solar, m2Solar);
   checkPnOrder(where, pnOrder);
+  requireAlignedSpins(where, chi1, chi2);
   if (!(c instanceof Float64Array) || c.length < 8 || !(d instanceof Float64Array) || d.length < 8) {
     throw new InputError(`${where}: c and d must be Float64Arrays of length ≥ 8`);
   }
-  frequencySeries(m1Solar, m2Solar, pnOrder, c, d);
+  frequencySeries(m1Solar, m2Solar, pnOrder, c, d, chi1, chi2);
 }
 
-function frequencySeries(m1Solar: number, m2Solar: number, pnOrder: number, c: Float64Array, d: Float64Array): void {
+/** Non-spinning coefficients of η, plus the aligned-spin terms only when a spin is non-zero. */
+function phaseCoefficients(m1Solar: number, m2Solar: number, pnOrder: number, chi1: number, chi2: number): number {
   const mTotal = m1Solar + m2Solar;
   const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
   taylorF2PhaseCoefficientsInto(eta, pnOrder, scratchA, scratchB);
+  if (chi1 !== 0 || chi2 !== 0) addAlignedSpinPhaseTermsInto(m1Solar, m2Solar, chi1, chi2, pnOrder, scratchA, scratchB);
+  return eta;
+}
+
+function frequencySeries(
+  m1Solar: number,
+  m2Solar: number,
+  pnOrder: number,
+  c: Float64Array,
+  d: Float64Array,
+  chi1: number,
+  chi2: number,
+): void {
+  const mTotal = m1Solar + m2Solar;
+  const eta = phaseCoefficients(m1Solar, m2Solar, pnOrder, chi1, chi2);
   const mu = Math.cbrt(Math.PI * mTotal * T_SUN);
   const lnMu = Math.log(mu);
   const pre = 3 / (128 * eta);
@@ -136,21 +159,22 @@ function binRange(
 }
 
 /**
- * Stationary-phase phase Ψ(f) (radians) for t_c = 0, φ_c = 0, non-spinning, up to twice-PN-order
+ * Stationary-phase phase Ψ(f) (radians) for t_c = 0, φ_c = 0, up to twice-PN-order
  * `pnOrder` (0..7, default 7 = 3.5PN):
  *   Ψ(f) = −π/4 + (3 / (128 η v⁵)) Σ_k (a_k + b_k ln v) v^k,  v = (π G M f / c³)^{1/3},
  * coefficients from {@link taylorF2PhaseCoefficientsInto} (Blanchet, Living Rev. Relativ. 17, 2 (2014);
  * Buonanno et al., Phys. Rev. D 80, 084043 (2009), Sec. III). The 2.5PN log is referred to
- * v_lso = 6^{−1/2}. The template is h̃(f) = A f^{−7/6} e^{−iΨ(f)} (see the file header for the sign).
+ * v_lso = 6^{−1/2}. Aligned spins chi1, chi2 ∈ (−1, 1) (default 0) add the terms of
+ * {@link addAlignedSpinPhaseTermsInto}. The template is h̃(f) = A f^{−7/6} e^{−iΨ(f)} (see the file header for the sign).
  */
-export function taylorF2Phase(fHz: number, m1Solar: number, m2Solar: number, pnOrder = 7): number {
+export function taylorF2Phase(fHz: number, m1Solar: number, m2Solar: number, pnOrder = 7, chi1 = 0, chi2 = 0): number {
   const where = "taylorF2Phase";
   requirePositiveFinite(where, "fHz", fHz);
   requireMasses(where, m1Solar, m2Solar);
   checkPnOrder(where, pnOrder);
+  requireAlignedSpins(where, chi1, chi2);
   const mTotal = m1Solar + m2Solar;
-  const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
-  taylorF2PhaseCoefficientsInto(eta, pnOrder, scratchA, scratchB);
+  const eta = phaseCoefficients(m1Solar, m2Solar, pnOrder, chi1, chi2);
   return phaseAt(Math.cbrt(Math.PI * mTotal * T_SUN * fHz), eta, scratchA, scratchB);
 }
 
@@ -194,7 +218,8 @@ function checkCommon(
  * t_c is this × e^{−2πi f t_c}) and A the optimally oriented (face-on, overhead) amplitude at
  * `distanceMpc` (default 1 Mpc): |h̃(f)| = sqrt(5/24) π^{−2/3} (c/D) (G Mc/c³)^{5/6} f^{−7/6}
  * (Sathyaprakash & Schutz, Living Rev. Relativ. 12, 2 (2009)). f_isco = c³/(6^{3/2} π G M).
- * Units of h̃: seconds (strain per Hz). Returns kEnd, one past the last non-zero bin (0 if none).
+ * Aligned spins chi1, chi2 ∈ (−1, 1) (default 0) enter the phase only; the amplitude keeps its
+ * leading (Newtonian) order. Units of h̃: seconds (strain per Hz). Returns kEnd, one past the last non-zero bin (0 if none).
  * Reference implementation (Math.cbrt/log per bin); {@link createTaylorF2Generator} is the fast one.
  */
 export function taylorF2Into(
@@ -207,17 +232,19 @@ export function taylorF2Into(
   distanceMpc = 1,
   fHighHz = Infinity,
   pnOrder = 7,
+  chi1 = 0,
+  chi2 = 0,
 ): number {
   const where = "taylorF2Into";
   checkCommon(where, out, nBins, dfHz, fLowHz, m1Solar, m2Solar, distanceMpc, fHighHz);
   checkPnOrder(where, pnOrder);
+  requireAlignedSpins(where, chi1, chi2);
   const { kStart, kEnd } = binRange(nBins, dfHz, fLowHz, m1Solar, m2Solar, fHighHz);
   out.fill(0, 0, 2 * kStart);
   out.fill(0, 2 * kEnd, 2 * nBins);
   if (kEnd === 0) return 0;
   const mTotal = m1Solar + m2Solar;
-  const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
-  taylorF2PhaseCoefficientsInto(eta, pnOrder, scratchA, scratchB);
+  const eta = phaseCoefficients(m1Solar, m2Solar, pnOrder, chi1, chi2);
   const amp = amplitudePrefactor(m1Solar, m2Solar, distanceMpc);
   const piM = Math.PI * mTotal * T_SUN;
   for (let k = kStart; k < kEnd; k++) {
@@ -238,7 +265,8 @@ export interface TaylorF2Generator {
   readonly pnOrder: number;
   /**
    * Same output as {@link taylorF2Into} with this grid and PN order (equal to ~1e-10 relative):
-   * writes out[0..2·nBins), returns kEnd (0 if no bin is in band). No allocation.
+   * writes out[0..2·nBins), returns kEnd (0 if no bin is in band). Aligned spins chi1, chi2
+   * ∈ (−1, 1), default 0. No allocation.
    */
   generate(
     out: Float64Array,
@@ -247,6 +275,8 @@ export interface TaylorF2Generator {
     m2Solar: number,
     distanceMpc?: number,
     fHighHz?: number,
+    chi1?: number,
+    chi2?: number,
   ): number;
 }
 
@@ -288,13 +318,14 @@ export function createTaylorF2Generator(
     nBins,
     dfHz,
     pnOrder,
-    generate(out, fLowHz, m1Solar, m2Solar, distanceMpc = 1, fHighHz = Infinity) {
+    generate(out, fLowHz, m1Solar, m2Solar, distanceMpc = 1, fHighHz = Infinity, chi1 = 0, chi2 = 0) {
       checkCommon("TaylorF2Generator.generate", out, nBins, dfHz, fLowHz, m1Solar, m2Solar, distanceMpc, fHighHz);
+      requireAlignedSpins("TaylorF2Generator.generate", chi1, chi2);
       const { kStart, kEnd } = binRange(nBins, dfHz, fLowHz, m1Solar, m2Solar, fHighHz);
       out.fill(0, 0, 2 * kStart);
       out.fill(0, 2 * kEnd, 2 * nBins);
       if (kEnd === 0) return 0;
-      frequencySeries(m1Solar, m2Solar, pnOrder, c, d);
+      frequencySeries(m1Solar, m2Solar, pnOrder, c, d, chi1, chi2);
       const c0 = c[0], c1 = c[1], c2 = c[2], c3 = c[3], c4 = c[4], c5 = c[5], c6 = c[6], c7 = c[7];
       const d5 = d[5], d6 = d[6];
       const amp = amplitudePrefactor(m1Solar, m2Solar, distanceMpc);
