@@ -8,5 +8,6 @@ export * from "./io/index.js";
 export * from "./filter/index.js";
 export * from "./bank/index.js";
 export * from "./search/index.js";
+export * from "./run/index.js";
 export * from "./inject/index.js";
 export * from "./coinc/index.js";

@@ -1,7 +1,7 @@
 import type { FftBackendChoice, FftBackendName } from "../fft/types.js";
 import type { PsdModel } from "../noise/psdModel.js";
 import type { GateSettings } from "../noise/gating.js";
-import type { SegmentHook } from "./shardHook.js";
+import type { SegmentHook } from "./segmentHook.js";
 import type { TimeInterval } from "./streamPlan.js";
 
 /**

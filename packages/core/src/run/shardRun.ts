@@ -3,9 +3,9 @@ import { mkdirSync } from "node:fs";
 import { basename, dirname } from "node:path";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
-import { openScanJournal, type ScanJournal } from "./journal.js";
+import { openScanJournal, type ScanJournal } from "./scanJournal.js";
 import { mergeSegmentRecords, type MergedScan, type RunLayout } from "./mergeSegments.js";
-import type { SegmentHook } from "./shardHook.js";
+import type { SegmentHook } from "../search/segmentHook.js";
 import {
   describeInputs,
   describeSearch,
@@ -17,7 +17,7 @@ import {
 } from "./shardManifest.js";
 import { segmentRecord, type SegmentRecord } from "./shardRecord.js";
 import { checkShardSpec, coveredSegments, shardLabel, shardWork, templatesOf, type ShardSpec, type ShardWork } from "./shardWork.js";
-import type { SearchInput, SearchOptions } from "./types.js";
+import type { SearchInput, SearchOptions } from "../search/types.js";
 
 /** What a sharded and/or resumable scan needs to know before it starts. */
 export interface ScanRunSetup {

@@ -1,5 +1,5 @@
-import type { SegmentOutcome, SegmentPeak } from "./shardHook.js";
-import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
+import type { SegmentOutcome, SegmentPeak } from "../search/segmentHook.js";
+import type { Candidate, GateRecord, SkippedStretch } from "../search/types.js";
 
 /** A candidate as a shard records it: with the sample and the raw |z| the per-segment clustering used. */
 export interface RecordedCandidate extends Candidate {

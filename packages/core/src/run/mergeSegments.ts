@@ -1,8 +1,8 @@
 import { InputError } from "../errors.js";
-import { clusterByTime } from "./cluster.js";
-import { addGate } from "./gateList.js";
+import { clusterByTime } from "../search/cluster.js";
+import { addGate } from "../search/gateList.js";
 import type { RecordedCandidate, SegmentRecord } from "./shardRecord.js";
-import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
+import type { Candidate, GateRecord, SkippedStretch } from "../search/types.js";
 
 /** The shape of a run that records are merged into. */
 export interface RunLayout {

@@ -3,7 +3,8 @@ import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, rea
 import { basename, dirname, join, resolve } from "node:path";
 import { InputError } from "../errors.js";
 import { mergeSegmentRecords, type MergedScan } from "./mergeSegments.js";
-import { canonicalJson, manifestPathFor, type ShardManifest } from "./shardManifest.js";
+import { canonicalJson } from "./canonicalJson.js";
+import { manifestPathFor, type ShardManifest } from "./shardManifest.js";
 import type { SegmentRecord } from "./shardRecord.js";
 import { coveredSegments, shardLabel, shardWork } from "./shardWork.js";
 

@@ -3,12 +3,13 @@ import { closeSync, openSync, readSync, statSync } from "node:fs";
 import { basename, dirname, extname, join } from "node:path";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
-import { planSearch, truncationSeconds } from "./scan.js";
-import type { TimeInterval } from "./streamPlan.js";
-import type { SkippedStretch } from "./types.js";
+import { planSearch, truncationSeconds } from "../search/scan.js";
+import type { TimeInterval } from "../search/streamPlan.js";
+import type { SkippedStretch } from "../search/types.js";
 import type { GateSettings } from "../noise/gating.js";
 import type { ShardSpec, WorkBlock } from "./shardWork.js";
-import type { SearchInput, SearchOptions } from "./types.js";
+import { canonicalHash } from "./canonicalJson.js";
+import type { SearchInput, SearchOptions } from "../search/types.js";
 
 /** One input file of a run as manifests record it. */
 export interface RunInput {
@@ -74,23 +75,6 @@ export interface ShardManifest {
   /** The caller's (CLI's) arguments that shape the result, for a person and for the run id. */
   arguments: Record<string, unknown>;
   created: string;
-}
-
-/** Keys sorted, undefined dropped: equal values give equal JSON. */
-export function canonicalJson(value: unknown): string {
-  const canon = (v: unknown): unknown => {
-    if (Array.isArray(v)) return v.map(canon);
-    if (v !== null && typeof v === "object") {
-      const out: Record<string, unknown> = {};
-      for (const k of Object.keys(v as object).sort()) {
-        const x = (v as Record<string, unknown>)[k];
-        if (x !== undefined) out[k] = canon(x);
-      }
-      return out;
-    }
-    return v;
-  };
-  return JSON.stringify(canon(value));
 }
 
 /** SHA-256 (hex) of a file's bytes, read in 4 MiB pieces. */
@@ -192,7 +176,7 @@ export function describeSearch(options: SearchOptions): SearchDescription {
 
 /** The run id: SHA-256 of the tool version, the search settings, the inputs and the caller's arguments (never the shard). */
 export function scanRunId(version: string, search: SearchDescription, inputs: readonly RunInput[], args: Record<string, unknown>): string {
-  return createHash("sha256").update(canonicalJson({ tool: "chirpsieve", version, search, inputs, arguments: args })).digest("hex");
+  return canonicalHash({ tool: "chirpsieve", version, search, inputs, arguments: args });
 }
 
 /** `part-3.jsonl` → `part-3.manifest.json` (beside it). */

@@ -1,7 +1,6 @@
-import { closeSync, existsSync, fsyncSync, openSync, readFileSync, rmSync, truncateSync, writeSync } from "node:fs";
-import { dirname } from "node:path";
+import { closeSync, openSync, rmSync, truncateSync } from "node:fs";
 import { InputError } from "../errors.js";
-import { writeFileAtomic } from "../io/atomicWrite.js";
+import { appendJournalLine, readJournalLines, startJournal } from "./jsonLinesJournal.js";
 import type { SegmentRecord } from "./shardRecord.js";
 import type { ShardSpec } from "./shardWork.js";
 
@@ -29,62 +28,35 @@ export interface ScanJournal {
   remove(): void;
 }
 
-function syncDirectory(path: string): void {
-  let fd = -1;
-  try {
-    fd = openSync(dirname(path), "r");
-    fsyncSync(fd);
-  } catch {
-    // Not every file system lets a directory be opened or synced; the rename is still atomic.
-  } finally {
-    if (fd >= 0) closeSync(fd);
-  }
-}
-
 function sameShard(a: ShardSpec | null, b: ShardSpec | null): boolean {
   if (a === null || b === null) return a === b;
   return a.index === b.index && a.count === b.count && a.by === b.by;
 }
 
 /**
- * Reads a journal's header and complete records. Everything after the last newline is a torn write
- * and is ignored, as is a last line that is not JSON; a record repeated keeps its first copy.
- * Returns null when the file is missing or holds no complete header. `goodBytes` is the length of
- * the complete part.
+ * Reads a journal's header and complete records (jsonLinesJournal.ts: a torn last line is
+ * ignored); a record repeated keeps its first copy. Returns null when the file is missing or holds
+ * no complete header. `goodBytes` is the length of the complete part.
  */
 export function readScanJournal(path: string): { header: JournalHeader; records: SegmentRecord[]; goodBytes: number; totalBytes: number } | null {
-  if (!existsSync(path)) return null;
-  const text = readFileSync(path, "utf8");
-  const lines = text.split("\n").slice(0, -1);
-  let header: JournalHeader | undefined;
+  const read = readJournalLines(path, "delete it to start afresh");
+  if (!read) return null;
+  const h = read.header;
+  if (h.type !== "scan-journal" || h.format !== 1 || typeof h.runId !== "string") {
+    throw new InputError(`${path}: not a chirpsieve scan journal (its first line is not a journal header)`);
+  }
   const records: SegmentRecord[] = [];
   const seen = new Set<string>();
-  let goodBytes = 0;
-  for (const [i, line] of lines.entries()) {
-    let rec: Record<string, unknown>;
-    try {
-      rec = JSON.parse(line) as Record<string, unknown>;
-    } catch {
-      if (i === lines.length - 1) break;
-      throw new InputError(`${path}: line ${i + 1} is not valid JSON; the journal is damaged (delete it to start afresh)`);
+  for (const { value } of read.records) {
+    if (value.type !== "segment") continue;
+    const r = value as unknown as SegmentRecord;
+    const key = `${r.input}:${r.segment}`;
+    if (!seen.has(key)) {
+      seen.add(key);
+      records.push(r);
     }
-    if (i === 0) {
-      if (rec.type !== "scan-journal" || rec.format !== 1 || typeof rec.runId !== "string") {
-        throw new InputError(`${path}: not a chirpsieve scan journal (its first line is not a journal header)`);
-      }
-      header = rec as unknown as JournalHeader;
-    } else if (rec.type === "segment") {
-      const r = rec as unknown as SegmentRecord;
-      const key = `${r.input}:${r.segment}`;
-      if (!seen.has(key)) {
-        seen.add(key);
-        records.push(r);
-      }
-    }
-    goodBytes += Buffer.byteLength(line, "utf8") + 1;
   }
-  if (!header) return null;
-  return { header, records, goodBytes, totalBytes: Buffer.byteLength(text, "utf8") };
+  return { header: h as unknown as JournalHeader, records, goodBytes: read.goodBytes, totalBytes: read.totalBytes };
 }
 
 /**
@@ -110,8 +82,7 @@ export function openScanJournal(path: string, header: Omit<JournalHeader, "type"
     if (found.goodBytes < found.totalBytes) truncateSync(path, found.goodBytes);
     resumed = found.records;
   } else {
-    writeFileAtomic(path, `${JSON.stringify(full)}\n`);
-    syncDirectory(path);
+    startJournal(path, full);
   }
   let fd = openSync(path, "a");
   const close = (): void => {
@@ -123,10 +94,7 @@ export function openScanJournal(path: string, header: Omit<JournalHeader, "type"
     resumed,
     append(record) {
       if (fd < 0) throw new Error(`${path}: the journal is closed`);
-      const bytes = Buffer.from(`${JSON.stringify(record)}\n`, "utf8");
-      let off = 0;
-      while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
-      fsyncSync(fd);
+      appendJournalLine(fd, record);
     },
     close,
     remove() {
