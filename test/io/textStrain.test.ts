@@ -146,10 +146,11 @@ describe("text strain files", () => {
       expect(await inputErrorOf(readStrain(p))).toContain("--rate");
       expect(await readStrain(p, { rate: 8 })).toMatchObject({ sampleRate: 8, startTime: 5 });
     });
-    it("bad --rate / --start values", async () => {
+    it("bad rate / start options name the option (the CLI maps it to its flag)", async () => {
       const p = textFile("flags.txt", "1\n");
-      expect(await inputErrorOf(readStrain(p, { rate: 0 }))).toBe("--rate must be a positive number of Hz (got 0)");
-      expect(await inputErrorOf(readStrain(p, { rate: 1, start: Number.NaN }))).toBe("--start must be a finite number of seconds (got NaN)");
+      expect(await inputErrorOf(readStrain(p, { rate: 0 }))).toBe("rate: must be a positive number of Hz (got 0)");
+      expect(await inputErrorOf(readStrain(p, { rate: 1, start: Number.NaN }))).toBe("start: must be a finite number of seconds (got NaN)");
+      expect(await inputErrorOf(readStrain(p, { rate: 1e9 }))).toMatch(/^rate: 1000000000 Hz is above the highest sample rate chirpsieve handles, 131072 Hz/);
     });
     it("a missing file", async () => {
       const p = tmp.path("missing.csv");

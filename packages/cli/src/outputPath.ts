@@ -8,7 +8,8 @@ import { UsageError } from "./errors.js";
  */
 export function checkOutputFile(flag: string, path: string, inputs: readonly string[] = []): void {
   const dir = dirname(resolve(path));
-  if (!existsSync(dir) || !statSync(dir).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
+  if (existsSync(dir) && !statSync(dir).isDirectory()) throw new UsageError(`${flag}: ${dirname(path)} is a file, not a directory, so ${path} cannot be written`);
+  if (!existsSync(dir)) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
   if (existsSync(path) && statSync(path).isDirectory()) throw new UsageError(`${flag}: ${path} is a directory, expected a file name`);
   if (existsSync(path) && !statSync(path).isFile()) throw new UsageError(`${flag}: ${path} is a device or special file, expected a file name`);
   const target = resolve(path);
@@ -29,5 +30,6 @@ export function checkOutputDirectory(flag: string, path: string): void {
     return;
   }
   const parent = dirname(resolve(path));
-  if (!existsSync(parent) || !statSync(parent).isDirectory()) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
+  if (existsSync(parent) && !statSync(parent).isDirectory()) throw new UsageError(`${flag}: ${dirname(path)} is a file, not a directory, so ${path} cannot be created`);
+  if (!existsSync(parent)) throw new UsageError(`${flag}: directory ${dirname(path)} does not exist`);
 }

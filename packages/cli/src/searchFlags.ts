@@ -3,7 +3,9 @@
 import type { Command } from "commander";
 import {
   buildBank,
+  maxSearchThreads,
   psdModelFromSpec,
+  THREADS_PER_CORE_LIMIT,
   readBankFile,
   type FftBackendChoice,
   type SearchTemplate,
@@ -77,8 +79,18 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
     psdAverage: parseChoiceFlag("--psd-average", flags.psdAverage, ["median", "mean"] as const),
     segmentSeconds: flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true }),
     fftChoice: parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const),
-    threads: flags.threads === undefined ? undefined : parseNumberFlag("--threads", flags.threads, { min: 1, max: 1024, integer: true }),
+    threads: flags.threads === undefined ? undefined : capThreads(parseNumberFlag("--threads", flags.threads, { min: 1, integer: true })),
   };
+}
+
+/** --threads above THREADS_PER_CORE_LIMIT × the cores is capped there, with a note on stderr. */
+function capThreads(threads: number): number {
+  const most = maxSearchThreads();
+  if (threads <= most) return threads;
+  process.stderr.write(
+    `chirpsieve: note: --threads ${threads} capped at ${most} (${THREADS_PER_CORE_LIMIT} per core on this machine's ${most / THREADS_PER_CORE_LIMIT} cores; more only add memory)\n`,
+  );
+  return most;
 }
 
 /**

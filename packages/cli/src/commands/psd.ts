@@ -12,7 +12,7 @@ import {
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkOutputFile, strainInputPaths } from "../outputPath.js";
-import { parseChoiceFlag, parseNumberFlag } from "../options.js";
+import { parseChoiceFlag, parseNumberFlag, parseRateFlag } from "../options.js";
 
 interface PsdFlags {
   segment: string;
@@ -60,7 +60,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const segmentSeconds = parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
   const average = parseChoiceFlag("--average", flags.average, ["median", "mean"] as const);
   const fminFlag = flags.fmin === undefined ? undefined : parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
-  const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = flags.rate === undefined ? undefined : parseRateFlag("--rate", flags.rate);
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.out) checkOutputFile("--out", flags.out, strainInputPaths([file]));
   if (flags.plot) checkOutputFile("--plot", flags.plot, strainInputPaths([file]));

@@ -10,6 +10,7 @@ import {
   loadFftBackends,
   openStrain,
   parseRequirement,
+  planCampaign,
   psdModelFromSpec,
   readCampaignState,
   resolveFftBackend,
@@ -26,7 +27,7 @@ import {
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
-import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { parseChoiceFlag, parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import { campaignDocument, formatCampaignText, type CampaignDocument } from "../reportData.js";
@@ -121,7 +122,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
   const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, clusterWindowSeconds, psdSegmentSeconds, psdAverage, segmentSeconds, fftChoice, threads } = parseSearchFlags(flags);
-  const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = parseRateFlag("--rate", flags.rate);
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
   const detector = asUsage("--detector", () => detectorByName(flags.detector));
@@ -188,6 +189,9 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       matchWindowSeconds,
       injectionsPerBatch: perBatch,
     };
+
+    // Lay the campaign out now, so a stretch too long to hold is refused before any file is made.
+    planCampaign(options);
 
     let completed: BatchResult[] = [];
     let statePath: string | undefined;

@@ -20,10 +20,11 @@ import {
   journalPathFor,
   parseShardSpec,
   startScanRun,
+  runSummaryRecord,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkOutputDirectory, checkOutputFile, strainInputPaths } from "../outputPath.js";
-import { parseNumberFlag, parseRangeFlag } from "../options.js";
+import { parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import {
@@ -114,7 +115,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   // A shard creates its output directory itself (every task of a job array may race to do so).
   if (flags.out && !flags.shard) checkOutputFile("--out", flags.out, [...strainInputPaths(files), ...(flags.bank ? [flags.bank] : []), ...(flags.sites ? [flags.sites] : [])]);
   if (flags.plot) checkOutputDirectory("--plot", flags.plot);
-  const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = flags.rate === undefined ? undefined : parseRateFlag("--rate", flags.rate);
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
   if (!flags.bank && !flags.massRange) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
@@ -164,7 +165,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     run?.close();
   }
   if (run && shard) {
-    run.writeShard(flags.out!);
+    run.writeShard(flags.out!, Math.max(1, ...summaries.map((sm) => sm.threads)));
     run.finish();
     if (!flags.quiet) process.stderr.write(`chirpsieve: shard ${shard.index}/${shard.count} written to ${flags.out}; merge the ${shard.count} shards with \`chirpsieve merge\`\n`);
     return;
@@ -175,30 +176,19 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     candidates.splice(0, candidates.length, ...merged.candidates);
     merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped }));
   }
-  const summary: Record<string, unknown> = {
-    type: "summary",
-    files: files.length,
+  const summary = runSummaryRecord({
+    inputs: summaries,
     templates: templates.length,
     bank: bankDescription,
-    segments: summaries.reduce((a, s) => a + s.segments, 0),
-    segmentSamples: summaries[0]?.segmentSamples ?? 0,
-    sampleRate: summaries[0]?.sampleRate ?? 0,
-    analysedSeconds: summaries.reduce((a, s) => a + s.analysedSeconds, 0),
-    dataSeconds: summaries.reduce((a, s) => a + s.dataSeconds, 0),
-    leadInSeconds: Math.max(0, ...summaries.map((s) => s.leadInSeconds)),
-    tailSeconds: Math.max(0, ...summaries.map((s) => s.tailSeconds)),
-    skippedSeconds: summaries.reduce((a, s) => a + s.skippedSeconds, 0),
-    skipped: summaries.flatMap((s) => s.skipped.map((k) => ({ file: s.file, ...k }))),
     candidates: candidates.length,
     minSnr: snrThreshold,
     chi2Allowance,
-    fmin: fMinHz,
+    fMinHz,
     psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psdSegmentSeconds}s`,
     fftBackend,
-    threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
     wallSeconds: (performance.now() - wallStart) / 1000,
     caution: CANDIDATE_CAUTION,
-  };
+  });
 
   let text: string;
   if (network.length > 0) {

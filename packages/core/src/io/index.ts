@@ -4,3 +4,4 @@ export * from "./strainFormat.js";
 export * from "./strainFile.js";
 export * from "./memoryStrain.js";
 export * from "./readTextInput.js";
+export * from "./timeBase.js";

@@ -7,3 +7,4 @@ export * from "./orbitalDecay.js";
 export * from "./chirp.js";
 export * from "./isco.js";
 export * from "./binaryDescription.js";
+export * from "./massDomain.js";

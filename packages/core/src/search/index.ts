@@ -20,3 +20,4 @@ export * from "./shardRun.js";
 export * from "./mergeSegments.js";
 export * from "./mergeShards.js";
 export * from "./journal.js";
+export * from "./runSummary.js";

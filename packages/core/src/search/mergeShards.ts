@@ -24,6 +24,8 @@ export interface MergedShards extends MergedScan {
   search: ShardManifest["search"];
   inputs: ShardManifest["inputs"];
   arguments: Record<string, unknown>;
+  /** The most threads any shard filtered with (1 when the manifests do not say). */
+  threads: number;
 }
 
 const MANIFEST_SUFFIX = ".manifest.json";
@@ -211,5 +213,6 @@ export function mergeShards(paths: readonly string[]): MergedShards {
     search: first.search,
     inputs: first.inputs,
     arguments: first.arguments ?? {},
+    threads: Math.max(1, ...files.map((f) => (typeof f.manifest.threads === "number" ? f.manifest.threads : 1))),
   };
 }

@@ -1,4 +1,4 @@
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
 import { chiSquared } from "../filter/chisq.js";
@@ -7,12 +7,12 @@ import { reweightedSnr } from "../filter/reweight.js";
 import { M_SUN } from "../physics/constants.js";
 import { chirpMass } from "../physics/masses.js";
 import { clusterByTime } from "./cluster.js";
-import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
+import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
 import { segmentPsd } from "./segmentPsd.js";
 import { describeBadSample, firstCorruptSample } from "./corruptSample.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
-import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
+import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
 import type { Candidate, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
 
@@ -69,9 +69,11 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
   const invalidEnd = Math.ceil(truncSeconds * sampleRate);
   let size: number;
   if (o.segmentSeconds !== undefined) {
-    // Never longer than the data needs (zero padding beyond it buys nothing), nor than 2^26 samples.
+    // Never longer than the data needs (zero padding beyond it buys nothing), nor than MAX_SEGMENT_SAMPLES.
     size = Math.min(nextPowerOfTwo(Math.round(o.segmentSeconds * sampleRate)), Math.max(nextPowerOfTwo(length), nextPowerOfTwo(invalidStart + invalidEnd + 1)));
-    if (size > 2 ** 26) throw new InputError(`segment of ${o.segmentSeconds} s at ${sampleRate} Hz is more than 2^26 samples; use a shorter --segment`);
+    if (size > MAX_SEGMENT_SAMPLES) {
+      throw parameterError("segmentSeconds", `${o.segmentSeconds} s at ${sampleRate} Hz is more than ${MAX_SEGMENT_SAMPLES} (2^23) samples per segment; use a shorter segment`);
+    }
   } else {
     // Four times the padding keeps ≥ ~3/4 of each segment searchable; at least 64 s.
     size = nextPowerOfTwo(Math.max(4 * (invalidStart + invalidEnd), 64 * sampleRate));
@@ -117,7 +119,7 @@ const SMALL_JOB = 2 ** 25;
  */
 function searchThreads(o: SearchOptions, plan: SegmentPlan): number {
   const count = o.templates.length;
-  if (o.threads !== undefined) return Math.min(o.threads, count);
+  if (o.threads !== undefined) return Math.min(o.threads, maxSearchThreads(), count);
   if (count * plan.segments.length * plan.size < SMALL_JOB) return 1;
   return Math.min(defaultSearchThreads(), count);
 }
@@ -158,7 +160,14 @@ export async function searchSource(
   const fs = source.sampleRate;
   validateSearchOptions(options, fs);
   const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "auto");
-  const plan = chooseSegmentPlan(options, fs, source.length);
+  let plan: SegmentPlan;
+  try {
+    plan = chooseSegmentPlan(options, fs, source.length);
+  } catch (err) {
+    // Which file was too short (or too long for the segment) matters when several are scanned.
+    if (err instanceof InputError && !err.parameter) throw new InputError(`${source.file}: ${err.message}`);
+    throw err;
+  }
   const n = plan.size;
   const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);
   const templates = options.templates;

@@ -20,6 +20,9 @@ export interface RunInput {
   /** Segments of the run's plan for this input, and their length (samples). */
   segments: number;
   segmentSamples: number;
+  /** Seconds at the start and end of the input where no coalescence can be searched (as SearchSummary). */
+  leadInSeconds: number;
+  tailSeconds: number;
 }
 
 /** The search settings that shape the result (recorded in manifests and hashed into the run id). */
@@ -60,6 +63,8 @@ export interface ShardManifest {
   /** The caller's (CLI's) arguments that shape the result, for a person and for the run id. */
   arguments: Record<string, unknown>;
   created: string;
+  /** Threads that filtered the bank in this shard (not part of the run id: results do not depend on it). */
+  threads?: number;
 }
 
 /** Keys sorted, undefined dropped: equal values give equal JSON. */
@@ -134,6 +139,8 @@ export async function describeInputs(inputs: readonly { source: SearchInput; pat
       startTime: source.startTime,
       segments: plan.segments.length,
       segmentSamples: plan.size,
+      leadInSeconds: plan.invalidStart / source.sampleRate,
+      tailSeconds: plan.invalidEnd / source.sampleRate,
     });
   }
   return out;
