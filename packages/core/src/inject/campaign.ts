@@ -212,7 +212,7 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
   if (search.segmentSeconds !== undefined) {
     samples = nextPowerOfTwo(Math.round(search.segmentSeconds * fs));
   } else {
-    const target = perBatchWanted ?? Math.min(p.count, TARGET_PER_BATCH);
+    const target = Math.min(p.count, perBatchWanted ?? TARGET_PER_BATCH);
     const seconds = Math.max(4 * (Math.max(longestTemplate, longestInjection) + 2 * trunc), 2 * margin + (target - 1) * spacing + 1);
     samples = nextPowerOfTwo(Math.ceil(seconds * fs));
   }
