@@ -79,6 +79,15 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
     size = nextPowerOfTwo(Math.max(4 * (invalidStart + invalidEnd), 64 * sampleRate));
     size = Math.min(size, nextPowerOfTwo(length));
   }
+  const tooShort = (): InputError =>
+    new InputError(
+      `the data (${(length / sampleRate).toFixed(1)} s) is too short to search: templates need ${(longest + truncSeconds).toFixed(1)} s of data ` +
+        `before a coalescence and the inverse-PSD filter ${truncSeconds.toFixed(1)} s at each end` +
+        (o.psd.kind === "estimate" && 2 * truncSeconds > longest
+          ? ` (the --psd-segment length); use a shorter --psd-segment or a longer file`
+          : `; raise --fmin, use heavier masses or a longer file`),
+    );
+  if (o.segmentSeconds === undefined && length <= invalidStart + invalidEnd) throw tooShort();
   if (size <= invalidStart + invalidEnd) {
     // Name what dominates: the template, or the inverse-PSD filter (as long as the PSD segment).
     const filterDominates = o.psd.kind === "estimate" && 2 * truncSeconds > longest;
@@ -95,12 +104,7 @@ export function chooseSegmentPlan(o: SearchOptions, sampleRate: number, length: 
     throw new InputError(`${need}; ${remedy}`);
   }
   const plan = planSegments(length, size, invalidStart, invalidEnd);
-  if (plan.segments.length === 0) {
-    throw new InputError(
-      `the data (${(length / sampleRate).toFixed(1)} s) is too short to search: templates need ${(longest + truncSeconds).toFixed(1)} s of data ` +
-        `before a coalescence and the inverse-PSD filter ${truncSeconds.toFixed(1)} s at each end; raise --fmin, use heavier masses or a longer file`,
-    );
-  }
+  if (plan.segments.length === 0) throw tooShort();
   return plan;
 }
 
