@@ -144,7 +144,8 @@ describe("hexagonal lattice placement", () => {
     expect(() => buildBank({ ...options, fminHz: 5 })).toThrow(/lowest frequency/);
     expect(() => buildBank({ ...options, massRatioCap: 1 })).toThrow(/massRatioCap/);
     // Absurd regions are refused from the count estimate, before any placement work.
-    expect(() => buildBank({ ...options, massRangeSolar: [1e-9, 1e-8] })).toThrow(TemplateLimitError);
+    expect(() => buildBank({ ...options, massRangeSolar: [1e-3, 1e-2] })).toThrow(TemplateLimitError);
+    expect(() => buildBank({ ...options, massRangeSolar: [1e-9, 1e-8] })).toThrow(/massRangeSolar: component masses must lie within/);
     expect(() => buildBank({ ...options, templateCap: 10 })).toThrow(/needs about .* templates, more than the limit of 10$/);
   });
 });

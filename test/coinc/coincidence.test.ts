@@ -135,7 +135,7 @@ describe("forming coincidences", () => {
     expect(() => analyseCoincidences([s, siteStream(B, [], 0, SPAN)], { slideStepSeconds: 0.05 })).toThrow(
       /slide step 0\.05 s must exceed twice the widest coincidence window/,
     );
-    expect(() => analyseCoincidences([s, siteStream(B, [], 0, SPAN)], { slidesPerSide: 2.5 })).toThrow(/slidesPerSide must be a whole number/);
+    expect(() => analyseCoincidences([s, siteStream(B, [], 0, SPAN)], { slidesPerSide: 2.5 })).toThrow(/^slidesPerSide: must be a whole number/);
     expect(() => analyseCoincidences([s, siteStream(B, [{ ...trig(3, 6), templateIndex: -1 }], 0, SPAN)])).toThrow(
       /site "site-b": candidate 0: templateIndex must be/,
     );

@@ -112,7 +112,7 @@ describe("raw .f64 / .f32 strain with a JSON sidecar", () => {
     const p = tmp.path("plain.bin");
     await writeStrain(p, { data: [1.5, 2.5], sampleRate: 10, startTime: 0 }, { format: "f64" });
     expect((await readStrain(p, { format: "f64" })).data).toEqual(new Float64Array([1.5, 2.5]));
-    await expectInputError(readStrain(p), "plain.bin", "--format");
+    await expectInputError(readStrain(p), "plain.bin", ".f64");
   });
 
   describe("errors name the file and the problem", () => {

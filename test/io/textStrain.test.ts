@@ -1,4 +1,5 @@
-import { readFileSync, writeFileSync } from "node:fs";
+import { readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
 import { describe, expect, it } from "vitest";
 import { openStrain, readStrain, writeStrain } from "@chirpsieve/core";
 import { syntheticStrain, useTempDir, inputErrorOf } from "./tempDir.js";
@@ -29,6 +30,30 @@ describe("text strain files", () => {
       expect(worst).toBeLessThanOrEqual(1e-15);
       if (name.endsWith(".csv")) expect(readFileSync(p, "utf8")).toMatch(/\n1000000000,/);
     }
+  });
+
+  it("streams a file longer than one in-memory block exactly, leaving no temporary file", async () => {
+    // 200 000 samples: past the 2^16 values kept in memory (the rest go to a temporary file) and
+    // over many 64 KiB read chunks.
+    const n = 200_000;
+    const values = Array.from({ length: n }, (_, i) => Math.sin(0.001 * i) * 1e-21 + i * 1e-30);
+    const p = textFile("long.txt", `# long\r\n${values.map((v) => String(v)).join("\r\n")}\r\n`);
+    const columns = () => readdirSync(tmpdir()).filter((f) => f.startsWith(".chirpsieve-column-"));
+    const before = columns();
+    const src = await openStrain(p, { rate: 1000, start: 5 });
+    expect(src.length).toBe(n);
+    expect(Array.from(await src.read(65_530, 20))).toEqual(values.slice(65_530, 65_550));
+    expect(Array.from(await src.read(n - 3, 3))).toEqual(values.slice(n - 3));
+    await src.close();
+    expect((await readStrain(p, { rate: 1000 })).data).toEqual(Float64Array.from(values));
+    expect(columns()).toEqual(before);
+  });
+
+  it("counts a CRLF split across two read chunks as one line break (line numbers stay right)", async () => {
+    // Line 1 is a comment of 65 535 characters, so its "\r" is the last byte of the first 64 KiB
+    // read and its "\n" the first byte of the next.
+    const p = textFile("split.txt", `#${"a".repeat(65_534)}\r\n1e-21\r\noops\r\n`);
+    expect(await inputErrorOf(readStrain(p, { rate: 10 }))).toBe(`${p}: line 3: malformed number "oops"`);
   });
 
   it("chunked reads through the same StrainSource equal the whole read", async () => {
@@ -146,10 +171,11 @@ describe("text strain files", () => {
       expect(await inputErrorOf(readStrain(p))).toContain("--rate");
       expect(await readStrain(p, { rate: 8 })).toMatchObject({ sampleRate: 8, startTime: 5 });
     });
-    it("bad --rate / --start values", async () => {
+    it("bad rate / start options name the option (the CLI maps it to its flag)", async () => {
       const p = textFile("flags.txt", "1\n");
-      expect(await inputErrorOf(readStrain(p, { rate: 0 }))).toBe("--rate must be a positive number of Hz (got 0)");
-      expect(await inputErrorOf(readStrain(p, { rate: 1, start: Number.NaN }))).toBe("--start must be a finite number of seconds (got NaN)");
+      expect(await inputErrorOf(readStrain(p, { rate: 0 }))).toBe("rate: must be a positive number of Hz (got 0)");
+      expect(await inputErrorOf(readStrain(p, { rate: 1, start: Number.NaN }))).toBe("start: must be a finite number of seconds (got NaN)");
+      expect(await inputErrorOf(readStrain(p, { rate: 1e9 }))).toMatch(/^rate: 1000000000 Hz is above the highest sample rate chirpsieve handles, 131072 Hz/);
     });
     it("a missing file", async () => {
       const p = tmp.path("missing.csv");

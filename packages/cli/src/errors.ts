@@ -1,4 +1,6 @@
+import type { Command } from "commander";
 import { BandError, InputError, TemplateLimitError } from "@chirpsieve/core";
+import { describeInputError } from "./parameterFlags.js";
 
 /** A mistake in how the command was called (a flag's value, a missing flag). Exit code 2. */
 export class UsageError extends InputError {
@@ -42,7 +44,24 @@ export function withBankFlagErrors<T>(work: () => T, remedy: string): T {
     return work();
   } catch (err) {
     if (err instanceof TemplateLimitError) throw new UsageError(`--mass-range: ${err.message}; ${remedy}`);
-    if (err instanceof BandError) throw new UsageError(`${err.option === "fmaxHz" ? "--fmax" : "--fmin"}: ${err.detail}`);
+    if (err instanceof BandError) throw new UsageError(describeInputError(err));
     throw err;
+  }
+}
+
+/**
+ * Refuses an empty value for any option that names a file or directory (`--out ""` would otherwise
+ * mean "no file" and write to standard output, or fail late): the flags whose argument is
+ * `<file>`, `<dir>` or `<file...>`.
+ */
+export function refuseEmptyPaths(cmd: Command): void {
+  const values = cmd.opts() as Record<string, unknown>;
+  for (const option of cmd.options) {
+    if (!/<(file|dir)\b/.test(option.flags)) continue;
+    const value = values[option.attributeName()];
+    const list = Array.isArray(value) ? value : [value];
+    if (list.some((v) => typeof v === "string" && v.trim() === "")) {
+      throw new UsageError(`${option.long ?? option.flags}: empty file name`);
+    }
   }
 }

@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 import { Command, CommanderError } from "commander";
 import { InputError } from "@chirpsieve/core";
-import { describeFsError, isInputError } from "./errors.js";
+import { describeFsError, isInputError, refuseEmptyPaths } from "./errors.js";
+import { describeInputError } from "./parameterFlags.js";
 import { registerSource } from "./commands/source.js";
 import { registerPsd } from "./commands/psd.js";
 import { registerSimulate } from "./commands/simulate.js";
@@ -26,6 +27,7 @@ export function buildProgram(): Command {
     .showHelpAfterError(false)
     .exitOverride()
     .configureOutput({ outputError: () => {} });
+  program.hook("preAction", (_program, action) => refuseEmptyPaths(action));
   registerSource(program);
   registerPsd(program);
   registerSimulate(program);
@@ -57,7 +59,7 @@ async function main(argv: string[]): Promise<void> {
       }
       fail(err.message.replace(/^error: /, ""), 2);
     }
-    if (err instanceof InputError) fail(err.message, 2);
+    if (err instanceof InputError) fail(describeInputError(err), 2);
     if (isInputError(err)) fail(describeFsError(err), 2);
     if (process.env.CHIRPSIEVE_DEBUG === "1") process.stderr.write(`${(err as Error)?.stack ?? err}\n`);
     fail(`unexpected error: ${(err as Error)?.message ?? String(err)} (set CHIRPSIEVE_DEBUG=1 for details)`, 1);

@@ -1,4 +1,5 @@
 // Parsing of plain flag values (numbers, ranges, choices). Every error names the flag.
+import { MAX_SAMPLE_RATE_HZ } from "@chirpsieve/core";
 import { UsageError } from "./errors.js";
 
 /** A finite number, optionally bounded: `--min-snr 6`. */
@@ -41,4 +42,13 @@ export function parseChoiceFlag<T extends string>(flag: string, text: string, ch
     throw new UsageError(`${flag}: expected one of ${choices.join(", ")} (got "${text}")`);
   }
   return text as T;
+}
+
+/** A sample rate in Hz: positive and at most core's MAX_SAMPLE_RATE_HZ, `--rate 4096`. */
+export function parseRateFlag(flag: string, text: string): number {
+  const rate = parseNumberFlag(flag, text, { min: 0, minExclusive: true });
+  if (rate > MAX_SAMPLE_RATE_HZ) {
+    throw new UsageError(`${flag}: ${text} Hz is above the highest sample rate chirpsieve handles, ${MAX_SAMPLE_RATE_HZ} Hz`);
+  }
+  return rate;
 }

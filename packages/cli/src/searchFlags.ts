@@ -5,7 +5,9 @@ import {
   buildBank,
   DEFAULT_GATE_SETTINGS,
   type GateSettings,
+  maxSearchThreads,
   psdModelFromSpec,
+  THREADS_PER_CORE_LIMIT,
   readBankFile,
   type FftBackendChoice,
   type SearchTemplate,
@@ -90,7 +92,7 @@ export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
     welchAverage: parseChoiceFlag("--welch-average", flags.welchAverage, ["median", "mean"] as const),
     segmentSeconds: flags.segment === undefined ? undefined : parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true }),
     fftChoice: parseChoiceFlag("--fft", flags.fft, ["auto", "pffft", "fftjs"] as const),
-    threads: flags.threads === undefined ? undefined : parseNumberFlag("--threads", flags.threads, { min: 1, max: 1024, integer: true }),
+    threads: flags.threads === undefined ? undefined : capThreads(parseNumberFlag("--threads", flags.threads, { min: 1, integer: true })),
     gating: parseGateFlags(flags),
   };
 }
@@ -103,6 +105,16 @@ function parseGateFlags(flags: SearchFlags): GateSettings | null {
   if (thresholdSigma === 0) return null;
   if (thresholdSigma < 5) throw new UsageError(`--gate-threshold: ${thresholdSigma} σ would gate Gaussian noise itself; use at least 5, or 0 for no gating`);
   return { thresholdSigma, halfWidthSeconds, taperSeconds };
+}
+
+/** --threads above THREADS_PER_CORE_LIMIT × the cores is capped there, with a note on stderr. */
+function capThreads(threads: number): number {
+  const most = maxSearchThreads();
+  if (threads <= most) return threads;
+  process.stderr.write(
+    `chirpsieve: note: --threads ${threads} capped at ${most} (${THREADS_PER_CORE_LIMIT} per core on this machine's ${most / THREADS_PER_CORE_LIMIT} cores; more only add memory)\n`,
+  );
+  return most;
 }
 
 /**

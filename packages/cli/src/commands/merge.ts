@@ -1,5 +1,5 @@
 import type { Command } from "commander";
-import { mergeShards, readShardSet, writeFileAtomic, type Candidate } from "@chirpsieve/core";
+import { mergeShards, readShardSet, runSummaryRecord, writeFileAtomic, type Candidate } from "@chirpsieve/core";
 import { CANDIDATE_CAUTION, chooseCandidateFormat, renderCandidates } from "../candidateFormat.js";
 import { checkFilePlan } from "../outputPath.js";
 
@@ -43,28 +43,39 @@ function runMerge(paths: string[], flags: MergeFlags): void {
   }
   const m = mergeShards(paths);
   const candidates: Candidate[] = m.candidates;
-  const summary = {
-    type: "summary",
-    files: m.inputs.length,
-    templates: m.search.templates,
-    bank: typeof m.arguments.bank === "string" ? m.arguments.bank : `${m.search.templates} templates (sha256 ${m.search.bankSha256.slice(0, 12)}…)`,
-    segments: m.segments,
-    segmentSamples: m.inputs[0]?.segmentSamples ?? 0,
-    sampleRate: m.inputs[0]?.sampleRate ?? 0,
-    analysedSeconds: m.analysedSeconds,
-    skippedSeconds: m.skippedSeconds,
-    skipped: m.skipped,
-    candidates: candidates.length,
-    minSnr: m.search.snrThreshold,
-    fmin: m.search.fMinHz,
-    psd: m.search.psd,
-    fftBackend: m.search.fftBackend,
-    shards: m.shards,
-    shardBy: m.by,
-    runId: m.runId,
-    wallSeconds: (performance.now() - wallStart) / 1000,
-    caution: CANDIDATE_CAUTION,
-  };
+  const summary = runSummaryRecord(
+    {
+      inputs: m.inputs.map((input, i) => {
+        const covered = m.perInput[i];
+        return {
+          file: input.file,
+          segments: covered?.segments ?? input.segments,
+          segmentSamples: input.segmentSamples,
+          sampleRate: input.sampleRate,
+          analysedSeconds: covered?.analysedSeconds ?? 0,
+          dataSeconds: input.samples / input.sampleRate,
+          leadInSeconds: input.leadInSeconds,
+          tailSeconds: input.tailSeconds,
+          skippedSeconds: covered?.skippedSeconds ?? 0,
+          skipped: covered?.skipped ?? [],
+          lostToEdgesSeconds: input.lostToEdgesSeconds,
+          gates: covered?.gates ?? [],
+          threads: m.threads,
+        };
+      }),
+      templates: m.search.templates,
+      bank: typeof m.arguments.bank === "string" ? m.arguments.bank : `${m.search.templates} templates (sha256 ${m.search.bankSha256.slice(0, 12)}…)`,
+      candidates: candidates.length,
+      minSnr: m.search.snrThreshold,
+      chi2Allowance: m.search.chi2Allowance,
+      fMinHz: m.search.fMinHz,
+      psd: m.search.psd,
+      fftBackend: m.search.fftBackend,
+      wallSeconds: (performance.now() - wallStart) / 1000,
+      caution: CANDIDATE_CAUTION,
+    },
+    { shards: m.shards, shardBy: m.by, runId: m.runId },
+  );
   const text = renderCandidates(format, candidates, summary);
   if (flags.out) writeFileAtomic(flags.out, text);
   else process.stdout.write(text);

@@ -16,7 +16,7 @@ import {
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkFilePlan, strainInputs } from "../outputPath.js";
-import { parseChoiceFlag, parseNumberFlag } from "../options.js";
+import { parseChoiceFlag, parseNumberFlag, parseRateFlag } from "../options.js";
 import { nonStrainInputs, printStrainWarnings } from "../strainInputs.js";
 
 interface PsdFlags {
@@ -63,7 +63,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   const segmentSeconds = parseNumberFlag("--segment", flags.segment, { min: 0, minExclusive: true });
   const average = parseChoiceFlag("--average", flags.average, ["median", "mean"] as const);
   const fminFlag = flags.fmin === undefined ? undefined : parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
-  const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = flags.rate === undefined ? undefined : parseRateFlag("--rate", flags.rate);
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   checkFilePlan({
     inputs: strainInputs("strain file", [file]),

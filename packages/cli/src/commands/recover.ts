@@ -13,6 +13,7 @@ import {
   evaluateRequirements,
   loadFftBackends,
   parseRequirement,
+  planCampaign,
   psdModelFromSpec,
   readCampaignState,
   resolveFftBackend,
@@ -28,7 +29,7 @@ import {
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkFilePlan, noiseCurveInput, strainInputs } from "../outputPath.js";
-import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
+import { parseChoiceFlag, parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
 import { createProgress } from "../progress.js";
 import { openStrainInput } from "../strainInputs.js";
@@ -128,7 +129,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
   const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
-  const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = parseRateFlag("--rate", flags.rate);
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
   const detector = asUsage("--detector", () => detectorByName(flags.detector));
@@ -211,6 +212,9 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       matchWindowSeconds,
       injectionsPerBatch: perBatch,
     };
+
+    // Lay the campaign out now, so a stretch too long to hold is refused before any file is made.
+    planCampaign(options);
 
     let completed: BatchResult[] = [];
     let statePath: string | undefined;

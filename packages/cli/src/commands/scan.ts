@@ -24,11 +24,12 @@ import {
   joinContiguousInputs,
   readIntervalFile,
   InputError,
+  runSummaryRecord,
   type SearchInput,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkFilePlan, noiseCurveInput, strainInputs, type FilePlan } from "../outputPath.js";
-import { parseNumberFlag, parseRangeFlag } from "../options.js";
+import { parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { nonStrainInputs, openStrainInput } from "../strainInputs.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
@@ -125,7 +126,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const excludedIntervals = flags.dropTimes === undefined ? undefined : readIntervalFile(flags.dropTimes);
   const format = chooseCandidateFormat(flags);
   checkFilePlan(scanFilePlan(files, network, flags));
-  const rate = flags.rate === undefined ? undefined : parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = flags.rate === undefined ? undefined : parseRateFlag("--rate", flags.rate);
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   if (flags.bank && flags.massRange) throw new UsageError("--bank and --mass-range: give one, not both");
   if (!flags.bank && !flags.massRange) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
@@ -197,7 +198,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     run?.close();
   }
   if (run && shard) {
-    run.writeShard(flags.out!);
+    run.writeShard(flags.out!, Math.max(1, ...summaries.map((sm) => sm.threads)));
     run.finish();
     if (!flags.quiet) warnInspiralEdge(inspiralEdge);
     if (!flags.quiet) process.stderr.write(`chirpsieve: shard ${shard.index}/${shard.count} written to ${flags.out}; merge the ${shard.count} shards with \`chirpsieve merge\`\n`);
@@ -209,54 +210,30 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     candidates.splice(0, candidates.length, ...merged.candidates);
     merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped, gates: p.gates }));
   }
-  const uniform = <T,>(values: T[]): T | null => (values.length > 0 && values.every((v) => v === values[0]) ? values[0] : null);
   // Effective distances assume dimensionless strain: for other units they are not given.
   const noDistance = new Set(nonStrain.map((n) => n.file));
   if (noDistance.size > 0) {
     for (const c of candidates) if (noDistance.has(c.file)) c.effectiveDistanceMpc = Number.NaN;
   }
-  const summary: Record<string, unknown> = {
-    type: "summary",
-    files: files.length,
-    templates: templates.length,
-    bank: bankDescription,
-    segments: summaries.reduce((a, s) => a + s.segments, 0),
-    // One value when every stream shares it, else null (each stream's is under `streams`).
-    segmentSamples: uniform(summaries.map((s) => s.segmentSamples)),
-    sampleRate: uniform(summaries.map((s) => s.sampleRate)),
-    analysedSeconds: summaries.reduce((a, s) => a + s.analysedSeconds, 0),
-    dataSeconds: summaries.reduce((a, s) => a + s.dataSeconds, 0),
-    leadInSeconds: Math.max(0, ...summaries.map((s) => s.leadInSeconds)),
-    tailSeconds: Math.max(0, ...summaries.map((s) => s.tailSeconds)),
-    skippedSeconds: summaries.reduce((a, s) => a + s.skippedSeconds, 0),
-    skipped: summaries.flatMap((s) => s.skipped.map((k) => ({ file: s.file, ...k }))),
-    lostToEdgesSeconds: summaries.reduce((a, s) => a + s.lostToEdgesSeconds, 0),
-    gates: summaries.flatMap((s) => s.gates.map((g) => ({ file: s.file, ...g }))),
-    streams: summaries.map((s) => ({
-      file: s.file,
-      sampleRate: s.sampleRate,
-      segments: s.segments,
-      segmentSamples: s.segmentSamples,
-      dataSeconds: s.dataSeconds,
-      analysedSeconds: s.analysedSeconds,
-      skippedSeconds: s.skippedSeconds,
-      lostToEdgesSeconds: s.lostToEdgesSeconds,
-      intervals: s.intervals,
-      gates: s.gates.length,
-      ...(s.unsearchable ? { unsearchable: s.unsearchable } : {}),
-    })),
-    candidates: candidates.length,
-    minSnr: snrThreshold,
-    chi2Allowance,
-    fmin: fMinHz,
-    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${welchSegmentSeconds}s`,
-    fftBackend,
-    threads: Math.max(1, ...summaries.map((sm) => sm.threads)),
-    wallSeconds: (performance.now() - wallStart) / 1000,
-    ...(nonStrain.length > 0 ? { distancesUnavailable: nonStrain.map((n) => ({ file: n.file, units: n.units, why: "units are not dimensionless strain" })) } : {}),
-    inspiralEdge,
-    caution: CANDIDATE_CAUTION,
-  };
+  const summary = runSummaryRecord(
+    {
+      inputs: summaries,
+      templates: templates.length,
+      bank: bankDescription,
+      candidates: candidates.length,
+      minSnr: snrThreshold,
+      chi2Allowance,
+      fMinHz,
+      psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${welchSegmentSeconds}s`,
+      fftBackend,
+      wallSeconds: (performance.now() - wallStart) / 1000,
+      caution: CANDIDATE_CAUTION,
+    },
+    {
+      ...(nonStrain.length > 0 ? { distancesUnavailable: nonStrain.map((n) => ({ file: n.file, units: n.units, why: "units are not dimensionless strain" })) } : {}),
+      inspiralEdge,
+    },
+  );
 
   let text: string;
   if (network.length > 0) {

@@ -5,6 +5,7 @@ import {
   campaignFingerprint,
   writeFileSet,
   chirpMass,
+  checkTimeBaseParameters,
   siteByName,
   siteCatalogue,
   type Detector,
@@ -22,7 +23,7 @@ import {
 import { UsageError } from "../errors.js";
 import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
 import { VERSION } from "../version.js";
-import { parseNumberFlag, parseRangeFlag } from "../options.js";
+import { parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { DEFAULT_PSD_SEGMENT_SECONDS } from "../searchFlags.js";
 import { SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
 
@@ -102,7 +103,7 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   if (flags.duration === undefined) throw new UsageError("--duration: required (seconds of data to simulate)");
   if (flags.out === undefined) throw new UsageError("--out: required (the strain file to write)");
   const duration = parseNumberFlag("--duration", flags.duration, { min: 0, minExclusive: true });
-  const rate = parseNumberFlag("--rate", flags.rate, { min: 0, minExclusive: true });
+  const rate = parseRateFlag("--rate", flags.rate);
   const start = parseNumberFlag("--start", flags.start);
   const fmin = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   if (fmin >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
@@ -113,6 +114,8 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   if (Math.abs(samples - duration * rate) > 1e-6 * Math.max(1, samples)) {
     throw new UsageError(`--duration: ${flags.duration} s at ${flags.rate} Hz is not a whole number of samples`);
   }
+  // Times whose float64 spacing is coarser than a 16th of a sample step would collapse: refuse them now.
+  checkTimeBaseParameters(rate, start, samples);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
   const seed: string | number = /^-?\d+$/.test(flags.seed) && Number.isSafeInteger(Number(flags.seed)) ? Number(flags.seed) : flags.seed;
   if (flags.label !== undefined && /[\r\n]/.test(flags.label)) throw new UsageError("--label: must be one line");
@@ -236,7 +239,8 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
         detector,
       });
     } catch (err) {
-      if (err instanceof InputError) {
+      // An error on one parameter names its own flag (parameterFlags.ts); others concern the draw.
+      if (err instanceof InputError && err.parameter === undefined) {
         const hint = flags.edgeMargin === undefined && /kept clear/.test(err.message) ? " (or set --edge-margin)" : "";
         throw new UsageError(`--inject-random: ${err.message}${hint}`);
       }

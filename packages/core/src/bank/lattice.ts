@@ -46,6 +46,24 @@ export interface LatticeOptions {
   tolerance?: number;
   /** Cover a patch with rows along its band instead (stripPlacement.ts) when that needs fewer templates (default true). */
   bandRows?: boolean;
+  /**
+   * Stop (PlacementStopped) once the patches' lattices hold more than LATTICE_BUDGET × this many
+   * points, or the placement more than this many: bounds the work and memory whatever the estimate said.
+   */
+  maxPoints?: number;
+}
+
+/**
+ * Lattices may hold this many times maxPoints before placement stops: rows along thin bands later
+ * replace lattices that hold up to ~3× the templates the rows need (1.2–2 M_sun from 40 Hz).
+ */
+const LATTICE_BUDGET = 4;
+
+/** Placement passed LatticeOptions.maxPoints and stopped; `placed` points were laid by then. */
+export class PlacementStopped extends Error {
+  constructor(readonly placed: number) {
+    super(`placement stopped after ${placed} points`);
+  }
 }
 
 export interface LatticePlacement {
@@ -242,6 +260,8 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
   // ---- Lattices ------------------------------------------------------------------------------
   const points: LatticePoint[] = [];
   const latticePoints: LatticePoint[][] = [];
+  const maxPoints = options.maxPoints ?? Infinity;
+  let laid = 0;
   const rowStep = (spacing * Math.sqrt(3)) / 2;
   const walkStep = r / 8;
   patches.forEach((patch, pIndex) => {
@@ -440,6 +460,8 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
       }
     }
     latticePoints.push(here);
+    laid += here.length;
+    if (laid > LATTICE_BUDGET * maxPoints) throw new PlacementStopped(laid);
   });
   // Runs of neighbouring patches (along τ0, same η-range) are covered by one band of rows, which pays
   // for the corners at a τ0-side only at the run's two ends. Decided per run: the run takes its rows
@@ -518,6 +540,7 @@ export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
     seen.add(key);
     return true;
   });
+  if (unique.length > maxPoints) throw new PlacementStopped(unique.length);
   return { points: unique, patches };
 }
 

@@ -1,7 +1,7 @@
 // Spacing tuning: how the template count, coverage, rate loss and scan cost move with the minimal match.
-import { InputError } from "../errors.js";
-import { buildBankWithReport, checkBankOptions, checkTemplateLimit, type BuildBankOptions } from "./templateBank.js";
-import { verifyBank, type VerifyDrawSpace, type VerifySignal } from "./verify.js";
+import { InputError, parameterError } from "../errors.js";
+import { MAX_MATCH_FLOOR, MIN_MATCH_FLOOR, buildBankWithReport, checkBankOptions, checkTemplateLimit, type BuildBankOptions } from "./templateBank.js";
+import { MAX_VERIFY_DRAWS, verifyBank, type VerifyDrawSpace, type VerifySignal } from "./verify.js";
 import { measureTemplateCost, scanCpuSecondsPerHour, type TemplateCostMeasurement } from "./scanCost.js";
 import { iscoFrequencyHz } from "./chirpTimeCoordinates.js";
 
@@ -78,11 +78,14 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
   checkBankOptions(options);
   if (!Array.isArray(options.matchFloors) || options.matchFloors.length === 0) throw new InputError(`matchFloors must list at least one value`);
   for (const mm of options.matchFloors) {
-    if (!(mm > 0 && mm < 1)) throw new InputError(`match floor ${mm} must be strictly between 0 and 1`);
+    if (!(mm >= MIN_MATCH_FLOOR && mm <= MAX_MATCH_FLOOR)) throw parameterError("matchFloor", `${mm} must be from ${MIN_MATCH_FLOOR} to ${MAX_MATCH_FLOOR}`);
   }
   // The densest bank first: refuse the whole sweep before any work if it would exceed the limit.
   checkTemplateLimit({ ...options, matchFloor: Math.max(...options.matchFloors) });
   const draws = options.draws ?? 200;
+  if (!(Number.isInteger(draws) && draws >= 1 && draws <= MAX_VERIFY_DRAWS)) {
+    throw parameterError("draws", `must be a whole number from 1 to ${MAX_VERIFY_DRAWS} (got ${draws}); for more, run several sweeps with different seeds`);
+  }
   const signal = options.signal ?? "taylorf2";
   const rows: SweepRow[] = [];
   let cost: TemplateCostMeasurement | undefined;

@@ -1,4 +1,4 @@
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import type { Candidate } from "../search/types.js";
 import type { Detector } from "../waveform/antenna.js";
 import { type CoincidenceRule, type RawCoincidence, type SiteTriggerArrays, formCoincidences } from "./coincidence.js";
@@ -357,7 +357,7 @@ interface CheckedOptions {
 function checkOptions(o: CoincidenceOptions): CheckedOptions {
   const pick = (key: keyof CoincidenceOptions, fallback: number, ok: (x: number) => boolean, what: string): number => {
     const x = o[key] ?? fallback;
-    if (typeof x !== "number" || !Number.isFinite(x) || !ok(x)) throw new InputError(`${key} must be ${what} (got ${x})`);
+    if (typeof x !== "number" || !Number.isFinite(x) || !ok(x)) throw parameterError(key, `must be ${what} (got ${x})`);
     return x;
   };
   const foreground = o.foregroundSeconds;

@@ -1,5 +1,7 @@
 import seedrandom from "seedrandom";
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
+import { checkComponentMassRange } from "../physics/massDomain.js";
+import { checkTimeBaseParameters } from "../io/timeBase.js";
 import { sampledPsdModel } from "../noise/interpolatePsd.js";
 import type { PsdModel } from "../noise/psdModel.js";
 import { welchPsd } from "../noise/welch.js";
@@ -7,7 +9,7 @@ import { M_SUN } from "../physics/constants.js";
 import { chirpMass } from "../physics/masses.js";
 import { arraySource } from "../search/arraySource.js";
 import { searchSource, truncationSeconds, validateSearchOptions } from "../search/scan.js";
-import { nextPowerOfTwo } from "../search/segmentPlan.js";
+import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo } from "../search/segmentPlan.js";
 import { templateDurationSeconds } from "../search/templateTiming.js";
 import type { SearchInput, SearchOptions } from "../search/types.js";
 import { type Detector, SITE_A } from "../waveform/antenna.js";
@@ -155,6 +157,7 @@ function checkRange(name: string, r: unknown): [number, number] {
 export function validatePopulation(p: CampaignPopulation): void {
   if (!Number.isInteger(p.count) || p.count < 1) throw new InputError(`count must be a positive whole number of injections (got ${p.count})`);
   checkRange("mass range", p.massRangeSolar);
+  checkComponentMassRange(p.massRangeSolar);
   if ((p.distanceMpc === undefined) === (p.snrRange === undefined)) throw new InputError("give exactly one of a distance range and an SNR range");
   if (p.distanceMpc !== undefined) checkRange("distance range", p.distanceMpc);
   if (p.snrRange !== undefined) checkRange("SNR range", p.snrRange);
@@ -186,7 +189,8 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
   let fs: number;
   if (data.kind === "simulated") {
     fs = data.sampleRate;
-    if (!(fs > 0) || !Number.isFinite(fs)) throw new InputError(`sample rate must be a positive number (got ${fs})`);
+    if (!(fs > 0) || !Number.isFinite(fs)) throw parameterError("sampleRate", `must be a positive number (got ${fs})`);
+    checkTimeBaseParameters(fs, 0, 0);
   } else {
     if (data.sources.length === 0) throw new InputError("no strain files given");
     fs = data.sources[0].sampleRate;
@@ -215,15 +219,22 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
 
   const perBatchWanted = options.injectionsPerBatch;
   if (perBatchWanted !== undefined && (!Number.isInteger(perBatchWanted) || perBatchWanted < 1)) {
-    throw new InputError(`injections per batch must be a positive whole number (got ${perBatchWanted})`);
+    throw parameterError("injectionsPerBatch", `must be a positive whole number (got ${perBatchWanted})`);
   }
   let samples: number;
   if (search.segmentSeconds !== undefined) {
     samples = nextPowerOfTwo(Math.round(search.segmentSeconds * fs));
   } else {
-    const target = perBatchWanted ?? Math.min(p.count, TARGET_PER_BATCH);
+    const target = Math.min(p.count, perBatchWanted ?? TARGET_PER_BATCH);
     const seconds = Math.max(4 * (Math.max(longestTemplate, longestInjection) + 2 * trunc), 2 * margin + (target - 1) * spacing + 1);
     samples = nextPowerOfTwo(Math.ceil(seconds * fs));
+  }
+  // Refuse, before any work, a stretch too long to hold: name what made it so.
+  if (!(samples <= MAX_SEGMENT_SAMPLES)) {
+    const stretch = `stretches of ${(samples / fs).toPrecision(3)} s (${samples.toPrecision(3)} samples at ${fs} Hz), more than the limit of ${MAX_SEGMENT_SAMPLES} (2^23) samples`;
+    if (search.segmentSeconds !== undefined) throw parameterError("segmentSeconds", `${search.segmentSeconds} s makes ${stretch}; use a shorter segment`);
+    if (perBatchWanted !== undefined) throw parameterError("injectionsPerBatch", `${perBatchWanted} injections per batch need ${stretch}; use fewer per batch`);
+    throw new InputError(`${stretch}; raise fmin or lower the sample rate`);
   }
   if (data.kind === "strain") {
     const longestFile = Math.max(...data.sources.map((s) => s.length));

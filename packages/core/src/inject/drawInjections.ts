@@ -1,5 +1,6 @@
 import seedrandom from "seedrandom";
 import { InputError } from "../errors.js";
+import { checkComponentMassRange } from "../physics/massDomain.js";
 import { type Detector, SITE_A } from "../waveform/antenna.js";
 import { taylorT4Duration, taylorT4Evolution } from "../waveform/taylorT4Evolution.js";
 import { type Injection } from "./injection.js";
@@ -94,6 +95,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
   if (!Number.isInteger(o.count) || o.count < 0) throw new InputError(`count must be a non-negative integer (got ${o.count})`);
   const [mLo, mHi] = checkRange("massRangeSolar", o.massRangeSolar, 0);
   const spinRange = o.spinRange === undefined ? undefined : checkSpinRange(o.spinRange);
+  checkComponentMassRange(o.massRangeSolar);
   if ((o.distanceMpc === undefined) === (o.snrRange === undefined)) {
     throw new InputError("give exactly one of distanceMpc and snrRange");
   }

@@ -80,13 +80,19 @@ export function syncDirectory(dir: string): void {
   }
 }
 
-/** Writes `content` to a new file at `path` and flushes it to disk (no rename). */
-export function writeFileSynced(path: string, content: string | Uint8Array): void {
+/**
+ * Writes `content` (bytes, a string, or pieces of either, written as they come so a large file is
+ * never one string in memory) to a new file at `path` and flushes it to disk (no rename).
+ */
+export function writeFileSynced(path: string, content: string | Uint8Array | Iterable<string | Uint8Array>): void {
   const fd = openSync(path, "w");
   try {
-    const bytes = typeof content === "string" ? Buffer.from(content, "utf8") : content;
-    let off = 0;
-    while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
+    const pieces = typeof content === "string" || content instanceof Uint8Array ? [content] : content;
+    for (const piece of pieces) {
+      const bytes = typeof piece === "string" ? Buffer.from(piece, "utf8") : piece;
+      let off = 0;
+      while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
+    }
     fsyncSync(fd);
   } finally {
     closeSync(fd);
@@ -102,7 +108,7 @@ export function writeFileSynced(path: string, content: string | Uint8Array): voi
  * Stale temporary files of killed writes to the same path are removed first. On failure the
  * temporary file is removed, and a file-system error names `path`, not the temporary file.
  */
-export function writeFileAtomic(path: string, content: string | Uint8Array): void {
+export function writeFileAtomic(path: string, content: string | Uint8Array | Iterable<string | Uint8Array>): void {
   const target = outputTarget(path);
   removeStalePartials(target);
   const tmp = partialPathFor(target);

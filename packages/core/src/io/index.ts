@@ -10,3 +10,4 @@ export * from "./intervalFile.js";
 export * from "./constantSeries.js";
 export * from "./strainUnits.js";
 export * from "./runLock.js";
+export * from "./timeBase.js";

@@ -2,7 +2,8 @@
 import { stat } from "node:fs/promises";
 import type { Stats } from "node:fs";
 import { dirname } from "node:path";
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
+import { MAX_SAMPLE_RATE_HZ, checkFileTimeBase } from "./timeBase.js";
 
 /** A value shown in a one-line message: JSON where possible, shortened. */
 export function shown(value: unknown): string {
@@ -125,6 +126,7 @@ export function checkSeriesToWrite(
     throw new InputError(`${path}: data must be an array of numbers`);
   }
   if (data.length === 0) throw new InputError(`${path}: no samples to write`);
+  checkFileTimeBase(path, sampleRate, startTime, data.length);
   for (const [name, value] of [["label", label], ["units", units]] as const) {
     if (value !== undefined && (typeof value !== "string" || /[\r\n]/.test(value))) {
       throw new InputError(`${path}: ${name} must be a one-line string (got ${shown(value)})`);
@@ -145,10 +147,13 @@ export function checkSeriesToWrite(
 /** Checks a caller-supplied rate/start option (InputError naming the flag). */
 export function checkRateStartOptions(rate: number | undefined, start: number | undefined): void {
   if (rate !== undefined && (typeof rate !== "number" || !Number.isFinite(rate) || rate <= 0)) {
-    throw new InputError(`--rate must be a positive number of Hz (got ${shown(rate)})`);
+    throw parameterError("rate", `must be a positive number of Hz (got ${shown(rate)})`);
+  }
+  if (rate !== undefined && rate > MAX_SAMPLE_RATE_HZ) {
+    throw parameterError("rate", `${rate} Hz is above the highest sample rate chirpsieve handles, ${MAX_SAMPLE_RATE_HZ} Hz; resample the data first`);
   }
   if (start !== undefined && (typeof start !== "number" || !Number.isFinite(start))) {
-    throw new InputError(`--start must be a finite number of seconds (got ${shown(start)})`);
+    throw parameterError("start", `must be a finite number of seconds (got ${shown(start)})`);
   }
 }
 

@@ -3,6 +3,7 @@ import { openHdf5Strain, writeHdf5Strain } from "./hdf5Strain.js";
 import { openRawStrain, writeRawStrain } from "./rawStrain.js";
 import { checkOutputDirectory, checkRateStartOptions, checkSeriesToWrite, shown } from "./strainChecks.js";
 import { strainFormatOf } from "./strainFormat.js";
+import { checkFileTimeBase } from "./timeBase.js";
 import { openTextStrain, writeTextStrain } from "./textStrain.js";
 import type {
   StrainOpenOptions,
@@ -50,15 +51,15 @@ export async function openStrain(path: string, options: StrainOpenOptions = {}):
   if (options.dataset !== undefined && format !== "hdf5") {
     throw new InputError(`${path}: --dataset ${options.dataset} applies only to HDF5 files; this is a ${format === "text" ? "text" : "raw " + format} file`);
   }
-  switch (format) {
-    case "f32":
-    case "f64":
-      return openRawStrain(path, format, options);
-    case "text":
-      return openTextStrain(path, options);
-    case "hdf5":
-      return openHdf5Strain(path, options);
+  const source =
+    format === "text" ? await openTextStrain(path, options) : format === "hdf5" ? await openHdf5Strain(path, options) : await openRawStrain(path, format, options);
+  try {
+    checkFileTimeBase(path, source.sampleRate, source.startTime, source.length);
+  } catch (err) {
+    await source.close();
+    throw err;
   }
+  return source;
 }
 
 /** Samples per read when {@link readStrain} loads a whole file (bounds the HDF5 worker's memory). */

@@ -32,7 +32,7 @@ export function strainFormatOf(path: string, format?: StrainFormat): StrainForma
   if (found === undefined) {
     const known = Object.keys(STRAIN_EXTENSIONS).join(", ");
     throw new InputError(
-      `${path}: cannot tell the strain format from the extension ${ext === "" ? "(none)" : JSON.stringify(ext)}; use one of ${known}, or pass --format`,
+      `${path}: cannot tell the strain format from the extension ${ext === "" ? "(none)" : JSON.stringify(ext)}; strain files must end in one of ${known} (the extension decides how a file is read)`,
     );
   }
   return found;

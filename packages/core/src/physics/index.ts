@@ -9,3 +9,4 @@ export * from "./isco.js";
 export * from "./binaryDescription.js";
 export * from "./remnant.js";
 export * from "./ringdown.js";
+export * from "./massDomain.js";

@@ -26,6 +26,8 @@ export interface MergedShards extends MergedScan {
   search: ShardManifest["search"];
   inputs: ShardManifest["inputs"];
   arguments: Record<string, unknown>;
+  /** The most threads any shard filtered with (1 when the manifests do not say). */
+  threads: number;
 }
 
 const MANIFEST_SUFFIX = ".manifest.json";
@@ -266,5 +268,6 @@ export function mergeShards(paths: readonly string[]): MergedShards {
     search: first.search,
     inputs: first.inputs,
     arguments: first.arguments ?? {},
+    threads: Math.max(1, ...files.map((f) => (typeof f.manifest.threads === "number" ? f.manifest.threads : 1))),
   };
 }

@@ -29,6 +29,9 @@ export interface RunInput {
   skippedSeconds: number;
   /** Seconds of valid data lost to the filter's lead-in and tail at the valid intervals' edges. */
   lostToEdgesSeconds: number;
+  /** Seconds at the start and end of the input where no coalescence can be searched (as SearchSummary). */
+  leadInSeconds: number;
+  tailSeconds: number;
 }
 
 /** The search settings that shape the result (recorded in manifests and hashed into the run id). */
@@ -75,6 +78,8 @@ export interface ShardManifest {
   /** The caller's (CLI's) arguments that shape the result, for a person and for the run id. */
   arguments: Record<string, unknown>;
   created: string;
+  /** Threads that filtered the bank in this shard (not part of the run id: results do not depend on it). */
+  threads?: number;
 }
 
 /** SHA-256 (hex) of a file's bytes, read in 4 MiB pieces. */
@@ -135,6 +140,8 @@ export async function describeInputs(inputs: readonly { source: SearchInput; pat
       skipped: plan.excluded.map((r) => ({ startTime: source.startTime + r.start / source.sampleRate, endTime: source.startTime + r.end / source.sampleRate, reason: r.reason })),
       skippedSeconds: plan.excludedSamples / source.sampleRate,
       lostToEdgesSeconds: plan.edgeSamples / source.sampleRate,
+      leadInSeconds: plan.invalidStart / source.sampleRate,
+      tailSeconds: plan.invalidEnd / source.sampleRate,
     });
   }
   return out;

@@ -50,7 +50,7 @@ export interface ScanRun {
   /** The whole run's result (not for a shard of several): what an uninterrupted unsharded searchSource returns, input by input. */
   result(): MergedScan;
   /** Writes the shard's record file and then its manifest (both atomically); returns the manifest. */
-  writeShard(candidatesPath: string): { manifestPath: string; manifest: ShardManifest };
+  writeShard(candidatesPath: string, threads?: number): { manifestPath: string; manifest: ShardManifest };
   /** Deletes the journal (call after the output is safely written). */
   finish(): void;
   /** Closes the journal and keeps it (a failed or interrupted run). */
@@ -139,7 +139,7 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
       if (shard.count > 1) throw new Error("scan run: a shard has no result of its own; merge the shards");
       return mergeSegmentRecords(layout, records.values());
     },
-    writeShard(candidatesPath) {
+    writeShard(candidatesPath, threads) {
       const missing = covered.filter((c) => !records.has(key(c.input, c.segment)));
       if (missing.length > 0) {
         throw new Error(`scan run: ${missing.length} covered segment(s) have no record yet (first: segment ${missing[0].segment} of input ${missing[0].input})`);
@@ -164,6 +164,7 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
         search,
         arguments: args,
         created: new Date().toISOString(),
+        ...(threads !== undefined ? { threads } : {}),
       };
       const manifestPath = manifestPathFor(candidatesPath);
       writeFileAtomic(manifestPath, JSON.stringify(manifest, null, 2) + "\n");

@@ -16,3 +16,4 @@ export * from "./taylorF2Phasor.js";
 export * from "./bankFilter.js";
 export * from "./workerPool.js";
 export * from "./segmentHook.js";
+export * from "./runSummary.js";

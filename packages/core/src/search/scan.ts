@@ -1,4 +1,4 @@
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
 import { chiSquared } from "../filter/chisq.js";
@@ -7,7 +7,7 @@ import { reweightedSnr } from "../filter/reweight.js";
 import { M_SUN } from "../physics/constants.js";
 import { chirpMass } from "../physics/masses.js";
 import { clusterByTime } from "./cluster.js";
-import { nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
+import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
 import { segmentPsd } from "./segmentPsd.js";
 import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
 import { describeBadStretch, screenInput } from "./dataQuality.js";
@@ -15,7 +15,7 @@ import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
-import { createSearchPool, defaultSearchThreads, type SearchPool } from "./workerPool.js";
+import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
 import type { Candidate, GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
 
@@ -93,9 +93,11 @@ export function chooseSegmentLayout(o: SearchOptions, sampleRate: number, length
   const invalidEnd = Math.ceil(truncSeconds * sampleRate);
   let size: number;
   if (o.segmentSeconds !== undefined) {
-    // Never longer than the data needs (zero padding beyond it buys nothing), nor than 2^26 samples.
+    // Never longer than the data needs (zero padding beyond it buys nothing), nor than MAX_SEGMENT_SAMPLES.
     size = Math.min(nextPowerOfTwo(Math.round(o.segmentSeconds * sampleRate)), Math.max(nextPowerOfTwo(length), nextPowerOfTwo(invalidStart + invalidEnd + 1)));
-    if (size > 2 ** 26) throw new InputError(`segment of ${o.segmentSeconds} s at ${sampleRate} Hz is more than 2^26 samples; use a shorter segment`);
+    if (size > MAX_SEGMENT_SAMPLES) {
+      throw parameterError("segmentSeconds", `${o.segmentSeconds} s at ${sampleRate} Hz is more than ${MAX_SEGMENT_SAMPLES} (2^23) samples per segment; use a shorter segment`);
+    }
   } else {
     // Four times the padding keeps ≥ ~3/4 of each segment searchable; at least 64 s.
     size = nextPowerOfTwo(Math.max(4 * (invalidStart + invalidEnd), 64 * sampleRate));
@@ -146,11 +148,10 @@ export async function planSearch(source: SearchInput, o: SearchOptions): Promise
   if (bad.length > 0 && policy === "reject") {
     const b = bad[0];
     const t0 = source.startTime + b.start / fs;
-    throw new InputError(
+    const message =
       `${source.file}: ${describeBadStretch(b)} at t = ${t0.toFixed(4)} s (samples ${b.start}–${b.end - 1}, ${((b.end - b.start) / fs).toPrecision(3)} s)` +
-        `${bad.length > 1 ? ` and ${bad.length - 1} more bad stretch(es)` : ""}; bad data are rejected unless the search is told to leave them out`,
-      "badData",
-    );
+      `${bad.length > 1 ? ` and ${bad.length - 1} more bad stretch(es)` : ""}; bad data are rejected unless the search is told to leave them out`;
+    throw new InputError(message, { parameter: "badData", detail: message });
   }
   const badData: ExcludedRange[] = bad.map((b) => ({ start: b.start, end: b.end, reason: describeBadStretch(b) }));
   const exclusions = { analysisIntervals: o.analysisIntervals, excludedIntervals: o.excludedIntervals, badData };
@@ -178,7 +179,7 @@ const SMALL_JOB = 2 ** 25;
  */
 function searchThreads(o: SearchOptions, plan: { segments: readonly Segment[]; size: number }): number {
   const count = o.templates.length;
-  if (o.threads !== undefined) return Math.min(o.threads, count);
+  if (o.threads !== undefined) return Math.min(o.threads, maxSearchThreads(), count);
   if (count * plan.segments.length * plan.size < SMALL_JOB) return 1;
   return Math.min(defaultSearchThreads(), count);
 }

@@ -21,6 +21,14 @@ export interface SegmentPlan {
   readonly segments: readonly Segment[];
 }
 
+/**
+ * Most samples in one analysis segment (2^23: 2048 s at 4096 Hz). A search holds a few dozen bytes
+ * per segment sample and thread (data, spectrum, weights, SNR series), so this keeps a search
+ * within a few GB. It bounds a segment length the caller asks for; the default length follows the
+ * longest template (four times its padding, at least 64 s).
+ */
+export const MAX_SEGMENT_SAMPLES = 2 ** 23;
+
 /** Smallest power of two ≥ n. */
 export function nextPowerOfTwo(n: number): number {
   let p = 1;
