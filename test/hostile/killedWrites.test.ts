@@ -112,7 +112,7 @@ describe("recover: a shared state, a lock, and --out/--report killed at several 
     appendFileSync(state(d), `${JSON.stringify(foreign)}\n`);
     const mixed = runCli(recover("kill-new", "--resume"), { cwd: d });
     expect(mixed.code).toBe(2);
-    expect(mixed.stderr).toMatch(/^chirpsieve: .*campaign\.jsonl: line 3 is a batch of another campaign .*give each campaign its own --state\n$/);
+    expect(mixed.stderr).toMatch(/^chirpsieve: .*campaign\.jsonl: line 3 is a batch of another campaign .*give each campaign its own state file\n$/);
     writeFileSync(state(d), good);
 
     // A live run holds the state (this test process, as the lock records it): refused.

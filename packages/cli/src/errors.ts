@@ -65,3 +65,16 @@ export function refuseEmptyPaths(cmd: Command): void {
     }
   }
 }
+
+/**
+ * Runs `work`, turning an InputError it throws into a usage error on `flag` (`--flag: message`).
+ * Any other error is a bug and passes through unchanged (exit 1 with the error, not 2).
+ */
+export function onFlag<T>(flag: string, work: () => T): T {
+  try {
+    return work();
+  } catch (err) {
+    if (err instanceof InputError && !(err instanceof UsageError)) throw new UsageError(`${flag}: ${err.message}`);
+    throw err;
+  }
+}

@@ -24,6 +24,8 @@ const FLAG_OF_PARAMETER: Readonly<Record<string, string>> = {
   start: "--start",
   startTime: "--start",
   threads: "--threads",
+  dataset: "--dataset",
+  "psd.segmentSeconds": "--welch-segment",
 };
 
 /** The flag for a core parameter, or undefined when the CLI has none. */

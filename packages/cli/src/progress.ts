@@ -16,13 +16,15 @@ export interface ProgressOptions {
   now?: () => number;
   /** Output stream (default process.stderr). */
   stream?: { write(text: string): unknown; isTTY?: boolean };
+  /** What is counted (default "segments"; e.g. "draws"). */
+  unit?: string;
 }
 
 /** Least time between two progress lines without a terminal (ms). */
 export const PROGRESS_LINE_INTERVAL_MS = 5000;
 
 /**
- * A progress report for `label` work over segments of one or more files. On a terminal: a bar.
+ * A progress report for `label` work over segments (or another `unit`) of one or more files. On a terminal: a bar.
  * Otherwise, with `lines`: one line `chirpsieve: LABEL D/T segments, P%, M:SS elapsed` (with
  * `file I/N` before it when there are several files) at the first update and then at most one per
  * interval, so batch logs show the run advancing. Nothing when not wanted (--quiet).
@@ -32,7 +34,7 @@ export function createProgress(wanted: boolean, label: string, options: Progress
   if (!wanted) return { update() {}, stop() {} };
   if (!stream.isTTY) return options.lines ? progressLines(label, stream, options) : { update() {}, stop() {} };
   const bar = new cliProgress.SingleBar(
-    { stream: stream as NodeJS.WriteStream, format: `${label} {file} [{bar}] {percentage}% | {value}/{total} segments | eta {eta_formatted}`, hideCursor: true, clearOnComplete: true },
+    { stream: stream as NodeJS.WriteStream, format: `${label} {file} [{bar}] {percentage}% | {value}/{total} ${options.unit ?? "segments"} | eta {eta_formatted}`, hideCursor: true, clearOnComplete: true },
     cliProgress.Presets.shades_classic,
   );
   let started = false;
@@ -65,7 +67,7 @@ function progressLines(label: string, stream: { write(text: string): unknown }, 
       last = t;
       const pct = total > 0 ? Math.floor((100 * done) / total) : 100;
       const file = files > 1 ? ` file ${fileIndex + 1}/${files},` : "";
-      stream.write(`chirpsieve: ${label}${file} ${done}/${total} segments, ${pct}%, ${clock((t - start) / 1000)} elapsed\n`);
+      stream.write(`chirpsieve: ${label}${file} ${done}/${total} ${options.unit ?? "segments"}, ${pct}%, ${clock((t - start) / 1000)} elapsed\n`);
     },
     stop() {},
   };

@@ -1,5 +1,4 @@
 import type { Command } from "commander";
-import cliProgress from "cli-progress";
 import {
   buildBankWithReport,
   DEFAULT_TEMPLATE_CAP,
@@ -18,7 +17,8 @@ import {
   type SweepResult,
   type TemplateBank,
 } from "@chirpsieve/core";
-import { UsageError, withBankFlagErrors } from "../errors.js";
+import { UsageError, onFlag, withBankFlagErrors } from "../errors.js";
+import { createProgress } from "../progress.js";
 import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
@@ -160,12 +160,7 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   const massRatioCap =
     flags.massRatioCap === undefined ? undefined : parseNumberFlag("--mass-ratio-cap", flags.massRatioCap, { min: 1, minExclusive: true });
   const fmaxHz = flags.fmax === undefined ? undefined : parseNumberFlag("--fmax", flags.fmax, { min: fminHz, minExclusive: true });
-  let psd: PsdModel;
-  try {
-    psd = psdModelFromSpec(flags.noiseCurve);
-  } catch (err) {
-    throw new UsageError(`--noise-curve: ${(err as Error).message}`);
-  }
+  const psd: PsdModel = onFlag("--noise-curve", () => psdModelFromSpec(flags.noiseCurve));
   if (fminHz < psd.fMinHz) {
     throw new UsageError(`--fmin: ${fminHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
   }
@@ -221,43 +216,17 @@ function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport):
 
 
 
-function progressBar(label: string): { update(done: number, total: number): void; stop(): void } {
-  if (!process.stderr.isTTY) return { update() {}, stop() {} };
-  const bar = new cliProgress.SingleBar(
-    { stream: process.stderr, format: `${label} [{bar}] {percentage}% | {value}/{total} | eta {eta_formatted}`, hideCursor: true, clearOnComplete: true },
-    cliProgress.Presets.shades_classic,
-  );
-  let started = false;
-  return {
-    update(done, total) {
-      if (!started) {
-        bar.start(total, 0);
-        started = true;
-      }
-      bar.update(done);
-    },
-    stop() {
-      if (started) bar.stop();
-    },
-  };
-}
-
 function runVerify(file: string, flags: VerifyFlags): void {
   const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
   const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
   const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
   const required = flags.require === undefined ? undefined : parseNumberFlag("--require", flags.require, { min: 0, max: 1 });
   const bank = readBankFile(file);
-  let psd: PsdModel;
-  try {
-    psd = psdModelFromSpec(bank.noiseCurve);
-  } catch (err) {
-    throw new UsageError(`${file}: noiseCurve: ${(err as Error).message}`);
-  }
-  const bar = progressBar("verify");
+  const psd: PsdModel = onFlag(`${file}: noiseCurve`, () => psdModelFromSpec(bank.noiseCurve));
+  const bar = createProgress(true, "verify", { unit: "draws" });
   let report: CoverageReport;
   try {
-    report = verifyBank(bank, { draws, signal, drawSpace, seed: flags.seed, psd, onProgress: (d, t) => bar.update(d, t) });
+    report = verifyBank(bank, { draws, signal, drawSpace, seed: flags.seed, psd, onProgress: (d, t) => bar.update(0, 1, d, t) });
   } finally {
     bar.stop();
   }
@@ -299,21 +268,16 @@ function verifyText(file: string, bank: TemplateBank, r: CoverageReport): string
 
 async function runSweep(flags: SweepFlags): Promise<void> {
   const region = parseRegion(flags);
-  let floors: number[];
-  try {
-    floors = parseMatchFloorRange(flags.matchFloor);
-  } catch (err) {
-    throw new UsageError(`--match-floor: ${(err as Error).message}`);
-  }
+  const floors: number[] = onFlag("--match-floor", () => parseMatchFloorRange(flags.matchFloor));
   const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
   const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
   const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
   if (flags.plot) checkFilePlan({ inputs: noiseCurveInput("--noise-curve", flags.noiseCurve), outputs: [{ flag: "--plot", path: flags.plot }] });
-  const bar = progressBar("sweep");
+  const bar = createProgress(true, "sweep", { unit: "draws" });
   let result: SweepResult;
   try {
     result = withBankFlagErrors(
-      () => sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(d, t) }),
+      () => sweepMatchFloors({ ...region, matchFloors: floors, draws, signal, drawSpace, seed: flags.seed, onProgress: (d, t) => bar.update(0, 1, d, t) }),
       LIMIT_REMEDY,
     );
   } finally {

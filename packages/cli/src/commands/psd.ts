@@ -13,6 +13,7 @@ import {
   type HorizonResult,
   type StrainSeries,
   type WelchPsd,
+  MIN_WELCH_SEGMENT_SAMPLES,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkFilePlan, strainInputs } from "../outputPath.js";
@@ -79,8 +80,8 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
   if (!physical) nonStrainInputs([strain], "the horizon and range are unavailable (null in JSON)");
   const fs = strain.sampleRate;
   const wanted = Math.round(segmentSeconds * fs);
-  if (wanted < 16) {
-    throw new UsageError(`--segment: ${segmentSeconds} s is ${wanted} samples at ${fs} Hz; a PSD estimate needs segments of at least 16 samples`);
+  if (wanted < MIN_WELCH_SEGMENT_SAMPLES) {
+    throw new UsageError(`--segment: ${segmentSeconds} s is ${wanted} samples at ${fs} Hz; a PSD estimate needs segments of at least ${MIN_WELCH_SEGMENT_SAMPLES} samples`);
   }
   let segmentLength = 4;
   while (segmentLength < wanted) segmentLength *= 2;

@@ -9,6 +9,7 @@ import {
   writeFileSynced,
   type RunLock,
   campaignFingerprint,
+  campaignIdentity,
   detectorByName,
   evaluateRequirements,
   loadFftBackends,
@@ -27,7 +28,7 @@ import {
   type Requirement,
   type StrainSource,
 } from "@chirpsieve/core";
-import { UsageError } from "../errors.js";
+import { UsageError, onFlag } from "../errors.js";
 import { checkFilePlan, noiseCurveInput, strainInputs } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
@@ -106,19 +107,10 @@ export function registerRecover(program: Command): void {
 }
 
 
-function asUsage<T>(flag: string, f: () => T): T {
-  try {
-    return f();
-  } catch (err) {
-    if (err instanceof InputError && !(err instanceof UsageError)) throw new UsageError(`${flag}: ${err.message}`);
-    throw err;
-  }
-}
-
 async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const wallStart = performance.now();
   // Parse and check everything before any work.
-  const requirements: Requirement[] = flags.require.map((r) => asUsage("--require", () => parseRequirement(r)));
+  const requirements: Requirement[] = flags.require.map((r) => onFlag("--require", () => parseRequirement(r)));
   const count = parseNumberFlag("--count", flags.count, { min: 1, max: 1_000_000, integer: true });
   const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange);
   const spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
@@ -132,13 +124,13 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const rate = parseRateFlag("--rate", flags.rate);
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
-  const detector = asUsage("--detector", () => detectorByName(flags.detector));
+  const detector = onFlag("--detector", () => detectorByName(flags.detector));
   const start = flags.start === undefined ? undefined : parseNumberFlag("--start", flags.start);
   const strainFiles = flags.strain ?? [];
   if (strainFiles.length === 0 && flags.noiseCurve === undefined) throw new UsageError("--noise-curve: needed to simulate noise (or give --strain FILE...)");
   if (strainFiles.length > 0 && flags.modelPsd) throw new UsageError("--model-psd: only applies to simulated noise (with --strain, --noise-curve sets the filter's PSD)");
   if (flags.bank && cmd.getOptionValueSource("matchFloor") === "cli") throw new UsageError("--match-floor: only applies to a bank built on the fly, not with --bank");
-  const noiseModel: PsdModel | undefined = flags.noiseCurve === undefined ? undefined : asUsage("--noise-curve", () => psdModelFromSpec(flags.noiseCurve!));
+  const noiseModel: PsdModel | undefined = flags.noiseCurve === undefined ? undefined : onFlag("--noise-curve", () => psdModelFromSpec(flags.noiseCurve!));
   if (strainFiles.length === 0 && fMinFlag >= rate / 2) throw new UsageError(`--fmin: must be below the Nyquist frequency ${rate / 2} Hz (got ${flags.fmin})`);
   const stateDir = flags.state ?? (flags.out ? `${flags.out}.state` : flags.report ? `${flags.report}.state` : undefined);
   if (flags.resume && stateDir === undefined) throw new UsageError("--resume: needs --state DIR, --out or --report to know where the state file is");
@@ -173,37 +165,6 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   try {
     for (const f of strainFiles) sources.push(await openStrainInput(f, { rate: cmd.getOptionValueSource("rate") === "cli" ? rate : undefined, start, dataset: flags.dataset }));
 
-    // What determines the results: hashed into the state file so a resume with other arguments is refused.
-    const args = {
-      noise: strainFiles.length ? "strain" : "simulated",
-      noiseCurve: noiseModel?.name ?? null,
-      strain: sources.map((s) => ({ file: s.file, sampleRate: s.sampleRate, startTime: s.startTime, samples: s.length })),
-      count,
-      massRangeSolar,
-      ...(spinRange ? { spinRange } : {}),
-      snrRange: snrRange ?? null,
-      distanceRangeMpc: distanceMpc ?? null,
-      distanceDistribution: distanceMpc ? distanceDistribution : null,
-      seed: flags.seed,
-      fMinHz,
-      sampleRate: strainFiles.length ? sources[0].sampleRate : rate,
-      detector: detector.name,
-      bank: bankDescription,
-      templates: templates.length,
-      templatesFingerprint: campaignFingerprint(templates.map((t) => [t.primaryMass, t.secondaryMass])),
-      minSnr: snrThreshold,
-      chi2Bands: chi2Bins,
-      chi2Allowance,
-      loudestWithinSeconds,
-      psd: psd.kind === "model" ? `model ${psd.model.name}` : `welch-${psd.average}-${welchSegmentSeconds}s`,
-      segmentSeconds: segmentSeconds ?? null,
-      fftBackend,
-      matchWindowSeconds,
-      perBatch: perBatch ?? null,
-      gating,
-    };
-    const fingerprint = campaignFingerprint(args);
-
     const options: CampaignOptions = {
       population: { count, massRangeSolar, ...(spinRange ? { spinRange } : {}), snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
       data: strainFiles.length ? { kind: "strain", sources } : { kind: "simulated", psd: noiseModel!, sampleRate: rate },
@@ -212,6 +173,9 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       matchWindowSeconds,
       injectionsPerBatch: perBatch,
     };
+    // What determines the results: hashed into the state file so a resume with other arguments is refused.
+    const args = campaignIdentity(options, bankDescription);
+    const fingerprint = campaignFingerprint(args);
 
     // Lay the campaign out now, so a stretch too long to hold is refused before any file is made.
     planCampaign(options);
@@ -222,7 +186,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       mkdirSync(stateDir, { recursive: true });
       // One live campaign per state: a second run waits for nothing and is refused; a killed
       // run's lock is stale (its process is gone) and taken over.
-      lock = asUsage(stateFlag, () => acquireRunLock(join(stateDir, "campaign.lock"), `the campaign state in ${stateDir}`));
+      lock = onFlag(stateFlag, () => acquireRunLock(join(stateDir, "campaign.lock"), `the campaign state in ${stateDir}`));
       statePath = join(stateDir, "campaign.jsonl");
       const previous = flags.resume ? readCampaignState(statePath, fingerprint) : null;
       if (previous === null) startCampaignState(statePath, fingerprint, args);

@@ -19,15 +19,16 @@ import {
   type SearchSummary,
   journalPathFor,
   manifestPathFor,
-  parseShardSpec,
   startScanRun,
   joinContiguousInputs,
   readIntervalFile,
   InputError,
   runSummaryRecord,
+  psdLabel,
   type SearchInput,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
+import { parseShardSpec } from "../shardFlag.js";
 import { checkFilePlan, noiseCurveInput, strainInputs, type FilePlan } from "../outputPath.js";
 import { parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
@@ -224,7 +225,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
       minSnr: snrThreshold,
       chi2Allowance,
       fMinHz,
-      psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${welchSegmentSeconds}s`,
+      psd: psdLabel(psd),
       fftBackend,
       wallSeconds: (performance.now() - wallStart) / 1000,
       caution: CANDIDATE_CAUTION,

@@ -2,7 +2,10 @@ import type { Command } from "commander";
 import {
   type Injection,
   InputError,
-  campaignFingerprint,
+  planSimulationSites,
+  simulateSiteStrain,
+  simulationRunId,
+  type SimulationSettings,
   writeFileSet,
   chirpMass,
   checkTimeBaseParameters,
@@ -15,7 +18,6 @@ import {
   psdModelFromSpec,
   readInjectionFile,
   strainFormatOf,
-  synthesizeStrain,
   unsearchableEdges,
   writeInjectionManifest,
   writeStrain,
@@ -248,21 +250,10 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
     }
   }
 
-  // Per-site SNRs; with several sites also the network SNR (drawn by --snr-range, else the
-  // quadrature sum of the sites').
-  const perSite = outputs.map((o) =>
-    injections.map((inj) => (multi || inj.optimalSnr === undefined ? optimalSnr(inj, psd, rate, fmin, o.detector) : inj.optimalSnr!)),
-  );
-  const network = injections.map((inj, k) =>
-    random && inj.optimalSnr !== undefined ? inj.optimalSnr : Math.sqrt(perSite.reduce((a, site) => a + site[k] ** 2, 0)),
-  );
-  // Equal settings give an equal run id (and equal bytes); the sidecars record it with the sites
-  // written together, so a reader can tell files of one run from files of two.
+  const settings: SimulationSettings = { psd, sampleRate: rate, startTime: start, duration, fMinHz: fmin, seed, noise: flags.noise };
+  const sites = planSimulationSites(settings, detectors, injections, random);
   const run = {
-    id: campaignFingerprint({
-      tool: "chirpsieve simulate", version: VERSION, noiseCurve: psd.name, noise: flags.noise, sampleRate: rate, startTime: start,
-      duration, fMinHz: fmin, seed, detectors: detectors.map((d) => d.name), injections, label: flags.label ?? null,
-    }),
+    id: simulationRunId(settings, detectors.map((d) => d.name), injections, { version: VERSION, label: flags.label ?? null }),
     sites: detectors.map((d) => d.name),
   };
   const lines: string[] = [];
@@ -271,30 +262,9 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
   // leaves the whole old set or the whole new one.
   await writeFileSet(flags.out, async (staged) => {
     for (const [oi, o] of outputs.entries()) {
-      // The noise of each site is independent (its own seed), one site keeps `SEED:noise`.
-      const siteInjections = injections.map((inj, k) => ({
-        ...inj,
-        optimalSnr: perSite[oi][k],
-        ...(multi ? { networkOptimalSnr: network[k] } : {}),
-      }));
-      const noiseSeed = multi ? `${seed}:noise:${o.detector.name}` : `${seed}:noise`;
-      // Generated in chunks; held once, as float32 when the file is float32, to keep memory down.
-      const data = format === "f32" ? new Float32Array(samples) : new Float64Array(samples);
-      let offset = 0;
-      for (const chunk of synthesizeStrain({
-        psd,
-        sampleRate: rate,
-        startTime: start,
-        duration,
-        seed: noiseSeed,
-        fMinHz: fmin,
-        injections: siteInjections,
-        detector: o.detector,
-        noise: flags.noise,
-      })) {
-        data.set(chunk, offset);
-        offset += chunk.length;
-      }
+      const siteInjections = sites[oi].injections;
+      // Held once, as float32 when the file is float32, to keep memory down.
+      const data = simulateSiteStrain(settings, sites[oi], format === "f32");
       await writeStrain(
         staged(o.out),
         { data, sampleRate: rate, startTime: start, label: flags.label ?? `synthetic ${o.detector.name}`, units: "strain", run },

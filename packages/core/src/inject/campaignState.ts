@@ -43,14 +43,14 @@ export function appendCampaignBatch(path: string, fingerprint: string, result: B
  * campaigns shared the file). Returns null when the file does not exist.
  */
 export function readCampaignState(path: string, fingerprint: string): BatchResult[] | null {
-  const read = readJournalLines(path, "start afresh without --resume");
+  const read = readJournalLines(path, "start afresh instead of resuming");
   if (!read) {
     if (existsSync(path)) throw new InputError(`${path}: not a campaign state file (no header line)`);
     return null;
   }
   const h = read.header;
   if (h.type === "campaign-state" && h.format === 1) {
-    throw new InputError(`${path}: a state file of an older version (its batches carry no campaign identity); start afresh without --resume`);
+    throw new InputError(`${path}: a state file of an older version (its batches carry no campaign identity); start afresh instead of resuming`);
   }
   if (h.type !== "campaign-state" || h.format !== 2 || typeof h.fingerprint !== "string") {
     throw new InputError(`${path}: not a campaign state file (its first line is not a campaign-state header)`);
@@ -58,7 +58,7 @@ export function readCampaignState(path: string, fingerprint: string): BatchResul
   if (h.fingerprint !== fingerprint) {
     throw new InputError(
       `${path}: the state was written for different arguments (fingerprint ${h.fingerprint.slice(0, 12)}…, now ${fingerprint.slice(0, 12)}…); ` +
-        "rerun with the same arguments, or without --resume to start afresh",
+        "rerun with the same arguments, or start afresh instead of resuming",
     );
   }
   const batches = new Map<number, BatchResult>();
@@ -68,7 +68,7 @@ export function readCampaignState(path: string, fingerprint: string): BatchResul
       const other = typeof rec.campaign === "string" ? `${rec.campaign.slice(0, 12)}…` : "none";
       throw new InputError(
         `${path}: line ${line} is a batch of another campaign (fingerprint ${other}, this one ${fingerprint.slice(0, 12)}…): two campaigns shared this state; ` +
-          "start afresh without --resume, and give each campaign its own --state",
+          "start afresh instead of resuming, and give each campaign its own state file",
       );
     }
     const { type: _t, campaign: _c, ...result } = rec;

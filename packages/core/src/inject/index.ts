@@ -11,3 +11,5 @@ export * from "./campaignSummary.js";
 export * from "./campaignRequirements.js";
 export * from "./campaignState.js";
 export * from "./searchableEdges.js";
+export * from "./simulationPlan.js";
+export * from "./campaignIdentity.js";

@@ -1,3 +1,4 @@
+import { checkComponentMassRange } from "../physics/massDomain.js";
 import { InputError } from "../errors.js";
 import { templateDurationSeconds } from "../search/templateTiming.js";
 
@@ -16,6 +17,7 @@ export function unsearchableEdges(
   fMinHz: number,
   filterSeconds: number,
 ): { leadInSeconds: number; tailSeconds: number } {
+  checkComponentMassRange(massRangeSolar);
   const lightest = massRangeSolar[0];
   if (!(lightest > 0) || !(fMinHz > 0) || !(filterSeconds >= 0)) {
     throw new InputError(`unsearchable edges need positive masses and fMin and a non-negative filter length (got ${lightest}, ${fMinHz}, ${filterSeconds})`);

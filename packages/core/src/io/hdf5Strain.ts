@@ -3,7 +3,7 @@ import { open, rename, rm } from "node:fs/promises";
 import { resolve } from "node:path";
 import { partialPathFor, removeStalePartials } from "./atomicWrite.js";
 import { outputTarget } from "./fileIdentity.js";
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import { Hdf5Failure, hdf5Request } from "./hdf5Client.js";
 import { agrees, checkFinite, checkReadRange, inputFsError, shown, statInputFile } from "./strainChecks.js";
 import type { StrainOpenOptions, StrainSource, StrainWriteInput } from "./strainTypes.js";
@@ -209,13 +209,15 @@ export async function openHdf5Strain(path: string, options: StrainOpenOptions): 
     } else {
       const candidates = datasets.filter(isStrainCandidate);
       if (candidates.length === 0) {
-        throw new InputError(
-          `${path}: no 1-D floating-point dataset (datasets: ${listing(datasets) || "none"}); pass --dataset to choose one`,
+        throw parameterError(
+          "dataset",
+          `${path}: no 1-D floating-point dataset (datasets: ${listing(datasets) || "none"}); name the dataset to read`,
         );
       }
       if (candidates.length > 1) {
-        throw new InputError(
-          `${path}: several 1-D floating-point datasets (${candidates.map((d) => `/${d.path}`).join(", ")}); pass --dataset to choose one`,
+        throw parameterError(
+          "dataset",
+          `${path}: several 1-D floating-point datasets (${candidates.map((d) => `/${d.path}`).join(", ")}); name the one to read`,
         );
       }
       info = candidates[0];
@@ -313,8 +315,9 @@ export async function openHdf5Strain(path: string, options: StrainOpenOptions): 
     } else if (options.rate !== undefined) {
       sampleRate = options.rate;
     } else {
-      throw new InputError(
-        `${path}: no sample rate in the file (no attribute ${[...HDF5_RATE_ATTRIBUTES, ...HDF5_SPACING_ATTRIBUTES].join("/")} on ${dsName} or the root); pass --rate <Hz>`,
+      throw parameterError(
+        "rate",
+        `${path}: no sample rate in the file (no attribute ${[...HDF5_RATE_ATTRIBUTES, ...HDF5_SPACING_ATTRIBUTES].join("/")} on ${dsName} or the root); give the sample rate (Hz)`,
       );
     }
 
@@ -341,8 +344,9 @@ export async function openHdf5Strain(path: string, options: StrainOpenOptions): 
     } else if (options.start !== undefined) {
       startTime = options.start;
     } else {
-      throw new InputError(
-        `${path}: no start time in the file (no attribute ${HDF5_START_ATTRIBUTES.join("/")} on ${dsName} or the root); pass --start <s>`,
+      throw parameterError(
+        "start",
+        `${path}: no start time in the file (no attribute ${HDF5_START_ATTRIBUTES.join("/")} on ${dsName} or the root); give the start time (s)`,
       );
     }
 
@@ -370,10 +374,10 @@ export async function openHdf5Strain(path: string, options: StrainOpenOptions): 
 
 /** Checks an HDF5 dataset path for writing and splits it: "/a/b" → ["a", "b"]. */
 export function hdf5DatasetSegments(dataset: string): string[] {
-  if (typeof dataset !== "string") throw new InputError(`--dataset must be a path like "strain" (got ${shown(dataset)})`);
+  if (typeof dataset !== "string") throw parameterError("dataset", `must be a path like "strain" (got ${shown(dataset)})`);
   const segments = dataset.split("/").filter((s) => s !== "");
   if (segments.length === 0 || segments.some((s) => s === "." || s === ".." || /[\u0000-\u001f]/.test(s))) {
-    throw new InputError(`--dataset must be a path like "strain" or "group/strain" (got ${shown(dataset)})`);
+    throw parameterError("dataset", `must be a path like "strain" or "group/strain" (got ${shown(dataset)})`);
   }
   return segments;
 }

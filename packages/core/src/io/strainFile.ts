@@ -1,4 +1,4 @@
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import { openHdf5Strain, writeHdf5Strain } from "./hdf5Strain.js";
 import { openRawStrain, writeRawStrain } from "./rawStrain.js";
 import { checkOutputDirectory, checkRateStartOptions, checkSeriesToWrite, shown } from "./strainChecks.js";
@@ -25,14 +25,10 @@ function checkOpenOptions(options: StrainOpenOptions): void {
   if (options.nonFinite !== undefined && options.nonFinite !== "error" && options.nonFinite !== "allow") {
     throw new InputError(`nonFinite must be "error" or "allow" (got ${shown(options.nonFinite)})`);
   }
-  for (const [key, flag] of [
-    ["dataset", "--dataset"],
-    ["rateAttribute", "the rate attribute"],
-    ["startAttribute", "the start attribute"],
-  ] as const) {
+  for (const key of ["dataset", "rateAttribute", "startAttribute"] as const) {
     const v = options[key];
     if (v !== undefined && (typeof v !== "string" || v.trim() === "")) {
-      throw new InputError(`${flag} must be a non-empty name (got ${shown(v)})`);
+      throw parameterError(key, `must be a non-empty name (got ${shown(v)})`);
     }
   }
 }
@@ -49,7 +45,7 @@ export async function openStrain(path: string, options: StrainOpenOptions = {}):
   checkOpenOptions(options);
   const format = strainFormatOf(path, options.format);
   if (options.dataset !== undefined && format !== "hdf5") {
-    throw new InputError(`${path}: --dataset ${options.dataset} applies only to HDF5 files; this is a ${format === "text" ? "text" : "raw " + format} file`);
+    throw parameterError("dataset", `${path}: a dataset (${options.dataset}) applies only to HDF5 files; this is a ${format === "text" ? "text" : "raw " + format} file`);
   }
   const source =
     format === "text" ? await openTextStrain(path, options) : format === "hdf5" ? await openHdf5Strain(path, options) : await openRawStrain(path, format, options);

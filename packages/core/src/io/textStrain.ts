@@ -2,7 +2,7 @@
 import { createReadStream } from "node:fs";
 import { StringDecoder } from "node:string_decoder";
 import { extname } from "node:path";
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import { writeFileAtomic } from "./atomicWrite.js";
 import { checkFinite, checkReadRange, inputFsError, statInputFile } from "./strainChecks.js";
 import { Float64Spill } from "./float64Spill.js";
@@ -161,7 +161,7 @@ function finishColumns(file: string, c: ParsedColumns, options: StrainOpenOption
   let startTime: number;
   if (c.columns === 1) {
     if (options.rate === undefined) {
-      throw new InputError(`${file}: a one-column text file has no times; pass --rate <Hz> (and --start <s>, default 0)`);
+      throw parameterError("rate", `${file}: a one-column text file has no times; give its sample rate (Hz; and its start time, default 0 s)`);
     }
     sampleRate = options.rate;
     startTime = options.start ?? 0;
@@ -218,7 +218,7 @@ function timeAxis(file: string, c: ParsedColumns, options: StrainOpenOptions): {
   const t0 = t.at(0);
   if (n === 1) {
     if (options.rate === undefined) {
-      throw new InputError(`${file}: one sample cannot show the sample rate; pass --rate <Hz>`);
+      throw parameterError("rate", `${file}: one sample cannot show the sample rate; give it (Hz)`);
     }
     if (options.start !== undefined && options.start !== t0) {
       throw new InputError(`${file}: the given start ${options.start} s disagrees with the time column (${t0} s)`);

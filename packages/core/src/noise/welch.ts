@@ -15,6 +15,12 @@ export interface WelchOptions {
   average?: WelchAverage;
 }
 
+/**
+ * Fewest samples in one Welch segment of a PSD estimate that a search or `psd` accepts: fewer give
+ * a handful of bins, no spectrum to whiten with. Ours; common practice, no source.
+ */
+export const MIN_WELCH_SEGMENT_SAMPLES = 16;
+
 /** A Welch PSD estimate: bin k at frequency k·df, k = 0…segmentLength/2. */
 export interface WelchPsd extends SampledPsd {
   readonly frequencies: Float64Array;

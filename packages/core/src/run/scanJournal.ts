@@ -77,7 +77,7 @@ export function openScanJournal(path: string, header: Omit<JournalHeader, "type"
     }
     if (!sameShard(found.header.shard, full.shard)) {
       const show = (s: ShardSpec | null): string => (s ? `shard ${s.index}/${s.count} by ${s.by}` : "the whole run");
-      throw new InputError(`${path}: the journal belongs to ${show(found.header.shard)}, not ${show(full.shard)}; rerun with the same --shard, or delete it`);
+      throw new InputError(`${path}: the journal belongs to ${show(found.header.shard)}, not ${show(full.shard)}; rerun the same shard, or delete it`);
     }
     if (found.goodBytes < found.totalBytes) truncateSync(path, found.goodBytes);
     resumed = found.records;

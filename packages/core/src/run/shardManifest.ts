@@ -4,6 +4,7 @@ import { basename, dirname, extname, join } from "node:path";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
 import { planSearch, truncationSeconds } from "../search/scan.js";
+import { psdLabel } from "../search/psdLabel.js";
 import type { TimeInterval } from "../search/streamPlan.js";
 import type { SkippedStretch } from "../search/types.js";
 import type { GateSettings } from "../noise/gating.js";
@@ -166,7 +167,7 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     chi2Bins: options.chi2Bins,
     chi2Allowance: options.chi2Allowance ?? 0,
     loudestWithinSeconds: options.loudestWithinSeconds,
-    psd: psd.kind === "model" ? psd.model.name : `welch-${psd.average}-${psd.segmentSeconds}s`,
+    psd: psdLabel(psd),
     psdFingerprint:
       psd.kind === "model"
         ? { name: psd.model.name, fMinHz: psd.model.fMinHz, values: FINGERPRINT_FREQUENCIES.map((f) => { const v = psd.model.evaluate(f); return Number.isFinite(v) ? v : String(v); }) }

@@ -68,7 +68,7 @@ const key = (input: number, segment: number): string => `${input}:${segment}`;
 export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
   if (setup.inputs.length === 0) throw new InputError("scan run: no input files");
   const shard: ShardSpec = setup.shard ?? { index: 0, count: 1, by: "time" };
-  checkShardSpec(shard, "--shard");
+  checkShardSpec(shard);
   const options = setup.options;
   const inputs = await describeInputs(
     setup.inputs.map((source) => ({ source })),

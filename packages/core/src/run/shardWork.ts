@@ -28,9 +28,6 @@ export interface ShardWork {
   readonly blocks: readonly WorkBlock[];
 }
 
-/** Environment variables a batch scheduler sets to an array task's 0-based index, in the order tried by `auto/N`. */
-export const SHARD_INDEX_VARIABLES: readonly string[] = ["SLURM_ARRAY_TASK_ID", "JOB_COMPLETION_INDEX"];
-
 /** Checks a shard spec at the door (index an integer in 0..count−1, count ≥ 1, a known `by`). */
 export function checkShardSpec(shard: ShardSpec, what = "shard"): void {
   if (!Number.isInteger(shard.count) || shard.count < 1) throw new InputError(`${what}: the shard count must be a positive integer (got ${shard.count})`);
@@ -38,38 +35,6 @@ export function checkShardSpec(shard: ShardSpec, what = "shard"): void {
     throw new InputError(`${what}: the shard index must be an integer from 0 to ${shard.count - 1} (got ${shard.index})`);
   }
   if (!SHARD_BY_CHOICES.includes(shard.by)) throw new InputError(`${what}: shard-by must be one of ${SHARD_BY_CHOICES.join(", ")} (got "${shard.by}")`);
-}
-
-/**
- * Parses `I/N` (0-based I) or `auto/N`, where auto takes I from the first of
- * {@link SHARD_INDEX_VARIABLES} set in `env` (a Slurm array task or a Kubernetes indexed job).
- * Errors name the `--shard` flag.
- */
-export function parseShardSpec(text: string, by: string, env: Readonly<Record<string, string | undefined>> = {}): ShardSpec {
-  const m = /^\s*(auto|\d+)\s*\/\s*(\d+)\s*$/.exec(String(text));
-  if (!m) throw new InputError(`--shard: expected I/N with 0 ≤ I < N, or auto/N (got "${text}")`);
-  const count = Number(m[2]);
-  if (!(count >= 1)) throw new InputError(`--shard: the shard count N must be at least 1 (got "${text}")`);
-  if (!SHARD_BY_CHOICES.includes(by as ShardBy)) throw new InputError(`--shard-by: expected one of ${SHARD_BY_CHOICES.join(", ")} (got "${by}")`);
-  let index: number;
-  if (m[1] === "auto") {
-    const name = SHARD_INDEX_VARIABLES.find((v) => env[v] !== undefined && env[v] !== "");
-    if (!name) {
-      throw new InputError(
-        `--shard auto/${count}: none of ${SHARD_INDEX_VARIABLES.join(", ")} is set; run inside a scheduler array task or give the index, e.g. --shard 0/${count}`,
-      );
-    }
-    const v = String(env[name]).trim();
-    if (!/^\d+$/.test(v)) throw new InputError(`--shard auto/${count}: ${name} must be a whole number (got "${v}")`);
-    index = Number(v);
-    if (index >= count) {
-      throw new InputError(`--shard auto/${count}: ${name}=${index} is outside 0..${count - 1}; submit the array with indices 0-${count - 1}`);
-    }
-  } else {
-    index = Number(m[1]);
-    if (index >= count) throw new InputError(`--shard: the index must be below the count (0 ≤ I < ${count}; got "${text}")`);
-  }
-  return { index, count, by: by as ShardBy };
 }
 
 /** `2/4` */

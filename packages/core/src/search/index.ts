@@ -17,3 +17,4 @@ export * from "./bankFilter.js";
 export * from "./workerPool.js";
 export * from "./segmentHook.js";
 export * from "./runSummary.js";
+export * from "./psdLabel.js";

@@ -10,6 +10,7 @@ import { clusterByTime } from "./cluster.js";
 import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
 import { segmentPsd } from "./segmentPsd.js";
 import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
+import { MIN_WELCH_SEGMENT_SAMPLES } from "../noise/welch.js";
 import { describeBadStretch, screenInput } from "./dataQuality.js";
 import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
@@ -46,22 +47,18 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
     // Welch needs segments of a few samples at least, and bins finer than the lowest frequency searched.
     const seconds = o.psd.segmentSeconds;
     const samples = Math.round(seconds * sampleRate);
-    if (!(samples >= MIN_PSD_SEGMENT_SAMPLES)) {
-      throw new InputError(
-        `--welch-segment: ${seconds} s is ${samples} samples at ${sampleRate} Hz; the PSD estimate needs at least ${MIN_PSD_SEGMENT_SAMPLES}`,
-      );
+    if (!(samples >= MIN_WELCH_SEGMENT_SAMPLES)) {
+      throw parameterError("psd.segmentSeconds", `${seconds} s is ${samples} samples at ${sampleRate} Hz; the PSD estimate needs at least ${MIN_WELCH_SEGMENT_SAMPLES}`);
     }
     if (!(1 / seconds <= o.fMinHz)) {
-      throw new InputError(
-        `--welch-segment: ${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than fmin ${o.fMinHz} Hz; ` +
-          `use at least ${(1 / o.fMinHz).toPrecision(3)} s`,
+      throw parameterError(
+        "psd.segmentSeconds",
+        `${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than fmin ${o.fMinHz} Hz; use at least ${(1 / o.fMinHz).toPrecision(3)} s`,
       );
     }
   }
 }
 
-/** Fewest samples in one Welch segment of a search's PSD estimate. */
-const MIN_PSD_SEGMENT_SAMPLES = 16;
 
 /** Segment length and the padding each segment loses at its ends, for a search of `length` samples. */
 export interface SegmentLayout {
