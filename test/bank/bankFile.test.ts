@@ -2,7 +2,8 @@ import { describe, expect, it, vi } from "vitest";
 import { mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { ajith2011, buildBank, formatBankFile, parseBankFile, readBankFile, writeBankFile } from "@chirpsieve/core";
+import { ajith2011, buildBank, readBankFile, writeBankFile } from "@chirpsieve/core";
+import { formatBankFile, parseBankFile } from "../../packages/core/src/bank/bankFile.js";
 
 /**
  * Fault injection for the atomic-write test: while `fault.failAfterBytes` is set, the library's

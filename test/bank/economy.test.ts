@@ -1,20 +1,9 @@
 import { describe, expect, it } from "vitest";
-import {
-  ajith2011,
-  buildBankWithReport,
-  createChirpTimeMetric,
-  createMassRegion,
-  gaussLegendre,
-  hexagonCellArea,
-  metricDensity,
-  metricDistanceSquared,
-  metricFactor,
-  placementMetric,
-  regionProperArea,
-  verifyBank,
-  type MassRegion,
-  type ChirpTimeMetric,
-} from "@chirpsieve/core";
+import { ajith2011, buildBankWithReport, verifyBank } from "@chirpsieve/core";
+import { createMassRegion, type MassRegion } from "../../packages/core/src/bank/massRegion.js";
+import { createChirpTimeMetric, metricDensity, metricDistanceSquared, metricFactor, type ChirpTimeMetric } from "../../packages/core/src/bank/metric.js";
+import { gaussLegendre, hexagonCellArea, regionProperArea } from "../../packages/core/src/bank/metricVolume.js";
+import { placementMetric } from "../../packages/core/src/bank/placementMetric.js";
 
 /**
  * A lower bound on the number of templates of ANY bank that covers `region` at minimal match `mm`:

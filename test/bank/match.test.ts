@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, chooseMatchGrid, createMatchComputer, createTaylorF2Generator, iscoFrequencyHz } from "@chirpsieve/core";
+import { ajith2011 } from "@chirpsieve/core";
+import { iscoFrequencyHz } from "../../packages/core/src/bank/chirpTimeCoordinates.js";
+import { chooseMatchGrid, createMatchComputer } from "../../packages/core/src/bank/match.js";
+import { createTaylorF2Generator } from "../../packages/core/src/waveform/taylorf2.js";
 
 function setup(lagSpanS: number, fHighHz = 1800) {
   const grid = chooseMatchGrid({ fHighHz, lagSpanS });

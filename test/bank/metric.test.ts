@@ -1,25 +1,15 @@
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import {
-  ajith2011,
-  chirpTimes,
-  chirpTimesFromComponents,
-  chirpTimesFromMassEta,
-  chooseMatchGrid,
-  componentsFromMassEta,
-  createChirpTimeMetric,
-  createMassRegion,
-  createMatchComputer,
-  createPhaseChart,
-  createTaylorF2Generator,
-  iscoFrequencyHz,
-  massEtaFromChirpTimes,
-  massesFromChirpTimes,
-  metricDistanceSquared,
-  metricRatioRange,
-  placementMetric,
-  taylorF2Phase,
-} from "@chirpsieve/core";
+import { ajith2011 } from "@chirpsieve/core";
+import { chirpTimesFromComponents, chirpTimesFromMassEta, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "../../packages/core/src/bank/chirpTimeCoordinates.js";
+import { metricRatioRange } from "../../packages/core/src/bank/lattice.js";
+import { createMassRegion } from "../../packages/core/src/bank/massRegion.js";
+import { chooseMatchGrid, createMatchComputer } from "../../packages/core/src/bank/match.js";
+import { createChirpTimeMetric, metricDistanceSquared } from "../../packages/core/src/bank/metric.js";
+import { createPhaseChart } from "../../packages/core/src/bank/phaseChart.js";
+import { placementMetric } from "../../packages/core/src/bank/placementMetric.js";
+import { chirpTimes, massesFromChirpTimes } from "../../packages/core/src/waveform/chirpTimes.js";
+import { createTaylorF2Generator, taylorF2Phase } from "../../packages/core/src/waveform/taylorf2.js";
 
 describe("chirp-time coordinates", () => {
   it("agree with the waveform module's chirpTimes and massesFromChirpTimes", () => {

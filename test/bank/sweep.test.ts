@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, measureTemplateCost, parseMatchFloorRange, scanCpuSecondsPerHour, sweepMatchFloors } from "@chirpsieve/core";
+import { ajith2011, parseMatchFloorRange, sweepMatchFloors } from "@chirpsieve/core";
+import { measureTemplateCost, scanCpuSecondsPerHour } from "../../packages/core/src/bank/scanCost.js";
 
 describe("match-floor sweep", () => {
   it("parses MIN:MAX:STEP ranges inclusively, without rounding drift", () => {

@@ -1,15 +1,8 @@
 // The template-count estimate that guards --template-cap must hold at every allowed match floor
 // (0.5 to 0.99999), and placement itself must stop past the limit whatever the estimate said.
 import { describe, expect, it } from "vitest";
-import {
-  MAX_MATCH_FLOOR,
-  MIN_MATCH_FLOOR,
-  TemplateLimitError,
-  buildBankWithReport,
-  estimateTemplateCount,
-  psdModelByName,
-  type BuildBankOptions,
-} from "@chirpsieve/core";
+import { TemplateLimitError, buildBankWithReport, psdModelByName } from "@chirpsieve/core";
+import { MAX_MATCH_FLOOR, MIN_MATCH_FLOOR, estimateTemplateCount, type BuildBankOptions } from "../../packages/core/src/bank/templateBank.js";
 
 const psd = psdModelByName("ajith2011");
 

@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { ajith2011, colouredNoise, horizonDistance, readPsdTable, writeStrain } from "@chirpsieve/core";
+import { ajith2011, colouredNoise, horizonDistance, writeStrain } from "@chirpsieve/core";
+import { readPsdTable } from "../../packages/core/src/noise/psdTable.js";
 import { runCli } from "./helpers.js";
 
 // Synthetic data: 32 s of seeded ajith2011-coloured Gaussian noise at 2048 Hz (no real event).

@@ -2,7 +2,9 @@ import { existsSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { SITE_A, injectInto, readStrain } from "@chirpsieve/core";
+import { readStrain } from "@chirpsieve/core";
+import { injectInto } from "../../packages/core/src/inject/injection.js";
+import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 import { runCli } from "./helpers.js";
 
 const tmp = (): string => mkdtempSync(join(tmpdir(), "chirpsieve-simulate-"));

@@ -2,7 +2,9 @@ import { afterAll, describe, expect, it } from "vitest";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { C, interSiteDelay, siteByName } from "@chirpsieve/core";
+import { siteByName } from "@chirpsieve/core";
+import { interSiteDelay } from "../../packages/core/src/coinc/interSiteDelay.js";
+import { C } from "../../packages/core/src/physics/constants.js";
 import { runCli } from "./helpers.js";
 
 const dir = mkdtempSync(join(tmpdir(), "chirpsieve-sites-cli-"));

@@ -4,19 +4,10 @@
 import { spawn } from "node:child_process";
 import { Command } from "commander";
 import { afterEach, describe, expect, it, vi } from "vitest";
-import {
-  AU,
-  InputError,
-  JULIAN_YEAR,
-  M_SUN,
-  PARSEC,
-  MPC,
-  chirpMass,
-  describeBinary,
-  frequencyDerivative,
-  strainAmplitude,
-  timeToCoalescenceFromGwFrequency,
-} from "@chirpsieve/core";
+import { AU, InputError, JULIAN_YEAR, M_SUN, PARSEC, chirpMass, describeBinary } from "@chirpsieve/core";
+import { frequencyDerivative, timeToCoalescenceFromGwFrequency } from "../../packages/core/src/physics/chirp.js";
+import { MPC } from "../../packages/core/src/physics/constants.js";
+import { strainAmplitude } from "../../packages/core/src/physics/quadrupole.js";
 import { CLI, type CliResult } from "./helpers.js";
 import { registerSource } from "../../packages/cli/src/commands/source.js";
 import { formatDuration, formatLength, formatNumber, parseQuantity } from "../../packages/cli/src/units.js";

@@ -1,6 +1,9 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import kstest from "@stdlib/stats-kstest";
-import { BUILTIN_SITES, analyseCoincidences, interSiteDelay, type CoincidenceCandidate } from "@chirpsieve/core";
+import { analyseCoincidences } from "@chirpsieve/core";
+import { type CoincidenceCandidate } from "../../packages/core/src/coinc/analyseCoincidences.js";
+import { interSiteDelay } from "../../packages/core/src/coinc/interSiteDelay.js";
+import { BUILTIN_SITES } from "../../packages/core/src/coinc/sites.js";
 import { poissonTriggers, siteStream } from "./syntheticTriggers.js";
 
 // Synthetic single-site trigger streams stand in for independent Gaussian noise at two sites:

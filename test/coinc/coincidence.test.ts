@@ -1,12 +1,8 @@
 import { describe, expect, it } from "vitest";
-import {
-  BUILTIN_SITES,
-  InputError,
-  JULIAN_YEAR,
-  analyseCoincidences,
-  interSiteDelay,
-  type CoincidenceCandidate,
-} from "@chirpsieve/core";
+import { InputError, JULIAN_YEAR, analyseCoincidences } from "@chirpsieve/core";
+import { type CoincidenceCandidate } from "../../packages/core/src/coinc/analyseCoincidences.js";
+import { interSiteDelay } from "../../packages/core/src/coinc/interSiteDelay.js";
+import { BUILTIN_SITES } from "../../packages/core/src/coinc/sites.js";
 import { poissonTriggers, siteStream, templateChirpMass } from "./syntheticTriggers.js";
 
 const [A, B, C3] = BUILTIN_SITES.map((s) => s.detector);

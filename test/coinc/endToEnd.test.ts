@@ -1,17 +1,7 @@
 import { describe, expect, it } from "vitest";
-import {
-  BUILTIN_SITES,
-  ajith2011,
-  analyseCoincidences,
-  arraySource,
-  chirpMass,
-  colouredNoise,
-  interSiteDelay,
-  loadFftBackends,
-  searchSource,
-  type SearchOptions,
-  type SearchTemplate,
-} from "@chirpsieve/core";
+import { ajith2011, analyseCoincidences, arraySource, chirpMass, colouredNoise, loadFftBackends, searchSource, type SearchOptions, type SearchTemplate } from "@chirpsieve/core";
+import { interSiteDelay } from "../../packages/core/src/coinc/interSiteDelay.js";
+import { BUILTIN_SITES } from "../../packages/core/src/coinc/sites.js";
 
 // End to end on real search triggers: the single-site search runs on two independent seeded
 // Gaussian noise series (one per invented site, same span), then coincidence and time slides.

@@ -3,25 +3,12 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import {
-  BUILTIN_SITES,
-  C,
-  InputError,
-  SITE_A,
-  SITE_B,
-  detectorFromGeodetic,
-  geocentreDelay,
-  injectionAtSites,
-  interSiteDelay,
-  interSiteDelays,
-  parseSites,
-  readSitesFile,
-  siderealAngle,
-  siteByName,
-  plusCrossResponse,
-  siteCatalogue,
-  type Injection,
-} from "@chirpsieve/core";
+import { InputError, interSiteDelays, siteByName, siteCatalogue, type Injection } from "@chirpsieve/core";
+import { interSiteDelay } from "../../packages/core/src/coinc/interSiteDelay.js";
+import { injectionAtSites } from "../../packages/core/src/coinc/siteResponse.js";
+import { BUILTIN_SITES, parseSites, readSitesFile } from "../../packages/core/src/coinc/sites.js";
+import { C } from "../../packages/core/src/physics/constants.js";
+import { SITE_A, SITE_B, detectorFromGeodetic, geocentreDelay, siderealAngle, plusCrossResponse } from "../../packages/core/src/waveform/antenna.js";
 
 const GOOD = { name: "my-site", degreesNorth: 10, degreesEast: 20, armBearingsDegrees: [0, 90] };
 

@@ -1,6 +1,7 @@
 // Seeded synthetic trigger streams standing in for single-site searches of independent Gaussian noise.
 import seedrandom from "seedrandom";
-import type { CoincidenceCandidate, Detector, SiteTriggers } from "@chirpsieve/core";
+import type { Detector } from "@chirpsieve/core";
+import { type CoincidenceCandidate, type SiteTriggers } from "../../packages/core/src/coinc/analyseCoincidences.js";
 
 export interface StreamOptions {
   seed: string;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import { maxSlidesPerSide, slideOnRing, slideShiftSeconds } from "@chirpsieve/core";
+import { maxSlidesPerSide, slideOnRing, slideShiftSeconds } from "../../packages/core/src/coinc/timeSlides.js";
 
 describe("time slides on a ring", () => {
   it("moves ascending times by a shift modulo the ring, as a rotation (matches shift-then-sort)", () => {

@@ -1,15 +1,8 @@
 import { describe, expect, it } from "vitest";
-import {
-  InputError,
-  availableFftBackends,
-  createComplexFft,
-  createComplexPlan,
-  createRealFft,
-  createRealPlan,
-  loadFftBackends,
-  resolveFftBackend,
-  type FftBackendName,
-} from "@chirpsieve/core";
+import { InputError, createComplexFft, createComplexPlan, loadFftBackends, resolveFftBackend } from "@chirpsieve/core";
+import { availableFftBackends } from "../../packages/core/src/fft/backends.js";
+import { createRealFft, createRealPlan } from "../../packages/core/src/fft/create.js";
+import { type FftBackendName } from "../../packages/core/src/fft/types.js";
 
 // vitest runs each test file in its own module graph, so nothing is loaded when this file starts;
 // the tests below run in order.

@@ -1,5 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { createComplexFft, createRealFft, loadFftBackends, type FftBackendName } from "@chirpsieve/core";
+import { createComplexFft, loadFftBackends } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
+import { type FftBackendName } from "../../packages/core/src/fft/types.js";
 import { maxRelError, naiveDft, powersOfTwo, realToComplex, seededNoise } from "./dftReference.js";
 
 // Tolerances on max|a − b| / max|b|: fft.js computes in double, pffft in single precision. For fft.js

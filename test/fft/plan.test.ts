@@ -1,13 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import {
-  InputError,
-  createComplexFft,
-  createComplexPlan,
-  createRealFft,
-  createRealPlan,
-  loadFftBackends,
-  type FftBackendName,
-} from "@chirpsieve/core";
+import { InputError, createComplexFft, createComplexPlan, loadFftBackends } from "@chirpsieve/core";
+import { createRealFft, createRealPlan } from "../../packages/core/src/fft/create.js";
+import { type FftBackendName } from "../../packages/core/src/fft/types.js";
 import { maxRelError, naiveDft, realToComplex, seededNoise } from "./dftReference.js";
 
 beforeAll(async () => {

@@ -1,7 +1,7 @@
 // The search's unrolled peak finder gives exactly the triggers of the plain definition below.
 import seedrandom from "seedrandom";
 import { describe, expect, it } from "vitest";
-import { findWindowPeaks, type Trigger } from "@chirpsieve/core";
+import { findWindowPeaks, type Trigger } from "../../packages/core/src/filter/peaks.js";
 
 /** The definition, one sample per step: the loudest |z| above threshold in each window (reference). */
 function plainWindowPeaks(z: Float32Array | Float64Array, start: number, end: number, threshold: number, window: number, templateIndex: number, out: Trigger[]): void {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { reweightedSnr } from "@chirpsieve/core";
+import { reweightedSnr } from "../../packages/core/src/filter/reweight.js";
 
 describe("reweighted SNR", () => {
   it("follows Babak et al., Phys. Rev. D 87, 024033 (2013), Eq. 6: unchanged up to χ²/dof = 1, then ρ/[(1 + r³)/2]^{1/6}", () => {

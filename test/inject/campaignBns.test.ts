@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { loadFftBackends, planCampaign, runCampaign, runCampaignBatch, summarizeCampaign } from "@chirpsieve/core";
+import { loadFftBackends, planCampaign, runCampaign, summarizeCampaign } from "@chirpsieve/core";
+import { runCampaignBatch } from "../../packages/core/src/inject/campaign.js";
 import { bnsCampaign } from "./campaignFixtures.js";
 
 beforeAll(async () => {

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import {
-  SITE_A,
-  arrivalTimeAt,
-  evaluateRequirements,
-  matchInjections,
-  parseRequirement,
-  summarizeCampaign,
-  type Candidate,
-  type Injection,
-  type InjectionOutcome,
-} from "@chirpsieve/core";
+import { evaluateRequirements, parseRequirement, summarizeCampaign, type Candidate, type Injection, type InjectionOutcome } from "@chirpsieve/core";
+import { arrivalTimeAt, matchInjections } from "../../packages/core/src/inject/matchInjections.js";
+import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 function injection(t: number): Injection {
   return { primaryMass: 1.4, secondaryMass: 1.4, coalescenceTime: t, distance: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarization: 0.2, phase: 0.7 };

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
 import kstest from "@stdlib/stats-kstest";
-import { InputError, SITE_A, ajith2011, drawInjections, optimalSnr, taylorT4Duration } from "@chirpsieve/core";
+import { InputError, ajith2011, drawInjections, optimalSnr } from "@chirpsieve/core";
+import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
+import { taylorT4Duration } from "../../packages/core/src/waveform/taylorT4Evolution.js";
 
 describe("drawInjections", () => {
   const common = { massRangeSolar: [20, 30] as [number, number], fMinHz: 30, startTime: 1e9, seed: "population-1" };

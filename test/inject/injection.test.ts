@@ -1,17 +1,8 @@
 import { describe, expect, it } from "vitest";
-import {
-  type Injection,
-  InputError,
-  SITE_A,
-  addSegment,
-  checkInjection,
-  geocentreDelay,
-  injectInto,
-  plusCrossResponse,
-  projectInjection,
-  siderealAngle,
-  taylorT4,
-} from "@chirpsieve/core";
+import { type Injection, InputError } from "@chirpsieve/core";
+import { addSegment, checkInjection, injectInto, projectInjection } from "../../packages/core/src/inject/injection.js";
+import { SITE_A, geocentreDelay, plusCrossResponse, siderealAngle } from "../../packages/core/src/waveform/antenna.js";
+import { taylorT4 } from "../../packages/core/src/waveform/taylorT4.js";
 
 const base: Injection = {
   primaryMass: 10,

@@ -2,7 +2,8 @@ import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { type Injection, injectionManifest, parseInjections, readInjectionFile, writeInjectionManifest } from "@chirpsieve/core";
+import { type Injection, injectionManifest, readInjectionFile, writeInjectionManifest } from "@chirpsieve/core";
+import { parseInjections } from "../../packages/core/src/inject/manifest.js";
 
 const one: Injection = {
   primaryMass: 1.4,

@@ -1,18 +1,11 @@
 import { describe, expect, it } from "vitest";
-import {
-  C,
-  G,
-  type Injection,
-  MPC,
-  M_SUN,
-  ajith2011,
-  detectorFromGeodetic,
-  flatPsd,
-  optimalSnr,
-  optimalSnrOfSeries,
-  taylorT4,
-  taylorT4Evolution,
-} from "@chirpsieve/core";
+import { type Injection, M_SUN, ajith2011, optimalSnr } from "@chirpsieve/core";
+import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
+import { flatPsd } from "../../packages/core/src/noise/psdModel.js";
+import { C, G, MPC } from "../../packages/core/src/physics/constants.js";
+import { detectorFromGeodetic } from "../../packages/core/src/waveform/antenna.js";
+import { taylorT4 } from "../../packages/core/src/waveform/taylorT4.js";
+import { taylorT4Evolution } from "../../packages/core/src/waveform/taylorT4Evolution.js";
 
 // A detector with x arm East and y arm North at (0°, 0°): a source at RA = GMST, dec = 0 is overhead,
 // where F+ = cos 2ψ (our convention), so ψ = 0 gives the optimal orientation.

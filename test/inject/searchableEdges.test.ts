@@ -1,6 +1,7 @@
 // Random injections where a scan can search them, and network SNRs for several sites.
 import { describe, expect, it } from "vitest";
-import { SITE_A, SITE_B, ajith2011, drawInjections, optimalSnr, unsearchableEdges } from "@chirpsieve/core";
+import { ajith2011, drawInjections, optimalSnr, unsearchableEdges } from "@chirpsieve/core";
+import { SITE_A, SITE_B } from "../../packages/core/src/waveform/antenna.js";
 
 const C = 299792458; // exact (SI)
 const GM_SUN = 1.3271244e20; // IAU 2015 Resolution B3, nominal solar mass parameter

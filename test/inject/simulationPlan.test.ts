@@ -1,6 +1,7 @@
 // The reproducibility contract of `simulate`, in core: per-site seeds and SNRs, network SNR, run id.
 import { describe, expect, it } from "vitest";
-import { SITE_A, SITE_B, ajith2011, optimalSnr, planSimulationSites, simulateSiteStrain, simulationRunId, type SimulationSettings } from "@chirpsieve/core";
+import { ajith2011, optimalSnr, planSimulationSites, simulateSiteStrain, simulationRunId, type SimulationSettings } from "@chirpsieve/core";
+import { SITE_A, SITE_B } from "../../packages/core/src/waveform/antenna.js";
 import { injectionAt } from "../search/fixtures.js";
 
 const settings: SimulationSettings = { psd: ajith2011, sampleRate: 1024, startTime: 0, duration: 8, fMinHz: 30, seed: "plan", noise: true };

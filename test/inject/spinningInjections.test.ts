@@ -1,17 +1,10 @@
 // Injections with aligned spins: drawn from a stated prior, injected with spinning TaylorT4,
 // recorded in the manifest; a population without spins is drawn exactly as before.
 import { describe, expect, it } from "vitest";
-import {
-  InputError,
-  SITE_A,
-  ajith2011,
-  checkInjection,
-  drawInjections,
-  formatInjectionManifest,
-  injectionManifest,
-  parseInjections,
-  projectInjection,
-} from "@chirpsieve/core";
+import { InputError, ajith2011, drawInjections, injectionManifest } from "@chirpsieve/core";
+import { checkInjection, projectInjection } from "../../packages/core/src/inject/injection.js";
+import { formatInjectionManifest, parseInjections } from "../../packages/core/src/inject/manifest.js";
+import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 const base = { count: 6, massRangeSolar: [5, 15] as [number, number], distanceMpc: [100, 400] as [number, number], seed: "spin", duration: 400, fMinHz: 30 };
 

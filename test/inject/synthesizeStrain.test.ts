@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { type Injection, SITE_A, ajith2011, injectInto, synthesizeStrain } from "@chirpsieve/core";
+import { type Injection, ajith2011 } from "@chirpsieve/core";
+import { injectInto } from "../../packages/core/src/inject/injection.js";
+import { synthesizeStrain } from "../../packages/core/src/inject/synthesizeStrain.js";
+import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 const injections: Injection[] = [
   {

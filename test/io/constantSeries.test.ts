@@ -1,14 +1,7 @@
 import { writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import {
-  checkNotConstant,
-  describeConstantSeries,
-  findConstantSeries,
-  isDimensionlessStrain,
-  openStrain,
-  strainSourceFromSeries,
-  writeStrain,
-} from "@chirpsieve/core";
+import { describeConstantSeries, findConstantSeries, isDimensionlessStrain, openStrain, strainSourceFromSeries, writeStrain } from "@chirpsieve/core";
+import { checkNotConstant } from "../../packages/core/src/io/constantSeries.js";
 import { inputErrorOf, syntheticStrain, useTempDir } from "./tempDir.js";
 
 const tmp = useTempDir("constant");

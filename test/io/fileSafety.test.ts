@@ -3,17 +3,8 @@ import { existsSync, lstatSync, readFileSync, symlinkSync, writeFileSync } from 
 import { hostname } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import {
-  acquireRunLock,
-  commitRecordPath,
-  completePendingFileSets,
-  outputTarget,
-  pathKey,
-  removeStalePartials,
-  writeFileAtomic,
-  writeFileSet,
-  writeFileSynced,
-} from "@chirpsieve/core";
+import { acquireRunLock, completePendingFileSets, outputTarget, pathKey, removeStalePartials, writeFileAtomic, writeFileSet, writeFileSynced } from "@chirpsieve/core";
+import { commitRecordPath } from "../../packages/core/src/io/fileSet.js";
 import { useTempDir } from "./tempDir.js";
 
 const tmp = useTempDir("file-safety");

@@ -132,15 +132,15 @@ describe("HDF5 strain files", () => {
       const msg = await inputErrorOf(readStrain(p, { rateAttribute: "nope", start: 0 }));
       expect(msg).toBe(`${p}: no attribute nope on /s or the file root`);
     });
-    it("what the file lacks comes from --rate/--start; neither names the flag to pass", async () => {
+    it("what the file lacks comes from the rate/start options; the error names the option (parameter) to give", async () => {
       const p = buildH5("bare.h5", [{ name: "s", data: new Float64Array([1, 2, 3]) }]);
       expect(await readStrain(p, { rate: 100, start: 2 })).toMatchObject({ sampleRate: 100, startTime: 2 });
       const noRate = await inputErrorOf(readStrain(p, { start: 2 }));
       expect(noRate).toContain(`${p}: no sample rate in the file`);
-      expect(noRate).toContain("pass --rate <Hz>");
+      expect(noRate).toMatch(/^rate: .*give the sample rate \(Hz\)$/);
       const noStart = await inputErrorOf(readStrain(p, { rate: 100 }));
       expect(noStart).toContain(`${p}: no start time in the file`);
-      expect(noStart).toContain("pass --start <s>");
+      expect(noStart).toMatch(/^start: .*give the start time \(s\)$/);
     });
     it("options that disagree with the file, and attributes that disagree with each other", async () => {
       const p = buildH5("both.h5", [
@@ -184,14 +184,14 @@ describe("HDF5 strain files", () => {
         { name: "b", data: new Float32Array([1]), attrs },
       ]);
       expect(await inputErrorOf(readStrain(p))).toBe(
-        `${p}: several 1-D floating-point datasets (/a, /b); pass --dataset to choose one`,
+        `dataset: ${p}: several 1-D floating-point datasets (/a, /b); name the one to read`,
       );
       expect([...(await readStrain(p, { dataset: "/b" })).data]).toEqual([1]);
     });
     it("no candidate: InputError listing what is there", async () => {
       const p = buildH5("none.h5", [{ name: "counts", data: new Int32Array([1, 2]) }, { name: "image", data: new Float64Array(4), shape: [2, 2] }]);
       expect(await inputErrorOf(readStrain(p))).toBe(
-        `${p}: no 1-D floating-point dataset (datasets: /counts (int32, 2), /image (float64, 2×2)); pass --dataset to choose one`,
+        `dataset: ${p}: no 1-D floating-point dataset (datasets: /counts (int32, 2), /image (float64, 2×2)); name the dataset to read`,
       );
     });
     it("unsupported dtype or shape of a named dataset", async () => {

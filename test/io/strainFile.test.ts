@@ -50,8 +50,8 @@ describe("strain file format and writer checks", () => {
     const p = tmp.path("opts.txt");
     writeFileSync(p, "1\n");
     expect(await inputErrorOf(openStrain(p, { rate: 1, nonFinite: "skip" as never }))).toContain('nonFinite must be "error" or "allow"');
-    expect(await inputErrorOf(openStrain(p, { rate: 1, dataset: "" }))).toContain("--dataset must be a non-empty name");
-    expect(await inputErrorOf(openStrain(p, { rate: 1, dataset: "/strain" }))).toBe(`${p}: --dataset /strain applies only to HDF5 files; this is a text file`);
+    expect(await inputErrorOf(openStrain(p, { rate: 1, dataset: "" }))).toContain("dataset: must be a non-empty name");
+    expect(await inputErrorOf(openStrain(p, { rate: 1, dataset: "/strain" }))).toBe(`dataset: ${p}: a dataset (/strain) applies only to HDF5 files; this is a text file`);
     expect(await inputErrorOf(openStrain("", {}))).toContain("path must be a non-empty string");
     const d = tmp.path("folder.txt");
     mkdirSync(d);

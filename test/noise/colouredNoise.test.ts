@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import { ajith2011, colouredNoise, createNoiseStream, dis2001, flatPsd, welchPsd, type PsdModel } from "@chirpsieve/core";
+import { ajith2011, colouredNoise, createNoiseStream, welchPsd, type PsdModel } from "@chirpsieve/core";
+import { dis2001, flatPsd } from "../../packages/core/src/noise/psdModel.js";
 
 /** ∫_0^{fs/2} g(S_held(f)) df by the midpoint rule on a 0.01 Hz grid; S held at fMin below fMin. */
 function integrateHeld(model: PsdModel, fs: number, g: (s: number) => number): number {

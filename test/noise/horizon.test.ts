@@ -1,5 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, C, FINN_CHERNOFF_RANGE_FACTOR, flatPsd, GM_SUN, horizonDistance, interpolatePsd, MPC } from "@chirpsieve/core";
+import { ajith2011, horizonDistance } from "@chirpsieve/core";
+import { FINN_CHERNOFF_RANGE_FACTOR } from "../../packages/core/src/noise/horizon.js";
+import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
+import { flatPsd } from "../../packages/core/src/noise/psdModel.js";
+import { C, GM_SUN, MPC } from "../../packages/core/src/physics/constants.js";
 
 describe("horizonDistance", () => {
   it("matches the closed form for a flat PSD to 1e-6 (integration accuracy)", () => {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, interpolatePsd, isSampledPsd, sampledPsdModel } from "@chirpsieve/core";
+import { ajith2011 } from "@chirpsieve/core";
+import { interpolatePsd, isSampledPsd, sampledPsdModel } from "../../packages/core/src/noise/interpolatePsd.js";
 
 describe("interpolatePsd and sampledPsdModel", () => {
   const df = 0.25;

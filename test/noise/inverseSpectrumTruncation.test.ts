@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, createRealFft, InputError, truncateInverseSpectrum } from "@chirpsieve/core";
+import { ajith2011, InputError } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
+import { truncateInverseSpectrum } from "../../packages/core/src/noise/inverseSpectrumTruncation.js";
 import { createRealInverseFft } from "../../packages/core/src/noise/realInverseFft.js";
 
 const fs = 4096;

@@ -2,7 +2,8 @@ import { afterAll, describe, expect, it } from "vitest";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { ajith2011, formatPsdTable, InputError, parsePsdTable, psdModelFromSpec, readPsdTable } from "@chirpsieve/core";
+import { ajith2011, formatPsdTable, InputError, psdModelFromSpec } from "@chirpsieve/core";
+import { parsePsdTable, readPsdTable } from "../../packages/core/src/noise/psdTable.js";
 
 const dir = mkdtempSync(join(tmpdir(), "chirpsieve-psdtable-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));

@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, colouredNoise, truncateInverseSpectrum, welchPsd, whiten } from "@chirpsieve/core";
+import { ajith2011, colouredNoise, welchPsd } from "@chirpsieve/core";
+import { truncateInverseSpectrum } from "../../packages/core/src/noise/inverseSpectrumTruncation.js";
+import { whiten } from "../../packages/core/src/noise/whiten.js";
 
 describe("whiten", () => {
   const fs = 4096;

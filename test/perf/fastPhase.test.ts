@@ -1,24 +1,14 @@
 // The search's fast TaylorF2 phase path (piecewise-quadratic recurrences, no per-bin cos/sin)
 // against the exact template of waveform/taylorf2.ts.
 import { describe, expect, it } from "vitest";
-import {
-  ajith2011,
-  allocateSegmentWeights,
-  amplitudeLaw,
-  colouredNoise,
-  computeSegmentSpectrum,
-  createBankFilter,
-  createComplexPlan,
-  createRealFft,
-  createSegmentFilter,
-  createTaylorF2Phasor,
-  DEFAULT_PHASOR_PHASE_ERROR,
-  fillSegmentWeights,
-  interpolatePsd,
-  snrSeries,
-  taylorF2BinRange,
-  taylorF2Into,
-} from "@chirpsieve/core";
+import { ajith2011, colouredNoise, createBankFilter, createComplexPlan, createSegmentFilter } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
+import { computeSegmentSpectrum } from "../../packages/core/src/filter/segmentSpectrum.js";
+import { snrSeries } from "../../packages/core/src/filter/snrSeries.js";
+import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
+import { allocateSegmentWeights, amplitudeLaw, fillSegmentWeights } from "../../packages/core/src/search/segmentWeights.js";
+import { createTaylorF2Phasor, DEFAULT_PHASOR_PHASE_ERROR } from "../../packages/core/src/search/taylorF2Phasor.js";
+import { taylorF2BinRange, taylorF2Into } from "../../packages/core/src/waveform/taylorf2.js";
 import { taylorF2Chirp } from "../search/fixtures.js";
 
 /**

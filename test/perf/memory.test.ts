@@ -3,7 +3,8 @@
 // scanned within a fixed RSS bound, not far above the peak of a 10-minute scan.
 import seedrandom from "seedrandom";
 import { beforeAll, describe, expect, it } from "vitest";
-import { flatPsd, loadFftBackends, searchSource, type SearchInput, type SearchOptions } from "@chirpsieve/core";
+import { loadFftBackends, searchSource, type SearchInput, type SearchOptions } from "@chirpsieve/core";
+import { flatPsd } from "../../packages/core/src/noise/psdModel.js";
 
 const FS = 4096;
 const BLOCK = 1 << 16;

@@ -5,19 +5,9 @@ import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
-import {
-  ajith2011,
-  arraySource,
-  createBankFilter,
-  createSearchPool,
-  createSegmentFilter,
-  loadFftBackends,
-  searchSource,
-  searchWorkerUrl,
-  type Candidate,
-  type SearchOptions,
-  type Trigger,
-} from "@chirpsieve/core";
+import { ajith2011, arraySource, createBankFilter, createSegmentFilter, loadFftBackends, searchSource, type Candidate, type SearchOptions } from "@chirpsieve/core";
+import { type Trigger } from "../../packages/core/src/filter/peaks.js";
+import { createSearchPool, searchWorkerUrl } from "../../packages/core/src/search/workerPool.js";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData } from "../search/fixtures.js";
 
 const FS = 2048;

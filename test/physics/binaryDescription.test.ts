@@ -1,17 +1,8 @@
 import { describe, expect, it } from "vitest";
-import {
-  AU,
-  InputError,
-  M_SUN,
-  PARSEC,
-  chirpMass,
-  describeBinary,
-  describeChirp,
-  frequencyDerivative,
-  iscoSeparation,
-  strainAmplitude,
-  timeToCoalescenceFromGwFrequency,
-} from "@chirpsieve/core";
+import { AU, InputError, M_SUN, PARSEC, chirpMass, describeBinary, describeChirp } from "@chirpsieve/core";
+import { frequencyDerivative, timeToCoalescenceFromGwFrequency } from "../../packages/core/src/physics/chirp.js";
+import { iscoSeparation } from "../../packages/core/src/physics/isco.js";
+import { strainAmplitude } from "../../packages/core/src/physics/quadrupole.js";
 
 describe("describeBinary", () => {
   it("gives the same orbit from separation, GW frequency or orbital period", () => {

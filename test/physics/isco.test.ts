@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { C, G, InputError, M_SUN, gwFrequencyFromSeparation, iscoGwFrequency, iscoSeparation } from "@chirpsieve/core";
+import { InputError, M_SUN } from "@chirpsieve/core";
+import { C, G } from "../../packages/core/src/physics/constants.js";
+import { iscoGwFrequency, iscoSeparation } from "../../packages/core/src/physics/isco.js";
+import { gwFrequencyFromSeparation } from "../../packages/core/src/physics/kepler.js";
 
 describe("ISCO of the total mass", () => {
   it("r = 6GM/c² and f_gw(ISCO) is the Kepler GW frequency there", () => {

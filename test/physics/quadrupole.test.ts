@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { C, G, InputError, MPC, M_SUN, chirpMass, strainAmplitude, strainPolarizations } from "@chirpsieve/core";
+import { InputError, M_SUN, chirpMass } from "@chirpsieve/core";
+import { C, G, MPC } from "../../packages/core/src/physics/constants.js";
+import { strainAmplitude, strainPolarizations } from "../../packages/core/src/physics/quadrupole.js";
 
 describe("quadrupole strain amplitude", () => {
   it("h0 = 4 (G Mc)^{5/3} (π f)^{2/3} / (c⁴ D) and scales as Mc^{5/3} f^{2/3} / D", () => {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, arraySource, optimalSnrOfSeries, searchSource } from "@chirpsieve/core";
+import { ajith2011, arraySource, searchSource } from "@chirpsieve/core";
+import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
 import { injectionAt, simulatedData } from "../search/fixtures.js";
 
 /**

@@ -2,21 +2,11 @@
 // the event-rate bound and two-dimensional scaling (Owen, Phys. Rev. D 53, 6749 (1996)).
 import { describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import {
-  ajith2011,
-  buildBank,
-  buildBankWithReport,
-  chirpTimesFromComponents,
-  chooseMatchGrid,
-  componentsFromMassEta,
-  createChirpTimeMetric,
-  createMatchComputer,
-  createTaylorF2Generator,
-  iscoFrequencyHz,
-  massEtaFromChirpTimes,
-  metricDistanceSquared,
-  verifyBank,
-} from "@chirpsieve/core";
+import { ajith2011, buildBank, buildBankWithReport, verifyBank } from "@chirpsieve/core";
+import { chirpTimesFromComponents, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "../../packages/core/src/bank/chirpTimeCoordinates.js";
+import { chooseMatchGrid, createMatchComputer } from "../../packages/core/src/bank/match.js";
+import { createChirpTimeMetric, metricDistanceSquared } from "../../packages/core/src/bank/metric.js";
+import { createTaylorF2Generator } from "../../packages/core/src/waveform/taylorf2.js";
 
 /** Pairs (template, template + Δ) along seeded random directions, at predicted mismatches `levels`. */
 function metricVersusDirect(points: [number, number, number][], levels: number[], seed: string) {

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { createComplexFft, createComplexPlan, createRealFft, loadFftBackends } from "@chirpsieve/core";
+import { createComplexFft, createComplexPlan, loadFftBackends } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
 import { maxRelError, powersOfTwo, seededNoise } from "../fft/dftReference.js";
 
 // Second opinion: pffft vs fft.js, two independent FFT libraries (PFFFT by J. Pommier, an FFTPACK

@@ -1,5 +1,8 @@
 import { describe, expect, it } from "vitest";
-import { T_SUN, chirpTimes, gwCycleCounts, massesFromChirpTimes, orbitalPhaseCoefficients } from "@chirpsieve/core";
+import { T_SUN } from "../../packages/core/src/physics/constants.js";
+import { chirpTimes, massesFromChirpTimes } from "../../packages/core/src/waveform/chirpTimes.js";
+import { gwCycleCounts } from "../../packages/core/src/waveform/cycles.js";
+import { orbitalPhaseCoefficients } from "../../packages/core/src/waveform/pnCoefficients.js";
 import { energyDerivativeSeries, fluxSeries, seriesQuotient } from "../waveform/pnSeries.js";
 
 // Outside checks of the PN phasing behind TaylorF2: cycle counts and chirp times.

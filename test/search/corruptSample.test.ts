@@ -2,7 +2,8 @@
 // overflowing the single-precision FFT and silently losing every candidate of the segment.
 import { beforeAll, describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import { InputError, ajith2011, arraySource, firstCorruptSample, loadFftBackends, searchSource } from "@chirpsieve/core";
+import { InputError, ajith2011, arraySource, loadFftBackends, searchSource } from "@chirpsieve/core";
+import { firstCorruptSample } from "../../packages/core/src/search/corruptSample.js";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch } from "./fixtures.js";
 
 const FS = 2048;

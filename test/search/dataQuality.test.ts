@@ -1,17 +1,11 @@
 // Screening, interval planning, stream joining and interval files: each on a small fixture.
 import { describe, expect, it } from "vitest";
-import {
-  InputError,
-  MIN_CONSTANT_RUN,
-  arraySource,
-  continues,
-  intervalSamples,
-  joinContiguousInputs,
-  parseIntervals,
-  planSegments,
-  planStream,
-  screenInput,
-} from "@chirpsieve/core";
+import { InputError, arraySource, joinContiguousInputs } from "@chirpsieve/core";
+import { parseIntervals } from "../../packages/core/src/io/intervalFile.js";
+import { MIN_CONSTANT_RUN, screenInput } from "../../packages/core/src/search/dataQuality.js";
+import { continues } from "../../packages/core/src/search/joinedInput.js";
+import { planSegments } from "../../packages/core/src/search/segmentPlan.js";
+import { intervalSamples, planStream } from "../../packages/core/src/search/streamPlan.js";
 import seedrandom from "seedrandom";
 
 function noise(n: number, seed: string): Float64Array {

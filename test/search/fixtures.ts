@@ -1,18 +1,8 @@
 // Shared set-up for search tests: seeded noise with TaylorT4 injections, and a plain template grid.
-import {
-  SITE_A,
-  createComplexFft,
-  geocentreDelay,
-  taylorF2Into,
-  colouredNoise,
-  injectInto,
-  optimalSnr,
-  siderealAngle,
-  type Injection,
-  type PsdModel,
-  type SearchOptions,
-  type SearchTemplate,
-} from "@chirpsieve/core";
+import { createComplexFft, colouredNoise, optimalSnr, type Injection, type PsdModel, type SearchOptions, type SearchTemplate } from "@chirpsieve/core";
+import { injectInto } from "../../packages/core/src/inject/injection.js";
+import { SITE_A, geocentreDelay, siderealAngle } from "../../packages/core/src/waveform/antenna.js";
+import { taylorF2Into } from "../../packages/core/src/waveform/taylorf2.js";
 
 /** An injection with fixed angles (overhead-ish, face-on) at 100 Mpc; distance set later by SNR. */
 export function injectionAt(m1: number, m2: number, coalescenceTime: number, extra: Partial<Injection> = {}): Injection {

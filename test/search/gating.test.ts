@@ -1,16 +1,9 @@
 // Gating of loud transients in whitened data (noise/gating.ts).
 import { beforeAll, describe, expect, it } from "vitest";
-import {
-  DEFAULT_GATE_SETTINGS,
-  ajith2011,
-  arraySource,
-  colouredNoise,
-  createGater,
-  interpolatePsd,
-  loadFftBackends,
-  optimalSnrOfSeries,
-  searchSource,
-} from "@chirpsieve/core";
+import { DEFAULT_GATE_SETTINGS, ajith2011, arraySource, colouredNoise, loadFftBackends, searchSource } from "@chirpsieve/core";
+import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
+import { createGater } from "../../packages/core/src/noise/gating.js";
+import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
 import { chirpMassGrid, standardSearch } from "./fixtures.js";
 
 const FS = 2048;

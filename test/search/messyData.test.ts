@@ -3,16 +3,8 @@
 // both chirps as it does in clean data, raise nothing loud at the defects, and lose only the bad
 // stretches plus the filter lengths they force.
 import { beforeAll, describe, expect, it } from "vitest";
-import {
-  ajith2011,
-  arraySource,
-  joinContiguousInputs,
-  loadFftBackends,
-  optimalSnrOfSeries,
-  searchSource,
-  type Candidate,
-  type SearchOptions,
-} from "@chirpsieve/core";
+import { ajith2011, arraySource, joinContiguousInputs, loadFftBackends, searchSource, type Candidate, type SearchOptions } from "@chirpsieve/core";
+import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
 import { arrivalTime, atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch } from "./fixtures.js";
 
 const FS = 2048;

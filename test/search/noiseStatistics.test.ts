@@ -1,19 +1,14 @@
 import { describe, expect, it } from "vitest";
 import kstest from "@stdlib/stats-kstest";
 import chisquareCdf from "@stdlib/stats-base-dists-chisquare-cdf";
-import {
-  ajith2011,
-  chiSquared,
-  colouredNoise,
-  computeSegmentSpectrum,
-  createComplexPlan,
-  createRealFft,
-  createTaylorF2Generator,
-  flatPsd,
-  interpolatePsd,
-  snrSeries,
-  type PsdModel,
-} from "@chirpsieve/core";
+import { ajith2011, colouredNoise, createComplexPlan, type PsdModel } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
+import { chiSquared } from "../../packages/core/src/filter/chisq.js";
+import { computeSegmentSpectrum } from "../../packages/core/src/filter/segmentSpectrum.js";
+import { snrSeries } from "../../packages/core/src/filter/snrSeries.js";
+import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
+import { flatPsd } from "../../packages/core/src/noise/psdModel.js";
+import { createTaylorF2Generator } from "../../packages/core/src/waveform/taylorf2.js";
 
 /**
  * Filters seeded stationary Gaussian noise with a few templates (PSD known exactly) and returns

@@ -2,7 +2,9 @@
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, colouredNoise, injectInto, SITE_A, writeStrain } from "@chirpsieve/core";
+import { ajith2011, colouredNoise, writeStrain } from "@chirpsieve/core";
+import { injectInto } from "../../packages/core/src/inject/injection.js";
+import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 import { runCli } from "../cli/helpers.js";
 import { injectionAt } from "../search/fixtures.js";
 import { tempDir } from "./fixtures.js";

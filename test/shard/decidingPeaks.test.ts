@@ -1,6 +1,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { clusterByTime, decidingPeaks, type SegmentPeak } from "@chirpsieve/core";
+import { decidingPeaks } from "../../packages/core/src/run/shardRecord.js";
+import { clusterByTime } from "../../packages/core/src/search/cluster.js";
+import { type SegmentPeak } from "../../packages/core/src/search/segmentHook.js";
 
 /** The per-segment clustering as searchSource runs it: peaks in (template, sample) order. */
 function cluster(peaks: readonly SegmentPeak[], w: number): SegmentPeak[] {

@@ -1,17 +1,8 @@
 import { appendFileSync, existsSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import {
-  InputError,
-  loadFftBackends,
-  mergeShards,
-  readScanJournal,
-  searchSource,
-  startScanRun,
-  type Candidate,
-  type SearchOptions,
-  type ShardSpec,
-} from "@chirpsieve/core";
+import { InputError, loadFftBackends, mergeShards, searchSource, startScanRun, type Candidate, type SearchOptions, type ShardSpec } from "@chirpsieve/core";
+import { readScanJournal } from "../../packages/core/src/run/scanJournal.js";
 import { expectHookWired, RUN_ARGUMENTS, runOptions, runShard, syntheticInputs, tempDir, unshardedCandidates, VERSION } from "./fixtures.js";
 
 const dir = tempDir("resume");

@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { coveredSegments, shardWork, type ShardBy } from "@chirpsieve/core";
+import { type ShardBy } from "@chirpsieve/core";
+import { coveredSegments, shardWork } from "../../packages/core/src/run/shardWork.js";
 
 const BYS: ShardBy[] = ["templates", "time", "both"];
 

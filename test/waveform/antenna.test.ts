@@ -1,16 +1,7 @@
 import { describe, expect, it } from "vitest";
-import {
-  C,
-  EARTH_ROTATION_RATE,
-  InputError,
-  SITE_A,
-  SITE_B,
-  detectorByName,
-  detectorFromGeodetic,
-  geocentreDelay,
-  plusCrossResponse,
-  siderealAngle,
-} from "@chirpsieve/core";
+import { InputError, detectorByName } from "@chirpsieve/core";
+import { C } from "../../packages/core/src/physics/constants.js";
+import { EARTH_ROTATION_RATE, SITE_A, SITE_B, detectorFromGeodetic, geocentreDelay, plusCrossResponse, siderealAngle } from "../../packages/core/src/waveform/antenna.js";
 
 const dot = (a: readonly number[], b: readonly number[]): number => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 

@@ -1,19 +1,10 @@
 import { describe, expect, it } from "vitest";
-import {
-  C,
-  G,
-  InputError,
-  M_SUN,
-  MPC,
-  T_SUN,
-  gwCycleCounts,
-  pnTimeToCoalescence,
-  taylorT4,
-  taylorT4Coefficients,
-  taylorT4Cycles,
-  taylorT4Duration,
-  taylorT4Evolution,
-} from "@chirpsieve/core";
+import { InputError, M_SUN } from "@chirpsieve/core";
+import { C, G, MPC, T_SUN } from "../../packages/core/src/physics/constants.js";
+import { pnTimeToCoalescence } from "../../packages/core/src/waveform/chirpTimes.js";
+import { gwCycleCounts } from "../../packages/core/src/waveform/cycles.js";
+import { taylorT4 } from "../../packages/core/src/waveform/taylorT4.js";
+import { taylorT4Coefficients, taylorT4Cycles, taylorT4Duration, taylorT4Evolution } from "../../packages/core/src/waveform/taylorT4Evolution.js";
 
 import { energyDerivativeSeries, fluxSeries, seriesQuotient } from "./pnSeries.js";
 

@@ -1,18 +1,13 @@
 // Aligned-spin TaylorT4 against aligned-spin TaylorF2: the FFT of the time-domain inspiral filtered
 // with the frequency-domain template, maximised over time and phase.
 import { describe, expect, it } from "vitest";
-import {
-  ajith2011,
-  createComplexFft,
-  createRealFft,
-  interpolatePsd,
-  stationaryPhaseCycles,
-  taylorF2BinRange,
-  taylorF2Into,
-  taylorT4,
-  taylorT4Cycles,
-  taylorT4Evolution,
-} from "@chirpsieve/core";
+import { ajith2011, createComplexFft } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
+import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
+import { stationaryPhaseCycles } from "../../packages/core/src/waveform/cycles.js";
+import { taylorT4 } from "../../packages/core/src/waveform/taylorT4.js";
+import { taylorT4Cycles, taylorT4Evolution } from "../../packages/core/src/waveform/taylorT4Evolution.js";
+import { taylorF2BinRange, taylorF2Into } from "../../packages/core/src/waveform/taylorf2.js";
 
 /**
  * Overlap max_{t,φ} |(h_T4 | h_F2 e^{−2πift})| / sqrt((h_T4|h_T4)(h_F2|h_F2)) in the ajith2011 noise

@@ -1,21 +1,10 @@
 import { describe, expect, it } from "vitest";
-import {
-  C,
-  EULER_GAMMA,
-  InputError,
-  MPC,
-  T_SUN,
-  chirpTimes,
-  createTaylorF2Generator,
-  gwCycleCounts,
-  massesFromChirpTimes,
-  orbitalPhaseCoefficients,
-  pnTimeToCoalescence,
-  taylorF2BinRange,
-  taylorF2Into,
-  taylorF2Phase,
-  taylorF2PhaseCoefficients,
-} from "@chirpsieve/core";
+import { InputError } from "@chirpsieve/core";
+import { C, MPC, T_SUN } from "../../packages/core/src/physics/constants.js";
+import { chirpTimes, massesFromChirpTimes, pnTimeToCoalescence } from "../../packages/core/src/waveform/chirpTimes.js";
+import { gwCycleCounts } from "../../packages/core/src/waveform/cycles.js";
+import { EULER_GAMMA, orbitalPhaseCoefficients, taylorF2PhaseCoefficients } from "../../packages/core/src/waveform/pnCoefficients.js";
+import { createTaylorF2Generator, taylorF2BinRange, taylorF2Into, taylorF2Phase } from "../../packages/core/src/waveform/taylorf2.js";
 
 const fIsco = (mSolar: number) => 1 / (Math.pow(6, 1.5) * Math.PI * mSolar * T_SUN); // common practice
 

@@ -1,14 +1,8 @@
 import { describe, expect, it } from "vitest";
-import {
-  C,
-  MPC,
-  T_SUN,
-  ajith2011,
-  createComplexFft,
-  createRealFft,
-  taylorF2Into,
-  taylorF2BinRange,
-} from "@chirpsieve/core";
+import { ajith2011, createComplexFft } from "@chirpsieve/core";
+import { createRealFft } from "../../packages/core/src/fft/create.js";
+import { C, MPC, T_SUN } from "../../packages/core/src/physics/constants.js";
+import { taylorF2Into, taylorF2BinRange } from "../../packages/core/src/waveform/taylorf2.js";
 
 // The stationary-phase template against the FFT of a time-domain Newtonian chirp built here
 // independently of the library. This pins the project's sign convention: an FFT of a chirp that

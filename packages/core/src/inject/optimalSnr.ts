@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import { createRealFft } from "../fft/index.js";
+import { createRealFft } from "../fft/create.js";
 import type { Detector } from "../waveform/antenna.js";
 import { type Injection, projectInjection } from "./injection.js";
 

@@ -1,5 +1,6 @@
 import { InputError } from "../errors.js";
-import { createRealFft, type RealFft } from "../fft/index.js";
+import { createRealFft } from "../fft/create.js";
+import type { RealFft } from "../fft/types.js";
 import { createRealInverseFft, type RealInverseFft } from "./realInverseFft.js";
 
 /**

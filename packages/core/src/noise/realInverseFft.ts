@@ -1,5 +1,5 @@
-import { createComplexFft } from "../fft/index.js";
-import type { ComplexFft } from "../fft/index.js";
+import { createComplexFft } from "../fft/create.js";
+import type { ComplexFft } from "../fft/types.js";
 
 /**
  * Inverse of a real-input FFT of (even, power-of-two) size N, unnormalised like the complex

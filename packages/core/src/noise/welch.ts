@@ -1,6 +1,7 @@
 import ndarray from "ndarray";
 import { InputError } from "../errors.js";
-import { createRealFft, resolveFftBackend } from "../fft/index.js";
+import { createRealFft } from "../fft/create.js";
+import { resolveFftBackend } from "../fft/backends.js";
 import type { SampledPsd } from "./interpolatePsd.js";
 
 /** How the periodograms of the segments are combined. */

@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import { createRealFft } from "../fft/index.js";
+import { createRealFft } from "../fft/create.js";
 import { asPsdModel, isSampledPsd, type PsdInput } from "./interpolatePsd.js";
 import { createRealInverseFft } from "./realInverseFft.js";
 

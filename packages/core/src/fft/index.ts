@@ -1,3 +1,0 @@
-export * from "./types.js";
-export * from "./create.js";
-export * from "./backends.js";
