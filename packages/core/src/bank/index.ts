@@ -14,3 +14,8 @@ export * from "./templateIndex.js";
 export * from "./verify.js";
 export * from "./scanCost.js";
 export * from "./sweep.js";
+export * from "./spinMetric.js";
+export * from "./bccLattice.js";
+export * from "./spinPlacement.js";
+export * from "./spinBank.js";
+export * from "./verifySpins.js";

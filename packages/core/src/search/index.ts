@@ -23,3 +23,4 @@ export * from "./shardRun.js";
 export * from "./mergeSegments.js";
 export * from "./mergeShards.js";
 export * from "./journal.js";
+export * from "./templateSpins.js";
