@@ -11,7 +11,8 @@ import type { BankGenerator, Template, TemplateBank } from "./templateBank.js";
  *    "massRatioCap", "fmax", "spinRange": [min, max], "generator": {"tool", "version", "arguments"},
  *    "templates": [{"primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"[, "primarySpin", "secondarySpin"]}, ...]}
  * Masses in solar masses, frequencies in Hz, chirp times (non-spinning) in seconds from fmin, spins
- * dimensionless along the orbital angular momentum (written only for spinning templates). One template per line.
+ * dimensionless along the orbital angular momentum (written for every template of a bank with a
+ * spinRange, and for any template with a non-zero spin). One template per line.
  */
 export function formatBankFile(bank: TemplateBank): string {
   const head: Record<string, unknown> = {
@@ -27,7 +28,7 @@ export function formatBankFile(bank: TemplateBank): string {
   if (bank.generator) head.generator = bank.generator;
   const lines = Object.entries(head).map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
   const rows = bank.templates.map((t) => {
-    const spins = t.primarySpin || t.secondarySpin ? `, "primarySpin": ${t.primarySpin ?? 0}, "secondarySpin": ${t.secondarySpin ?? 0}` : "";
+    const spins = bank.spinRange !== undefined || t.primarySpin || t.secondarySpin ? `, "primarySpin": ${t.primarySpin ?? 0}, "secondarySpin": ${t.secondarySpin ?? 0}` : "";
     return `    {"primaryMass": ${t.primaryMass}, "secondaryMass": ${t.secondaryMass}, "chirpMass": ${t.chirpMass}, "tau0": ${t.tau0}, "tau3": ${t.tau3}${spins}}`;
   });
   return `{\n${lines.join(",\n")},\n  "templates": [\n${rows.join(",\n")}\n  ]\n}\n`;
