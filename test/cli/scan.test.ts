@@ -48,7 +48,7 @@ describe("chirpsieve scan", () => {
     const r = runCli(["scan", file, ...base, "--out", out]);
     expect(r.code).toBe(0);
     const csv = readFileSync(out, "utf8").trim().split("\n");
-    expect(csv[0]).toBe("coalescenceTime,snr,reweightedSnr,chi2,chi2Dof,phase,chirpMass,primaryMass,secondaryMass,effectiveDistanceMpc,templateIndex,file");
+    expect(csv[0]).toBe("coalescenceTime,snr,reweightedSnr,chi2,chi2Dof,phase,chirpMass,primaryMass,secondaryMass,primarySpin,secondarySpin,effectiveSpin,effectiveDistanceMpc,templateIndex,file");
     expect(csv.length).toBeGreaterThan(1);
     expect(readdirSync(dir).filter((f) => f.includes(".partial"))).toEqual([]);
     const t = runCli(["scan", file, ...base, "--format", "table"]);

@@ -50,6 +50,9 @@ export function candidateRecord(c: Candidate): Record<string, unknown> {
     chirpMass: round(c.chirpMass, 5),
     primaryMass: round(c.primaryMass, 5),
     secondaryMass: round(c.secondaryMass, 5),
+    primarySpin: round(c.primarySpin ?? 0, 5),
+    secondarySpin: round(c.secondarySpin ?? 0, 5),
+    effectiveSpin: round(c.effectiveSpin ?? 0, 5),
     effectiveDistanceMpc: round(c.effectiveDistanceMpc, 3),
     templateIndex: c.templateIndex,
     file: c.file,
@@ -64,7 +67,7 @@ function round(x: number, digits: number): number {
 
 const CSV_FIELDS = [
   "coalescenceTime", "snr", "reweightedSnr", "chi2", "chi2Dof", "phase", "chirpMass",
-  "primaryMass", "secondaryMass", "effectiveDistanceMpc", "templateIndex", "file",
+  "primaryMass", "secondaryMass", "primarySpin", "secondarySpin", "effectiveSpin", "effectiveDistanceMpc", "templateIndex", "file",
 ] as const;
 
 /**
@@ -100,7 +103,9 @@ export function csvSummaryTrailer(summary: Record<string, unknown>): string {
 
 /** A table for people, loudest (reweighted) first, with the summary and the caution under it. */
 export function formatCandidatesTable(candidates: Candidate[], summary: Record<string, unknown>): string {
-  const head = ["coalescence time (s)", "SNR", "rw SNR", "chi2/dof", "chirp mass", "m1", "m2", "D_eff (Mpc)", "file"];
+  // Spins get columns when some template spins (an aligned-spin bank); χ_eff = (m1 χ1 + m2 χ2)/(m1 + m2).
+  const spinning = candidates.some((c) => (c.primarySpin ?? 0) !== 0 || (c.secondarySpin ?? 0) !== 0);
+  const head = ["coalescence time (s)", "SNR", "rw SNR", "chi2/dof", "chirp mass", "m1", "m2", ...(spinning ? ["χ1", "χ2", "χ_eff"] : []), "D_eff (Mpc)", "file"];
   const sorted = [...candidates].sort((a, b) => b.reweightedSnr - a.reweightedSnr);
   const rows = sorted.map((c) => [
     c.coalescenceTime.toFixed(4),
@@ -110,6 +115,7 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
     c.chirpMass.toFixed(4),
     c.primaryMass.toFixed(3),
     c.secondaryMass.toFixed(3),
+    ...(spinning ? [(c.primarySpin ?? 0).toFixed(3), (c.secondarySpin ?? 0).toFixed(3), (c.effectiveSpin ?? 0).toFixed(3)] : []),
     Number.isNaN(c.effectiveDistanceMpc) ? "—" : c.effectiveDistanceMpc.toFixed(1),
     c.file,
   ]);

@@ -3,6 +3,7 @@
 import type { Command } from "commander";
 import {
   buildBank,
+  buildSpinBank,
   DEFAULT_GATE_SETTINGS,
   type GateSettings,
   maxSearchThreads,
@@ -122,13 +123,14 @@ function capThreads(threads: number): number {
  * brings its own fmin, used unless --fmin was typed (a typed --fmin that differs gets a note on
  * stderr: the bank's coverage was verified from its own fmin); otherwise a lattice bank is built
  * over the mass range at --match-floor, placed in --bank-noise-curve, else --noise-curve, else
- * ajith2011, from --fmin.
+ * ajith2011, from --fmin; with a spin range (scan's --spin-range) over the masses and aligned spins.
  */
 export function resolveTemplates(
   flags: SearchFlags,
   massRangeSolar: [number, number] | undefined,
   fMinHz: number,
   fMinTyped: boolean,
+  spinRange?: [number, number],
 ): { templates: SearchTemplate[]; description: string; fMinHz: number } {
   if (flags.bank) {
     const bank = readBankFile(flags.bank);
@@ -141,12 +143,16 @@ export function resolveTemplates(
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
   const placementCurve = flags.bankNoiseCurve || flags.noiseCurve || "ajith2011";
   const bank = withBankFlagErrors(
-    () => buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) }),
+    () =>
+      spinRange
+        ? buildSpinBank({ massRangeSolar, spinRange, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) })
+        : buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) }),
     "narrow it, raise --fmin or lower --match-floor (or build a bank with `chirpsieve bank` and pass --bank)",
   );
+  const spins = spinRange ? `, aligned spins ${spinRange[0]} to ${spinRange[1]}` : "";
   return {
     templates: bank.templates,
-    description: `built: ${massRangeSolar.join(":")} M_sun, minimal match ${matchFloor}, placed in ${placementCurve}`,
+    description: `built: ${massRangeSolar.join(":")} M_sun${spins}, minimal match ${matchFloor}, placed in ${placementCurve}`,
     fMinHz,
   };
 }

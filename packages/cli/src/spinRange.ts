@@ -6,6 +6,11 @@ export const SPIN_RANGE_HELP =
   "is drawn uniformly and independently in [MIN, MAX], −1 < MIN ≤ MAX < 1 (default: no spin); " +
   "write a negative MIN as --spin-range=-0.5:0.5";
 
+/** Help of `--spin-range` on `bank`, `bank sweep` and `scan`. */
+export const BANK_SPIN_RANGE_HELP =
+  "aligned spins of the templates: a bank over masses and spins whose templates carry equal spins χ1 = χ2 in [MIN, MAX], " +
+  "meant for binaries whose two spins each lie in the range, −1 < MIN < MAX < 1 (write a negative MIN as --spin-range=-0.5:0.5)";
+
 /** `--spin-range -0.5:0.9` → [−0.5, 0.9], each strictly inside (−1, 1), MIN ≤ MAX. */
 export function parseSpinRangeFlag(flag: string, text: string): [number, number] {
   const parts = String(text).split(":");

@@ -1,6 +1,9 @@
 import type { Command } from "commander";
 import {
   buildBankWithReport,
+  buildSpinBankWithReport,
+  verifyBankWithSpins,
+  type SpinBankReport,
   DEFAULT_TEMPLATE_CAP,
   checkBankOptions,
   parseMatchFloorRange,
@@ -23,6 +26,9 @@ import { checkFilePlan, noiseCurveInput } from "../outputPath.js";
 import { parseChoiceFlag, parseNumberFlag, parseRangeFlag } from "../options.js";
 import { VERSION } from "../version.js";
 import { checkInspiralEdge, warnInspiralEdge } from "../inspiralEdge.js";
+import { BANK_SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
+
+
 
 /** What a user of `bank` can change when the bank would exceed --template-cap. */
 const LIMIT_REMEDY = "narrow it, raise --fmin, lower --match-floor or raise --template-cap";
@@ -35,6 +41,8 @@ interface RegionFlags {
   massRatioCap?: string;
   fmax?: string;
   templateCap: string;
+  spinRange?: string;
+  placement: string;
 }
 
 interface BuildFlags extends RegionFlags {
@@ -45,6 +53,7 @@ interface BuildFlags extends RegionFlags {
 }
 
 interface VerifyFlags {
+  spinRange?: string;
   draws: string;
   signal: string;
   drawSpace: string;
@@ -92,7 +101,9 @@ export function registerBank(program: Command): void {
         "--template-cap <n>",
         "refuse, before placing anything, a bank estimated to need more templates than this",
         String(DEFAULT_TEMPLATE_CAP),
-      );
+      )
+      .option("--spin-range <min:max>", BANK_SPIN_RANGE_HELP)
+      .option("--placement <kind>", "with --spin-range: lattice (A3* lattices per slab of τ0, the boundary filled stochastically; measured to need 1–2% fewer templates) or stochastic", "lattice");
 
   withRegion(
     bank
@@ -109,7 +120,12 @@ export function registerBank(program: Command): void {
     .command("verify")
     .description("Fitting factors of random signals against a bank: the fraction reaching its minimal match, percentiles, rate loss, worst points.")
     .argument("<bank-file>", "bank file written by `chirpsieve bank build`")
-    .option("--draws <n>", "number of random signals", "1000");
+    .option("--draws <n>", "number of random signals", "1000")
+    .option(
+      "--spin-range <min:max>",
+      "draw signals with aligned spins, each body's spin uniform and independent in [MIN, MAX] (default: the bank's spin range, or none); " +
+        "shows what a non-spinning bank loses for spinning signals",
+    );
   withDraws(verify)
     .option("--json", "print the report as JSON")
     .option("--require <fraction>", "exit with code 1 when fewer than this fraction of draws reach the minimal match")
@@ -144,6 +160,8 @@ interface RegionSettings {
   massRatioCap?: number;
   fmaxHz?: number;
   templateCap: number;
+  spinRange?: [number, number];
+  placement: "stochastic" | "lattice";
 }
 
 /** Parses and checks the region flags; every error names its flag. */
@@ -165,7 +183,12 @@ function parseRegion(flags: RegionFlags): RegionSettings {
     throw new UsageError(`--fmin: ${fminHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
   }
   const templateCap = parseNumberFlag("--template-cap", flags.templateCap, { min: 1, integer: true });
-  const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, totalMassCapSolar, massRatioCap, fmaxHz, templateCap };
+  const spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
+  if (spinRange && !(spinRange[0] < spinRange[1])) {
+    throw new UsageError(`--spin-range: a bank needs MIN below MAX (got "${flags.spinRange}")`);
+  }
+  const placement = parseChoiceFlag("--placement", flags.placement, ["stochastic", "lattice"] as const);
+  const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, totalMassCapSolar, massRatioCap, fmaxHz, templateCap, spinRange, placement };
   // The band rules (core's MIN_ISCO_OVER_FMIN, MIN_FMAX_OVER_FMIN) checked here, before any work, with the flag named.
   withBankFlagErrors(() => checkBankOptions(settings), LIMIT_REMEDY);
   return settings;
@@ -188,6 +211,22 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
     inputs: noiseCurveInput("--noise-curve", flags.noiseCurve),
     outputs: [{ flag: "--out", path: flags.out }, ...(flags.plot ? [{ flag: "--plot", path: flags.plot }] : [])],
   });
+  if (region.spinRange) {
+    const spinRange = region.spinRange;
+    const { bank, report } = withBankFlagErrors(() => buildSpinBankWithReport({ ...region, spinRange, matchFloor }), LIMIT_REMEDY);
+    bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
+    writeBankFile(flags.out, bank);
+    const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fminHz);
+    warnInspiralEdge(inspiralEdge);
+    if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
+    if (flags.json) {
+      process.stdout.write(JSON.stringify({ file: flags.out, spinRange, ...report, inspiralEdge }) + "\n");
+      return;
+    }
+    process.stdout.write(spinBuildSummary(flags.out, bank, report) + "\n");
+    if (flags.plot) process.stdout.write(`plot written to ${flags.plot}\n`);
+    return;
+  }
   const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
@@ -200,6 +239,20 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   }
   process.stdout.write(buildSummary(flags.out, bank, report) + "\n");
   if (flags.plot) process.stdout.write(`plot written to ${flags.plot}\n`);
+}
+
+function spinBuildSummary(file: string, bank: TemplateBank, r: SpinBankReport): string {
+  const [a, b] = bank.massRangeSolar;
+  const [s0, s1] = bank.spinRange ?? [0, 0];
+  const how =
+    r.placement === "lattice"
+      ? `${r.latticeTemplates} on A3* lattices in ${r.slabs} slab${r.slabs === 1 ? "" : "s"}, ${r.stochasticTemplates} added stochastically`
+      : `placed stochastically from ${r.proposals} draws`;
+  return (
+    `${file}: ${r.templateCount} template${r.templateCount === 1 ? "" : "s"} for ${a}–${b} M_sun with aligned spins ${s0} to ${s1} ` +
+    `from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ${how}; ` +
+    `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (the region is thin along its nearly degenerate mass–spin direction, so most templates cover its faces)`
+  );
 }
 
 function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport): string {
@@ -222,11 +275,16 @@ function runVerify(file: string, flags: VerifyFlags): void {
   const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
   const required = flags.require === undefined ? undefined : parseNumberFlag("--require", flags.require, { min: 0, max: 1 });
   const bank = readBankFile(file);
+  const spinRange = flags.spinRange === undefined ? bank.spinRange : parseSpinRangeFlag("--spin-range", flags.spinRange);
+  if (spinRange && drawSpace !== "masses") throw new UsageError(`--draw-space: spinning draws are uniform in component masses; leave out --draw-space ${drawSpace}`);
   const psd: PsdModel = onFlag(`${file}: noiseCurve`, () => psdModelFromSpec(bank.noiseCurve));
   const bar = createProgress(true, "verify", { unit: "draws" });
   let report: CoverageReport;
   try {
-    report = verifyBank(bank, { draws, signal, drawSpace, seed: flags.seed, psd, onProgress: (d, t) => bar.update(0, 1, d, t) });
+    const onProgress = (d: number, t: number): void => bar.update(0, 1, d, t);
+    report = spinRange
+      ? verifyBankWithSpins(bank, { draws, signal, seed: flags.seed, psd, spinRange, onProgress })
+      : verifyBank(bank, { draws, signal, drawSpace, seed: flags.seed, psd, onProgress });
   } finally {
     bar.stop();
   }
@@ -246,11 +304,14 @@ function runVerify(file: string, flags: VerifyFlags): void {
 }
 
 function verifyText(file: string, bank: TemplateBank, r: CoverageReport): string {
-  const space = r.drawSpace === "masses" ? "uniform in component masses" : "uniform in chirp times (τ0, τ3)";
+  const space =
+    (r.drawSpace === "masses" ? "uniform in component masses" : "uniform in chirp times (τ0, τ3)") +
+    (r.spinRange ? `, each body's aligned spin uniform in [${r.spinRange[0]}, ${r.spinRange[1]}]` : "");
+  const bankKind = bank.spinRange ? `aligned-spin bank (spins ${bank.spinRange[0]} to ${bank.spinRange[1]})` : "non-spinning bank";
   const model = r.signal === "taylorf2" ? "TaylorF2 signals (the bank's own model: coverage)" : "TaylorT4 time-domain signals (the approximant's cost included)";
   const mm = bank.matchFloor;
   const lines = [
-    `${file}: ${r.templates} templates, minimal match ${mm}; ${r.draws} ${model}, ${space}, seed ${r.seed}`,
+    `${file}: ${bankKind}, ${r.templates} templates, minimal match ${mm}; ${r.draws} ${model}, ${space}, seed ${r.seed}`,
     `fitting factor ≥ ${mm} for ${pct(r.fractionAboveMinimalMatch)} of draws; min ${r.min.toFixed(4)}, 1st percentile ${r.p01.toFixed(4)}, ` +
       `median ${r.median.toFixed(4)}, mean ${r.mean.toFixed(4)}`,
     `mean FF³ ${r.meanCube.toFixed(4)}: expected loss of detection rate ${pct(1 - r.meanCube)} ` +
@@ -258,7 +319,9 @@ function verifyText(file: string, bank: TemplateBank, r: CoverageReport): string
     `worst draws:`,
     ...r.worst.map((w) => {
       const t = bank.templates[w.bestTemplate];
-      return `  ${fmt(w.m1)} + ${fmt(w.m2)} M_sun: FF ${w.fittingFactor.toFixed(4)}${t ? ` (best template ${fmt(t.primaryMass)} + ${fmt(t.secondaryMass)})` : ""}`;
+      const spins = w.chi1 === undefined ? "" : ` χ ${w.chi1.toFixed(2)}, ${w.chi2!.toFixed(2)}`;
+      const tSpins = t && (t.primarySpin || t.secondarySpin) ? ` χ ${(t.primarySpin ?? 0).toFixed(2)}, ${(t.secondarySpin ?? 0).toFixed(2)}` : "";
+      return `  ${fmt(w.m1)} + ${fmt(w.m2)} M_sun${spins}: FF ${w.fittingFactor.toFixed(4)}${t ? ` (best template ${fmt(t.primaryMass)} + ${fmt(t.secondaryMass)}${tSpins})` : ""}`;
     }),
     `matches on a ${r.grid.dfHz} Hz grid (${r.grid.fftSize}-point inverse FFTs), ${r.matchesPerDraw.toFixed(1)} templates per draw ` +
       `(metric neighbours), ${(r.wallTimeMs / 1000).toFixed(1)} s`,
@@ -272,6 +335,7 @@ async function runSweep(flags: SweepFlags): Promise<void> {
   const draws = parseNumberFlag("--draws", flags.draws, { min: 1, integer: true });
   const signal = parseChoiceFlag("--signal", flags.signal, ["taylorf2", "pn-time"] as const);
   const drawSpace = parseChoiceFlag("--draw-space", flags.drawSpace, ["masses", "chirp-times"] as const);
+  if (region.spinRange && drawSpace !== "masses") throw new UsageError(`--draw-space: spinning draws are uniform in component masses; leave out --draw-space ${drawSpace}`);
   if (flags.plot) checkFilePlan({ inputs: noiseCurveInput("--noise-curve", flags.noiseCurve), outputs: [{ flag: "--plot", path: flags.plot }] });
   const bar = createProgress(true, "sweep", { unit: "draws" });
   let result: SweepResult;
@@ -289,8 +353,9 @@ async function runSweep(flags: SweepFlags): Promise<void> {
     return;
   }
   const lines = [
-    `minimal-match sweep, ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fminHz} Hz (${region.noiseCurve}), ` +
-      `${result.draws} ${result.signal} draws per bank`,
+    `minimal-match sweep, ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun` +
+      (region.spinRange ? ` with aligned spins ${region.spinRange[0]} to ${region.spinRange[1]} (draws: each body's spin uniform in the range)` : "") +
+      ` from ${region.fminHz} Hz (${region.noiseCurve}), ${result.draws} ${result.signal} draws per bank`,
     `  match floor  templates  volume est.  coverage  min FF   mean FF  rate loss  est. CPU h per h of data`,
   ];
   for (const row of result.rows) {

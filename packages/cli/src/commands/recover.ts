@@ -81,7 +81,7 @@ export function registerRecover(program: Command): void {
     .option("--strain <file...>", "inject into these strain files instead of simulated noise")
     .option("--count <N>", "number of injections", "100")
     .option("--mass-range <min:max>", "component masses of the injections (and of a bank built on the fly), M_sun", "1:3")
-    .option("--spin-range <min:max>", `${SPIN_RANGE_HELP}; injected with spinning TaylorT4, searched with the bank as it is`)
+    .option("--spin-range <min:max>", `${SPIN_RANGE_HELP}; injected with spinning TaylorT4, searched with the bank as it is (an aligned-spin bank: build one with chirpsieve bank --spin-range and pass --bank)`)
     .option("--snr-range <min:max>", "optimal SNR range of the injections (distance scaled to hit it)")
     .option("--distance-range <min:max>", "distance range of the injections, Mpc")
     .option("--distance-distribution <kind>", "with --distance-range: volume (p ∝ D²) or uniform (in distance)", "volume")

@@ -33,6 +33,7 @@ import { checkFilePlan, noiseCurveInput, strainInputs, type FilePlan } from "../
 import { parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
 import { nonStrainInputs, openStrainInput } from "../strainInputs.js";
+import { BANK_SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import {
   CANDIDATE_CAUTION,
@@ -51,6 +52,7 @@ interface ScanFlags extends SearchFlags {
   shardBy: string;
   resume?: boolean;
   massRange?: string;
+  spinRange?: string;
   out?: string;
   format?: string;
   json?: boolean;
@@ -84,6 +86,7 @@ export function registerScan(program: Command): void {
     .argument("[strain-file...]", "strain files (.f32/.f64 with a .json sidecar, .txt/.dat/.csv, .h5/.hdf5)");
   addSearchOptions(cmd, { fmin: "20" })
     .option("--mass-range <min:max>", "component-mass range of a bank built on the fly (solar masses)")
+    .option("--spin-range <min:max>", `with --mass-range: ${BANK_SPIN_RANGE_HELP}`)
     .option("--noise-curve <name|file>", "use a known noise curve (dis2001, ajith2011, flat, flat:LEVEL, or a two-column table) instead of estimating the PSD")
     .option("--segment <s>", "analysis segment length (s, rounded up to a power of two samples); default from the longest template")
     .option("--out <file>", "write candidates to this file (format from --format or the extension: .jsonl, .csv, .txt)")
@@ -140,7 +143,10 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
   const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
-  const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
+  const spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
+  if (spinRange && flags.bank) throw new UsageError("--spin-range: only for a bank built on the fly over --mass-range (a bank file carries its own spins)");
+  if (spinRange && !(spinRange[0] < spinRange[1])) throw new UsageError(`--spin-range: a bank needs MIN below MAX (got "${flags.spinRange}")`);
+  const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli", spinRange);
   const inspiralEdge = checkInspiralEdge(templates, psd.kind === "model" ? psd.model : undefined, fMinHz);
 
   await loadFftBackends();

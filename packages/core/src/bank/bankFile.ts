@@ -8,9 +8,11 @@ import type { BankGenerator, Template, TemplateBank } from "./templateBank.js";
 /**
  * The bank as JSON text:
  *   {"fmin", "matchFloor", "noiseCurve", "massRange": [min, max], optional "totalMassCap",
- *    "massRatioCap", "fmax", "generator": {"tool", "version", "arguments"},
- *    "templates": [{"primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"}, ...]}
- * Masses in solar masses, frequencies in Hz, chirp times in seconds from fmin. One template per line.
+ *    "massRatioCap", "fmax", "spinRange": [min, max], "generator": {"tool", "version", "arguments"},
+ *    "templates": [{"primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"[, "primarySpin", "secondarySpin"]}, ...]}
+ * Masses in solar masses, frequencies in Hz, chirp times (non-spinning) in seconds from fmin, spins
+ * dimensionless along the orbital angular momentum (written for every template of a bank with a
+ * spinRange, and for any template with a non-zero spin). One template per line.
  */
 export function formatBankFile(bank: TemplateBank): string {
   const head: Record<string, unknown> = {
@@ -22,12 +24,13 @@ export function formatBankFile(bank: TemplateBank): string {
   if (bank.totalMassCapSolar !== undefined) head.totalMassCap = bank.totalMassCapSolar;
   if (bank.massRatioCap !== undefined) head.massRatioCap = bank.massRatioCap;
   if (bank.fmaxHz !== undefined) head.fmax = bank.fmaxHz;
+  if (bank.spinRange !== undefined) head.spinRange = bank.spinRange;
   if (bank.generator) head.generator = bank.generator;
   const lines = Object.entries(head).map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
-  const rows = bank.templates.map(
-    (t) =>
-      `    {"primaryMass": ${t.primaryMass}, "secondaryMass": ${t.secondaryMass}, "chirpMass": ${t.chirpMass}, "tau0": ${t.tau0}, "tau3": ${t.tau3}}`,
-  );
+  const rows = bank.templates.map((t) => {
+    const spins = bank.spinRange !== undefined || t.primarySpin || t.secondarySpin ? `, "primarySpin": ${t.primarySpin ?? 0}, "secondarySpin": ${t.secondarySpin ?? 0}` : "";
+    return `    {"primaryMass": ${t.primaryMass}, "secondaryMass": ${t.secondaryMass}, "chirpMass": ${t.chirpMass}, "tau0": ${t.tau0}, "tau3": ${t.tau3}${spins}}`;
+  });
   return `{\n${lines.join(",\n")},\n  "templates": [\n${rows.join(",\n")}\n  ]\n}\n`;
 }
 
@@ -50,7 +53,8 @@ function shown(v: unknown): string {
  * Parses bank JSON (see {@link formatBankFile}). Checks every field: positive finite numbers,
  * 0 < matchFloor < 1, massRange min < max, primaryMass ≥ secondaryMass, and that each template's
  * chirpMass, tau0 and tau3 agree with its masses (relative 1e-6; chirp times from fmin, Sathyaprakash,
- * Phys. Rev. D 50, R7111 (1994)). Throws InputError "<label>: <what> ..." on the first problem.
+ * Phys. Rev. D 50, R7111 (1994)), spins (when present) in (−1, 1) and spinRange [min, max] with
+ * −1 < min < max < 1 (spins outside it are refused). Throws InputError "<label>: <what> ..." on the first problem.
  */
 export function parseBankFile(text: string, label: string): TemplateBank {
   let raw: unknown;
@@ -96,6 +100,14 @@ export function parseBankFile(text: string, label: string): TemplateBank {
     if (!(f > fminHz)) throw new InputError(`${label}: fmax ${f} must be above fmin ${fminHz}`);
     bank.fmaxHz = f;
   }
+  if (o.spinRange !== undefined) {
+    const sr = o.spinRange;
+    if (!Array.isArray(sr) || sr.length !== 2) throw new InputError(`${label}: spinRange must be [min, max] (got ${shown(sr)})`);
+    const lo = num("spinRange", sr[0], "spinRange[0]");
+    const hi = num("spinRange", sr[1], "spinRange[1]");
+    if (!(lo > -1 && hi < 1 && lo < hi)) throw new InputError(`${label}: spinRange must satisfy −1 < min < max < 1 (got ${shown(sr)})`);
+    bank.spinRange = [lo, hi];
+  }
   if (o.generator !== undefined) {
     const g = o.generator as Partial<BankGenerator> | null;
     if (typeof g !== "object" || g === null || typeof g.tool !== "string" || typeof g.version !== "string" || !Array.isArray(g.arguments)) {
@@ -125,6 +137,19 @@ export function parseBankFile(text: string, label: string): TemplateBank {
     if (!close(t0, ct.tau0)) throw new InputError(`${label}: ${where}.tau0 ${t0} does not match the masses at fmin ${fminHz} Hz (expected ${ct.tau0})`);
     if (!close(t3, ct.tau3)) throw new InputError(`${label}: ${where}.tau3 ${t3} does not match the masses at fmin ${fminHz} Hz (expected ${ct.tau3})`);
     const t: Template = { primaryMass: m1, secondaryMass: m2, chirpMass: mc, tau0: t0, tau3: t3 };
+    if ("primarySpin" in e || "secondarySpin" in e) {
+      const spin = (key: "primarySpin" | "secondarySpin"): number => {
+        const x = num("", e[key] ?? 0, `${where}.${key}`);
+        if (!(Math.abs(x) < 1)) throw new InputError(`${label}: ${where}.${key} must lie strictly between −1 and 1 (got ${x})`);
+        const r = bank.spinRange;
+        if (r && !(x >= r[0] - 1e-12 && x <= r[1] + 1e-12)) {
+          throw new InputError(`${label}: ${where}.${key} ${x} lies outside spinRange [${r[0]}, ${r[1]}]`);
+        }
+        return x;
+      };
+      t.primarySpin = spin("primarySpin");
+      t.secondarySpin = spin("secondarySpin");
+    }
     bank.templates.push(t);
   });
   return bank;

@@ -4,6 +4,9 @@ import { MAX_MATCH_FLOOR, MIN_MATCH_FLOOR, buildBankWithReport, checkBankOptions
 import { MAX_VERIFY_DRAWS, verifyBank, type VerifyDrawSpace, type VerifySignal } from "./verify.js";
 import { measureTemplateCost, scanCpuSecondsPerHour, type TemplateCostMeasurement } from "./scanCost.js";
 import { iscoFrequencyHz } from "./chirpTimeCoordinates.js";
+import { buildSpinBankWithReport, checkSpinRange, estimateSpinTemplateCount } from "./spinBank.js";
+import type { SpinPlacementKind } from "./spinPlacement.js";
+import { verifyBankWithSpins } from "./verifySpins.js";
 
 export interface SweepOptions extends Omit<BuildBankOptions, "matchFloor"> {
   /** Minimal matches to try, each in (0, 1). */
@@ -13,6 +16,13 @@ export interface SweepOptions extends Omit<BuildBankOptions, "matchFloor"> {
   seed?: string | number;
   signal?: VerifySignal;
   drawSpace?: VerifyDrawSpace;
+  /**
+   * Aligned-spin range of a spinning bank (spinBank.ts): each bank is then placed over masses and
+   * spins and verified with draws whose two spins are uniform and independent in the range.
+   */
+  spinRange?: [number, number];
+  /** Placement of a spinning bank (default that of spinBank.ts). */
+  placement?: SpinPlacementKind;
   /** Measure the scan cost on this machine (default true). */
   measureCost?: boolean;
   /** Called after each match floor with (done, total). */
@@ -41,6 +51,8 @@ export interface SweepResult {
   cost?: TemplateCostMeasurement;
   draws: number;
   signal: VerifySignal;
+  /** The spin range of spinning banks (absent for non-spinning ones). */
+  spinRange?: [number, number];
 }
 
 /** Parses "a:b:step" (inclusive, rounded to the step's decimals) or a single value into match floors. */
@@ -81,7 +93,12 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
     if (!(mm >= MIN_MATCH_FLOOR && mm <= MAX_MATCH_FLOOR)) throw parameterError("matchFloor", `${mm} must be from ${MIN_MATCH_FLOOR} to ${MAX_MATCH_FLOOR}`);
   }
   // The densest bank first: refuse the whole sweep before any work if it would exceed the limit.
-  checkTemplateLimit({ ...options, matchFloor: Math.max(...options.matchFloors) });
+  const densest = { ...options, matchFloor: Math.max(...options.matchFloors) };
+  if (options.spinRange !== undefined) {
+    checkSpinRange(options.spinRange);
+    const estimate = estimateSpinTemplateCount({ ...densest, spinRange: options.spinRange });
+    checkTemplateLimit(densest, estimate);
+  } else checkTemplateLimit(densest);
   const draws = options.draws ?? 200;
   if (!(Number.isInteger(draws) && draws >= 1 && draws <= MAX_VERIFY_DRAWS)) {
     throw parameterError("draws", `must be a whole number from 1 to ${MAX_VERIFY_DRAWS} (got ${draws}); for more, run several sweeps with different seeds`);
@@ -90,8 +107,13 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
   const rows: SweepRow[] = [];
   let cost: TemplateCostMeasurement | undefined;
   options.matchFloors.forEach((mm, k) => {
-    const { bank, report } = buildBankWithReport({ ...options, matchFloor: mm });
-    const v = verifyBank(bank, { draws, seed: options.seed, signal, drawSpace: options.drawSpace, psd: options.psd });
+    const spinRange = options.spinRange;
+    const { bank, report } = spinRange
+      ? buildSpinBankWithReport({ ...options, spinRange, placement: options.placement, matchFloor: mm })
+      : buildBankWithReport({ ...options, matchFloor: mm });
+    const v = spinRange
+      ? verifyBankWithSpins(bank, { draws, seed: options.seed, signal, psd: options.psd, spinRange })
+      : verifyBank(bank, { draws, seed: options.seed, signal, drawSpace: options.drawSpace, psd: options.psd });
     if (options.measureCost !== false && !cost) {
       const longest = bank.templates.reduce((m, t) => Math.max(m, t.tau0), 0);
       const top = Math.min(options.fmaxHz ?? Infinity, iscoFrequencyHz(2 * options.massRangeSolar[0]));
@@ -110,5 +132,5 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
     });
     options.onProgress?.(k + 1, options.matchFloors.length);
   });
-  return { rows, cost, draws, signal };
+  return { rows, cost, draws, signal, ...(options.spinRange ? { spinRange: options.spinRange } : {}) };
 }

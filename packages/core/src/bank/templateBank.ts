@@ -44,6 +44,8 @@ export interface TemplateBank {
   noiseCurve: string;
   /** Component-mass range [min, max], solar masses. */
   massRangeSolar: [number, number];
+  /** Aligned-spin range [min, max] of a spinning bank (spinBank.ts); absent for a non-spinning bank. */
+  spinRange?: [number, number];
   totalMassCapSolar?: number;
   massRatioCap?: number;
   /** Fixed upper cutoff (Hz) of the metric integrals, when one was given (otherwise each template's ISCO). */

@@ -46,12 +46,17 @@ export interface VerifyOptions {
 export interface FittingFactorDraw {
   m1: number;
   m2: number;
+  /** Aligned spins of the draw (spinning draws only; verifySpins.ts). */
+  chi1?: number;
+  chi2?: number;
   fittingFactor: number;
   /** Index (in bank.templates) of the best template. */
   bestTemplate: number;
 }
 
 export interface CoverageReport {
+  /** Range of the draws' aligned spins, each body drawn uniformly in it (spinning draws only; verifySpins.ts). */
+  spinRange?: [number, number];
   signal: VerifySignal;
   drawSpace: VerifyDrawSpace;
   seed: string;
@@ -139,7 +144,7 @@ export function drawInRegion(region: MassRegion, count: number, space: VerifyDra
 /** How far (in units of the modelled radius) the quadratic metric's pre-selection reaches. */
 const REACH = 3;
 
-function quantile(sorted: number[], q: number): number {
+export function fittingFactorQuantile(sorted: number[], q: number): number {
   if (sorted.length === 0) return NaN;
   const x = q * (sorted.length - 1);
   const i = Math.floor(x);
@@ -177,6 +182,9 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     throw new InputError(`draw space must be "masses" or "chirp-times" (got ${JSON.stringify(drawSpace)})`);
   }
   if (bank.templates.length === 0) throw new InputError(`verify: the bank has no templates`);
+  if (bank.templates.some((t) => (t.primarySpin ?? 0) !== 0 || (t.secondarySpin ?? 0) !== 0)) {
+    throw new InputError(`verify: the bank's templates carry aligned spins; verify it with spinning draws (verifyBankWithSpins)`);
+  }
   const psd = options.psd ?? psdModelFromSpec(bank.noiseCurve);
   const fmin = bank.fminHz;
   const fmax = bank.fmaxHz ?? Infinity;
@@ -309,8 +317,8 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     minimalMatch: bank.matchFloor,
     fractionAboveMinimalMatch: results.filter((x) => x.fittingFactor >= bank.matchFloor).length / results.length,
     min: ffs[0],
-    p01: quantile(ffs, 0.01),
-    median: quantile(ffs, 0.5),
+    p01: fittingFactorQuantile(ffs, 0.01),
+    median: fittingFactorQuantile(ffs, 0.5),
     mean,
     meanCube,
     worst,
@@ -328,8 +336,8 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
  * which is the DFT of the series folded onto L = N / m samples, x_L[j] = Σ_l x[j + l L] (sampling
  * a spectrum aliases the time series; common practice, no source): one L-point FFT, planned once.
  */
-function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: number, fTop: number): {
-  make(m1: number, m2: number, out: Float64Array): void;
+export function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: number, fTop: number): {
+  make(m1: number, m2: number, out: Float64Array, chi1?: number, chi2?: number): void;
 } {
   const fs = Math.pow(2, Math.ceil(Math.log2(2.2 * fTop)));
   const foldedLength = Math.round(fs / grid.dfHz);
@@ -337,9 +345,9 @@ function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: nu
   const folded = new Float64Array(foldedLength);
   const spec = new Float64Array(foldedLength + 2);
   return {
-    make(m1, m2, out) {
+    make(m1, m2, out, chi1 = 0, chi2 = 0) {
       const fStart = 0.85 * fmin;
-      const duration = taylorT4Duration(m1, m2, fStart);
+      const duration = taylorT4Duration(m1, m2, fStart, undefined, chi1, chi2);
       const seconds = Math.max(1 / grid.dfHz, Math.pow(2, Math.ceil(Math.log2(duration + 1))));
       const n = Math.round(seconds * fs);
       const w: TimeDomainWaveform = taylorT4({
@@ -351,6 +359,8 @@ function createPnTimeSignalMaker(grid: { dfHz: number; nBins: number }, fmin: nu
         coalescenceTime: seconds - 0.5,
         sampleRate: fs,
         fStartHz: fStart,
+        chi1,
+        chi2,
       });
       folded.fill(0);
       for (let i = 0; i < w.hPlus.length; i++) {

@@ -157,10 +157,14 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     masses[2 * i] = t.primaryMass;
     masses[2 * i + 1] = t.secondaryMass;
   });
+  // Spinning banks also hash their spins (a non-spinning bank's hash is that of its masses alone).
+  const spinning = options.templates.some((t) => (t.primarySpin ?? 0) !== 0 || (t.secondarySpin ?? 0) !== 0);
+  const spins = new Float64Array(spinning ? 2 * options.templates.length : 0);
+  if (spinning) options.templates.forEach((t, i) => spins.set([t.primarySpin ?? 0, t.secondarySpin ?? 0], 2 * i));
   const psd = options.psd;
   return {
     templates: options.templates.length,
-    bankSha256: createHash("sha256").update(Buffer.from(masses.buffer)).digest("hex"),
+    bankSha256: createHash("sha256").update(Buffer.from(masses.buffer)).update(Buffer.from(spins.buffer)).digest("hex"),
     fMinHz: options.fMinHz,
     fMaxHz: options.fMaxHz ?? null,
     snrThreshold: options.snrThreshold,

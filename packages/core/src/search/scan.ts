@@ -19,6 +19,7 @@ import { createSegmentFilter } from "./segmentFilter.js";
 import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
 import type { Candidate, GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
+import { effectiveSpin, templateSpins } from "./templateSpins.js";
 
 /** Checks search options once, at the door. */
 export function validateSearchOptions(o: SearchOptions, sampleRate: number): void {
@@ -26,6 +27,9 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
   for (const [i, t] of o.templates.entries()) {
     if (!(t.primaryMass > 0) || !(t.secondaryMass > 0) || !Number.isFinite(t.primaryMass + t.secondaryMass)) {
       throw new InputError(`template ${i}: masses must be positive numbers`);
+    }
+    for (const s of [t.primarySpin ?? 0, t.secondarySpin ?? 0]) {
+      if (!(Math.abs(s) < 1)) throw new InputError(`template ${i}: aligned spins must lie strictly between −1 and 1 (got ${s})`);
     }
   }
   if (!(o.fMinHz > 0)) throw new InputError(`fmin must be a positive frequency (got ${o.fMinHz})`);
@@ -264,9 +268,10 @@ export async function searchSource(
     masses[2 * i] = t.primaryMass;
     masses[2 * i + 1] = t.secondaryMass;
   });
+  const spins = templateSpins(templates);
   // One thread filters on this thread; more start workers now, while the first segment is read.
   const inline = threads === 1 ? createBankFilter(config) : undefined;
-  const poolStart: Promise<SearchPool> | undefined = threads > 1 ? createSearchPool(threads, config, filter.weights, masses) : undefined;
+  const poolStart: Promise<SearchPool> | undefined = threads > 1 ? createSearchPool(threads, config, filter.weights, masses, spins) : undefined;
   poolStart?.catch(() => {}); // awaited below; this only keeps an early failure from going unhandled
   let pool: SearchPool | undefined;
   const inlineSigmas = new Float64Array(templates.length);
@@ -323,7 +328,7 @@ export async function searchSource(
       let sigmas: Float64Array;
       if (inline) {
         triggers = [];
-        inline.scan(filter.weights, masses, part.from, part.to, peaks, inlineSigmas, triggers);
+        inline.scan(filter.weights, masses, part.from, part.to, peaks, inlineSigmas, triggers, spins);
         sigmas = inlineSigmas;
       } else {
         pool ??= await poolStart!;
@@ -361,6 +366,9 @@ export async function searchSource(
           primaryMass: t.primaryMass,
           secondaryMass: t.secondaryMass,
           chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
+          primarySpin: t.primarySpin ?? 0,
+          secondarySpin: t.secondarySpin ?? 0,
+          effectiveSpin: effectiveSpin(t),
           effectiveDistanceMpc: tr.sigma / peak.value,
           templateIndex: tr.templateIndex,
           file: source.fileAt ? source.fileAt(tr.time) : source.file,

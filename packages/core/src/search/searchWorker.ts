@@ -46,7 +46,7 @@ try {
       for (;;) {
         const from = Atomics.add(counter, 0, job.chunk);
         if (from >= to) break;
-        bank.scan(weights, masses, from, Math.min(to, from + job.chunk), job.peaks, sigmas, triggers);
+        bank.scan(weights, masses, from, Math.min(to, from + job.chunk), job.peaks, sigmas, triggers, init.spins);
       }
       reply({ kind: "done", segment: job.segment, triggers });
     } catch (error) {

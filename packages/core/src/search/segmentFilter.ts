@@ -110,12 +110,12 @@ export function createSegmentFilter(o: SegmentFilterOptions): SegmentFilter {
       const { kStart, kEnd } = taylorF2BinRange(nBins, df, o.fMinHz, t.primaryMass, t.secondaryMass, o.fMaxHz);
       out.fill(0, 0, 2 * kStart);
       out.fill(0, 2 * kEnd);
-      phasor.template(law, out, kStart, kEnd, t.primaryMass, t.secondaryMass, taylorF2Amplitude(t.primaryMass, t.secondaryMass, 1));
+      phasor.template(law, out, kStart, kEnd, t.primaryMass, t.secondaryMass, taylorF2Amplitude(t.primaryMass, t.secondaryMass, 1), t.primarySpin ?? 0, t.secondarySpin ?? 0);
       return kEnd;
     },
     filter(t) {
       if (!spec) throw new Error("SegmentFilter.filter called before load");
-      const { sigma, kEnd } = bank.filter(weights, t.primaryMass, t.secondaryMass);
+      const { sigma, kEnd } = bank.filter(weights, t.primaryMass, t.secondaryMass, t.primarySpin ?? 0, t.secondarySpin ?? 0);
       return { sigma, kEnd };
     },
     dispose() {

@@ -18,10 +18,12 @@ export interface SearchInput {
   fileAt?(time: number): string;
 }
 
-/** A template the search filters with: component masses in solar masses. */
+/** A template the search filters with: component masses in solar masses, optional aligned spins χ ∈ (−1, 1) (default 0). */
 export interface SearchTemplate {
   readonly primaryMass: number;
   readonly secondaryMass: number;
+  readonly primarySpin?: number;
+  readonly secondarySpin?: number;
 }
 
 /** Where each segment's noise PSD comes from. */
@@ -96,6 +98,11 @@ export interface Candidate {
   primaryMass: number;
   secondaryMass: number;
   chirpMass: number;
+  /** Aligned spins of the template (0 for a non-spinning one). */
+  primarySpin: number;
+  secondarySpin: number;
+  /** Effective spin of the template, χ_eff = (m1 χ1 + m2 χ2) / (m1 + m2). */
+  effectiveSpin: number;
   /** Distance (Mpc) at which an optimally oriented source matching the template gives this SNR. */
   effectiveDistanceMpc: number;
   templateIndex: number;

@@ -16,6 +16,8 @@ export interface WorkerInit {
   cumulative: SharedArrayBuffer;
   /** Template masses (m1, m2 pairs, solar masses). */
   masses: Float64Array;
+  /** Template aligned spins (χ1, χ2 pairs), absent for a non-spinning bank. */
+  spins?: Float64Array;
   /** σ per template, written by whichever worker filters it. */
   sigmas: SharedArrayBuffer;
   /** Next unclaimed template index (Int32), advanced with Atomics.add. */
@@ -98,6 +100,7 @@ export async function createSearchPool(
   config: BankFilterConfig,
   weights: SegmentWeights,
   masses: Float64Array,
+  spins?: Float64Array,
 ): Promise<SearchPool> {
   const url = searchWorkerUrl();
   const path = fileURLToPath(url);
@@ -116,6 +119,7 @@ export async function createSearchPool(
     u: weights.u.buffer,
     cumulative: weights.cumulative.buffer,
     masses,
+    ...(spins ? { spins } : {}),
     sigmas: sigmaBuffer,
     counter: counterBuffer,
   };
