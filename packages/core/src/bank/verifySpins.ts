@@ -7,7 +7,7 @@ import { createTaylorF2Generator } from "../waveform/taylorf2.js";
 import { createMassRegion } from "./massRegion.js";
 import { chooseMatchGrid, createMatchComputer } from "./match.js";
 import { chirpTimesFromComponents, iscoFrequencyHz } from "./chirpTimeCoordinates.js";
-import { chooseVerifyLagSpan, createPnTimeSignalMaker, drawInRegion, fittingFactorQuantile, type CoverageReport, type FittingFactorDraw, type VerifyOptions } from "./verify.js";
+import { chooseVerifyLagSpan, coverageSummary, createPnTimeSignalMaker, drawInRegion, type CoverageReport, type FittingFactorDraw, type VerifyOptions } from "./verify.js";
 import { createSpinMetric, metricDistance2, spinCoordinatesFromComponents } from "./spinMetric.js";
 import type { TemplateBank } from "./templateBank.js";
 
@@ -117,25 +117,13 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
     results.push({ m1, m2, chi1, chi2, fittingFactor: best, bestTemplate: bestIdx });
     options.onProgress?.(k + 1, drawn.length);
   }
-  const ffs = results.map((x) => x.fittingFactor).sort((a, b) => a - b);
-  const mean = ffs.reduce((s, v) => s + v, 0) / ffs.length;
-  const meanCube = ffs.reduce((s, v) => s + v * v * v, 0) / ffs.length;
-  const worst = [...results].sort((a, b) => a.fittingFactor - b.fittingFactor).slice(0, options.worstCount ?? 5);
   return {
     spinRange: [sLo, sHi],
     signal,
     drawSpace: "masses",
     seed,
-    draws: results.length,
+    ...coverageSummary(results, bank.matchFloor, options.worstCount ?? 5),
     templates: nT,
-    minimalMatch: bank.matchFloor,
-    fractionAboveMinimalMatch: results.filter((x) => x.fittingFactor >= bank.matchFloor).length / results.length,
-    min: ffs[0],
-    p01: fittingFactorQuantile(ffs, 0.01),
-    median: fittingFactorQuantile(ffs, 0.5),
-    mean,
-    meanCube,
-    worst,
     matchesPerDraw: matchCount / results.length,
     grid,
     wallTimeMs: performance.now() - started,

@@ -1,30 +1,16 @@
 // The summary record of a scan, one shape whether the run was whole, resumed or merged from shards.
 import type { FftBackendName } from "../fft/types.js";
-import type { GateRecord, SkippedStretch } from "./types.js";
+import type { SearchSummary } from "./types.js";
 
-/** What one input of a run covered (a SearchSummary, or the same figures recovered from shards). */
-export interface InputCoverage {
-  file: string;
-  segments: number;
-  segmentSamples: number;
-  sampleRate: number;
-  analysedSeconds: number;
-  dataSeconds: number;
-  leadInSeconds: number;
-  tailSeconds: number;
-  skippedSeconds: number;
-  skipped: SkippedStretch[];
-  /** Threads that filtered the bank (for shards: the most any shard used). */
-  threads: number;
-  /** Valid data lost to the filter's lead-in and tail at the edges of files and left-out stretches (s). */
-  lostToEdgesSeconds?: number;
-  /** Valid intervals searched separately. */
-  intervals?: number;
-  /** Loud transients gated out before filtering. */
-  gates?: readonly GateRecord[];
-  /** Why nothing of this input could be searched. */
-  unsearchable?: string;
-}
+/**
+ * What one input of a run covered: a SearchSummary's figures (for shards, recovered from their
+ * records and manifests; `threads` there is the most any shard used), the per-stretch ones optional.
+ */
+export type InputCoverage = Pick<
+  SearchSummary,
+  "file" | "segments" | "segmentSamples" | "sampleRate" | "analysedSeconds" | "dataSeconds" | "leadInSeconds" | "tailSeconds" | "skippedSeconds" | "skipped" | "threads"
+> &
+  Partial<Pick<SearchSummary, "lostToEdgesSeconds" | "intervals" | "gates" | "unsearchable">>;
 
 /** The run-wide settings and results a summary reports besides its inputs. */
 export interface RunSummaryParts {
