@@ -1,7 +1,7 @@
 // Templates in rows along a thin band of the region: cheaper than a lattice where the band is narrow.
 import type { MassRegion } from "./massRegion.js";
 import type { PhaseChart } from "./phaseChart.js";
-import type { LatticePatch, LatticePoint } from "./lattice.js";
+import type { LatticePatch, LatticePoint } from "./patch.js";
 import { metricDistanceSquared, metricFactor, type Metric2 } from "./metric.js";
 import { triangleCoveringRadius } from "./triangleCover.js";
 import { goldenSectionMax } from "./goldenSection.js";
