@@ -6,7 +6,7 @@ import type { LatticePatch } from "./patch.js";
  * The metric at τ0 and band fraction `frac` (0 at the band's lower edge, 1 at etaHi) over a run of
  * patches (ordered along τ0): that of the patch holding τ0, bilinear in (τ0, fraction) between its
  * sample grid's points (patchSamples.ts). Not conservative: coverage rests on the row checks' margin
- * (COVER_SAFETY in stripPlacement.ts), measured with direct matches. The patch's own (conservative)
+ * (COVER_SAFETY in rowMarch.ts), measured with direct matches. The patch's own (conservative)
  * metric where a neighbouring sample row is missing or the patch has fewer than two rows.
  */
 export function bandMetricAt(patches: readonly LatticePatch[], t: number, frac: number): Metric2 {

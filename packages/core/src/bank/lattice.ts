@@ -53,18 +53,20 @@ export interface LatticePlacement {
  * of phaseChart.ts (principal components of the PN phase coefficients; there the same metric stays
  * within 0.72–1.08), into which the metric is pulled back; what variation remains (mostly from the ISCO
  * cutoff) is handled by patches {τ0 ∈ [a, b], η ∈ [e1, e2]}, split recursively along τ0 or η while the
- * templates saved by a tighter metric exceed those a new seam costs (a cost model in the code below).
- * Each patch gets its own lattice, laid with the largest of its sampled metrics (9 × 5 samples; the
+ * templates saved by a tighter metric exceed those a new seam costs (splitGains in patchSplit.ts).
+ * Each patch gets its own lattice, laid with the largest of its sampled metrics (9 × 5 samples,
+ * patchSamples.ts; the
  * reference metric scaled by the largest generalised eigenvalue), which is therefore conservative
  * within the patch. The metric sampled is the placement metric of placementMetric.ts: the largest
  * ellipse inside the minimal-match contour of the linearised-phase match plus the ISCO-cutoff term,
  * which is wider than the quadratic metric's ellipse along the nearly degenerate direction.
  *
- * Boundaries: a patch keeps every lattice point whose hexagonal (Voronoi) cell meets the patch ∩ region:
+ * Boundaries (patchLattice.ts): a patch keeps every lattice point whose hexagonal (Voronoi) cell meets the patch ∩ region:
  * all points whose centre is inside, plus the cell of every point of a walk along the boundary of
- * patch ∩ region in steps of at most r/8 (the cells a boundary passes through). Kept points that fall
+ * patch ∩ region in steps of at most r/8 (boundaryWalk.ts; the cells a boundary passes through). Kept points that fall
  * outside the region — on the unphysical side of the equal-mass line (η > 1/4) or beyond a mass
- * limit — are moved to the nearest point of the region's boundary (nearest in the patch metric),
+ * limit — are moved to the nearest point of the region's boundary (nearest in the patch metric;
+ * boundaryProjection.ts),
  * which keeps the part of their cell inside the region covered because the region is locally convex
  * (as Cokelaer (2007) keeps boundary templates on the physical boundary); so every template lies within
  * the requested limits. A moved point within 0.05 r of another template of its patch is dropped.
@@ -72,7 +74,8 @@ export interface LatticePlacement {
  * patch's lattice with its boundary layer, the patch takes rows (`bandRows`, default on); neighbouring
  * patches (along τ0, same η-range) are covered by one run of rows, which pays for the corners at a
  * τ0-side only at the run's two ends. The choice is made per run, by each patch's share of the run's
- * rows; a run whose rows cannot be laid keeps the lattices where rows fail patch by patch.
+ * rows; a run whose rows cannot be laid keeps the lattices where rows fail patch by patch
+ * (coverChoice.ts). The covers are merged, each position once (mergeCovers.ts).
  * Deterministic: no randomness; the lattice of a patch is anchored at a sample point of the patch.
  */
 export function placeA2Lattice(options: LatticeOptions): LatticePlacement {
