@@ -46,30 +46,30 @@ export const CLEAR_OVERSHOOT = 1.05;
  * Covers the part of a run of patches inside the region, {τ0 ∈ [a, b], max(η1, η_low(τ0)) ≤ η ≤ η2},
  * with staggered rows of templates running along the band (our construction; no published source).
  *
- * Geometry. Lengths are measured in the placement metric sampled over the patches (lattice.ts),
- * interpolated bilinearly between samples. A station σ is the band's middle curve at τ0 = σ, and its
+ * Geometry (bandProfile.ts, bandMetric.ts, bandGeometry.ts). Lengths are measured in the placement
+ * metric sampled over the patches (patchSamples.ts), interpolated bilinearly between samples. A station σ is the band's middle curve at τ0 = σ, and its
  * cross-section is the normal there (in the local metric), not the line τ0 = σ: the two differ a lot
  * where the band runs obliquely to τ0. The band is cut along σ into pieces of constant row count k.
  * On each cross-section, the rows sit at metric distances edge + i·d from the lower edge (summed over
  * ACROSS segments in their own local metric), with edge and d from {@link rowSpacing} for the section's
- * width; k minimises the density k / spacing for the piece's widest section (widths at WIDTH_INTERVALS + 1
+ * width; k minimises (rowSpacing.ts) the density k / spacing for the piece's widest section (widths at WIDTH_INTERVALS + 1
  * stations).
  *
- * March. A piece starts and ends with a full column of k templates on its end normals; in between,
+ * March (rowMarch.ts). A piece starts and ends with a full column of k templates on its end normals; in between,
  * each station carries the rows of one parity (all rows when k = 1), so neighbouring rows alternate.
  * A station is accepted only if (i) every triangle it closes between neighbouring rows — the row's
  * previous template, its new one and the neighbour row's latest — has covering radius
- * (triangleCover.ts) at most 0.99 r in the local metric at the triangle's centre, and (ii) for an outer
- * row, every edge point collected since that row's previous template (one per sub-step of r/12 along
- * the band) lies within 0.99 r of that template or the new one. The zig-zag of triangles between two
+ * (triangleCover.ts) at most COVER_SAFETY r = 0.99 r in the local metric at the triangle's centre, and (ii) for an outer
+ * row, every edge point collected since that row's previous template (one per sub-step of SUB_STEP r = r/12
+ * along the band) lies within 0.99 r of that template or the new one. The zig-zag of triangles between two
  * rows covers the strip between them, and (ii) the strip between an outer row and the band's edge. The
- * step tried first is 1.05 × the ideal staggered step for the local width; if it fails, bisection
+ * step tried first is GROWTH = 1.05 × the ideal staggered step for the local width; if it fails, bisection
  * between the station and it finds the farthest step that passes. A piece where nothing passes gives
  * null (the lattice covers those patches).
  *
  * Ends. Neighbouring pieces share their end normal. Where the band reaches a τ0-side of the run (not a
  * tip of the region, where its width is zero), the last piece runs on until its end normal clears
- * that side (`clearEnds`), so the corners there are covered too.
+ * that side (`clearEnds`, endClearance), so the corners there are covered too.
  *
  * Cost. Staggered rows need about k / spacing templates per unit length of band: for a band of width
  * w = 3r, k = 2, edge = r/2 and spacing = √3 r as in the hexagonal lattice, with no boundary layer.
