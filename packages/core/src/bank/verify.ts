@@ -13,7 +13,7 @@ import { createPhaseChart } from "./phaseChart.js";
 import { createPlaneIndex } from "./templateIndex.js";
 import { chooseMatchGrid, createMatchComputer } from "./match.js";
 import { chirpTimesFromComponents, componentsFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
-import { metricRatioRange } from "./lattice.js";
+import { metricRatioRange } from "./metricRatio.js";
 import type { TemplateBank } from "./templateBank.js";
 
 /** The signal model of the draws. */
