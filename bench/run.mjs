@@ -29,7 +29,7 @@ import { performance } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
 import {
   ajith2011,
-  arraySource,
+  arrayInput,
   buildBankWithReport,
   chooseSegmentPlan,
   colouredNoise,
@@ -39,7 +39,7 @@ import {
   createSegmentFilter,
   loadFftBackends,
   resolveFftBackend,
-  searchSource,
+  searchStrain,
   verifyBank,
 } from "../packages/core/dist/index.js";
 
@@ -64,7 +64,7 @@ function searchOptions(templates, extra) {
     templates,
     fMinHz: F_MIN,
     snrThreshold: 6,
-    chi2Bins: 16,
+    chi2Bands: 16,
     loudestWithinSeconds: 1,
     psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
     ...extra,
@@ -120,7 +120,7 @@ function streamedNoise(seconds, seed) {
 if (args[0] === "--rss-child") {
   const seconds = Number(args[1]);
   await loadFftBackends();
-  const { summary } = await searchSource(
+  const { summary } = await searchStrain(
     streamedNoise(seconds, "bench-rss"),
     // The default backend and thread count (given explicitly: the default drops to one thread
     // for small jobs, and both inputs must run alike).
@@ -223,7 +223,7 @@ async function timeSearches(configs, repeats) {
       const t0 = performance.now();
       const marks = [];
       const onProgress = () => marks.push(performance.now());
-      const result = await searchSource(arraySource(data, FS), searchOptions(subset, { ...extra, onProgress }));
+      const result = await searchStrain(arrayInput(data, FS), searchOptions(subset, { ...extra, onProgress }));
       const wall = (performance.now() - t0) / 1000;
       // Time from the first segment's end to the last's: the steady state, without start-up
       // (worker threads, the first segment's read and PSD, which nothing can overlap).
@@ -322,7 +322,7 @@ startTimes.sort((a, b) => a - b);
 log(`  CLI start-up (chirpsieve --help): ${startTimes[2].toFixed(2)} s (median of 5)`);
 
 log("template bank: placement, neighbour verification, and a few draws against the whole bank…");
-const bankSettings = { massRangeSolar: [1, 3], matchFloor: 0.97, fminHz: 30, psd: ajith2011 };
+const bankSettings = { massRangeSolar: [1, 3], matchFloor: 0.97, fMinHz: 30, psd: ajith2011 };
 const tPlace = performance.now();
 const placed = buildBankWithReport(bankSettings);
 const placeSeconds = (performance.now() - tPlace) / 1000;

@@ -13,8 +13,8 @@ describe("the band a bank spans", () => {
     // (common practice, no source). Before, 30–31 Hz gave an indefinite metric (det < 0).
     const t = chirpTimesFromComponents(2, 1.5, 30);
     for (const fmax of [31, 39]) {
-      const coarse = createChirpTimeMetric({ psd: ajith2011, fLowHz: 30, fHighHz: fmax, pointsPerEFold: 60 }).at(t.tau0, t.tau3);
-      const fine = createChirpTimeMetric({ psd: ajith2011, fLowHz: 30, fHighHz: fmax, pointsPerEFold: 1200 }).at(t.tau0, t.tau3);
+      const coarse = createChirpTimeMetric({ psd: ajith2011, fMinHz: 30, fMaxHz: fmax, pointsPerEFold: 60 }).at(t.tau0, t.tau3);
+      const fine = createChirpTimeMetric({ psd: ajith2011, fMinHz: 30, fMaxHz: fmax, pointsPerEFold: 1200 }).at(t.tau0, t.tau3);
       expect(metricDensity(coarse)).toBeGreaterThan(0);
       expect(coarse.g00 * coarse.g11).toBeGreaterThan(coarse.g01 * coarse.g01);
       for (const k of ["g00", "g01", "g11"] as const) expect(Math.abs(coarse[k] / fine[k] - 1)).toBeLessThan(0.01);
@@ -24,15 +24,15 @@ describe("the band a bank spans", () => {
 
   it("is refused below 1.3 × fmin for a fixed fmax and below 1.1 × fmin for the heaviest binary's ISCO", () => {
     const base = { massRangeSolar: [1, 3] as [number, number], matchFloor: 0.97, psd: ajith2011 };
-    expect(() => buildBank({ ...base, fminHz: 30, fmaxHz: 38 })).toThrow(BandError);
-    expect(() => buildBank({ ...base, fminHz: 30, fmaxHz: 38 })).toThrow(/^fmaxHz 38 Hz must be at least 39 Hz/);
+    expect(() => buildBank({ ...base, fMinHz: 30, fMaxHz: 38 })).toThrow(BandError);
+    expect(() => buildBank({ ...base, fMinHz: 30, fMaxHz: 38 })).toThrow(/^fMaxHz 38 Hz must be at least 39 Hz/);
     // ISCO of 6 M_sun: 732.9 Hz (Schwarzschild ISCO, f = c³ / (6^{3/2} π G M); common practice, no source).
-    expect(() => buildBank({ ...base, fminHz: 700 })).toThrow(/^fminHz 700 Hz must be at most 666\.2 Hz/);
+    expect(() => buildBank({ ...base, fMinHz: 700 })).toThrow(/^fMinHz 700 Hz must be at most 666\.2 Hz/);
   });
 
   it("at the limit, 40–52 Hz for 1–3 M_sun, the bank still covers: ≥ 99% of 400 draws reach the minimal match", () => {
     // Measured: 105 templates, 100% of 400 draws, min 0.9701 (40–48 Hz covered only 98.8%).
-    const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fminHz: 40, fmaxHz: 40 * MIN_FMAX_OVER_FMIN, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fMinHz: 40, fMaxHz: 40 * MIN_FMAX_OVER_FMIN, psd: ajith2011 });
     const r = verifyBank(bank, { draws: 400, seed: "narrow-band", psd: ajith2011 });
     expect(r.fractionAboveMinimalMatch).toBeGreaterThanOrEqual(0.99);
   });

@@ -24,7 +24,7 @@ vi.mock("node:fs", async (importOriginal) => {
   return { ...fs, default: { ...fs, writeSync }, writeSync };
 });
 
-const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011, massRatioCap: 2 });
+const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fMinHz: 20, psd: ajith2011, massRatioCap: 2 });
 /** A template with unequal masses (swapping its masses makes it invalid). */
 const unequal = bank.templates.findIndex((t) => t.primaryMass > t.secondaryMass * 1.01);
 bank.generator = { tool: "chirpsieve", version: "0.0.0-test", arguments: ["bank", "--mass-range", "8:20"] };

@@ -93,7 +93,7 @@ describe("economy of the placement", () => {
     // which from 10 Hz reaches up to ~2 metric radii along the nearly degenerate direction. Against the
     // area under those contours (31 937 cells) the count is 1.19×, and 0.98× that area plus a lattice's boundary
     // layer (≈ 0.368 × perimeter / sqrt(1 − MM); metricVolume.ts).
-    const { bank, report } = buildBankWithReport({ massRangeSolar: [1, 10], matchFloor: 0.97, fminHz: 10, psd: ajith2011 });
+    const { bank, report } = buildBankWithReport({ massRangeSolar: [1, 10], matchFloor: 0.97, fMinHz: 10, psd: ajith2011 });
     expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(1.3);
     // The README's "38 055 templates, 0.67× its metric-volume estimate".
     expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(0.75);
@@ -115,7 +115,7 @@ describe("economy of a band a few cells wide", () => {
     // 1.29× the metric-volume estimate (3524; Owen, Phys. Rev. D 53, 6749 (1996)). An ideal strip
     // covering by the placement's ellipses (locally flat, no ends, no margin) needs about 4444 (1.26×);
     // the checks' 1% margin and the piece ends make the rest.
-    const { bank, report } = buildBankWithReport({ massRangeSolar: [1, 3], matchFloor: 0.97, fminHz: 30, psd: ajith2011 });
+    const { bank, report } = buildBankWithReport({ massRangeSolar: [1, 3], matchFloor: 0.97, fMinHz: 30, psd: ajith2011 });
     expect(report.templateCount / report.volumeEstimate).toBeLessThanOrEqual(1.3);
     // And the rows are safe: every one of 400 seeded TaylorF2 draws reaches the minimal match
     // (measured minimum 0.9716 on 500 draws; 3000 draws in masses and 3000 in chirp times all pass too).
@@ -133,9 +133,9 @@ describe("economy where the region is thinner than a cell", () => {
     // straight curve; common practice, no source). Measured: bound 839, bank 856 (1.02×), 3.71× the area estimate.
     const fmin = 40;
     const mm = 0.97;
-    const { bank, report } = buildBankWithReport({ massRangeSolar: [1.2, 2], matchFloor: mm, fminHz: fmin, psd: ajith2011 });
+    const { bank, report } = buildBankWithReport({ massRangeSolar: [1.2, 2], matchFloor: mm, fMinHz: fmin, psd: ajith2011 });
     const region = createMassRegion({ minMassSolar: 1.2, maxMassSolar: 2 }, fmin);
-    const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: fmin, pointsPerEFold: 60 });
+    const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: fmin, pointsPerEFold: 60 });
     let length = 0;
     const n = 200;
     let prev: [number, number] | null = null;
@@ -163,11 +163,11 @@ describe("economy where the region is thinner than a cell", () => {
     const fmin = 40;
     const mm = 0.97;
     const region = createMassRegion({ minMassSolar: 1.2, maxMassSolar: 2 }, fmin);
-    const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: fmin, pointsPerEFold: 60 });
+    const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: fmin, pointsPerEFold: 60 });
     const estimate = regionProperArea(region, (t0, t3) => metric.at(t0, t3)) / hexagonCellArea(mm);
     const bound = coveringLowerBound(region, metric, mm);
     expect(bound / estimate).toBeGreaterThan(3);
-    const { report } = buildBankWithReport({ massRangeSolar: [1.2, 2], matchFloor: mm, fminHz: fmin, psd: ajith2011 });
+    const { report } = buildBankWithReport({ massRangeSolar: [1.2, 2], matchFloor: mm, fMinHz: fmin, psd: ajith2011 });
     expect(report.templateCount).toBeGreaterThanOrEqual(bound);
     expect(report.templateCount / bound).toBeLessThanOrEqual(1.2);
   });

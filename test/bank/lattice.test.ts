@@ -11,9 +11,9 @@ import { createTaylorF2Generator } from "../../packages/core/src/waveform/taylor
 
 /** Largest metric distance, in units of sqrt(1 − MM), from seeded random points of the region to the bank. */
 function worstCoveringRatio(bank: TemplateBank, draws: number, seed: string): number {
-  const fLow = bank.fminHz;
+  const fLow = bank.fMinHz;
   const region = createMassRegion({ minMassSolar: bank.massRangeSolar[0], maxMassSolar: bank.massRangeSolar[1] }, fLow);
-  const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: fLow, pointsPerEFold: 60 });
+  const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: fLow, pointsPerEFold: 60 });
   const rng = seedrandom(seed);
   const r = Math.sqrt(1 - bank.matchFloor);
   let worst = 0;
@@ -39,17 +39,17 @@ function worstCoveringRatio(bank: TemplateBank, draws: number, seed: string): nu
 }
 
 describe("hexagonal lattice placement", () => {
-  const options = { massRangeSolar: [1.2, 2] as [number, number], matchFloor: 0.97, fminHz: 40, psd: ajith2011 };
+  const options = { massRangeSolar: [1.2, 2] as [number, number], matchFloor: 0.97, fMinHz: 40, psd: ajith2011 };
 
   it("is deterministic: the same arguments give the same bank", () => {
-    const small = { ...options, massRangeSolar: [8, 20] as [number, number], fminHz: 20 };
+    const small = { ...options, massRangeSolar: [8, 20] as [number, number], fMinHz: 20 };
     const a = buildBank(small);
     const b = buildBank(small);
     expect(b.templates).toEqual(a.templates);
   });
 
   it("keeps every template inside the mass limits, sorted by chirp mass", () => {
-    const bank = buildBank({ ...options, massRangeSolar: [5, 30], fminHz: 20, massRatioCap: 4, totalMassCapSolar: 40 });
+    const bank = buildBank({ ...options, massRangeSolar: [5, 30], fMinHz: 20, massRatioCap: 4, totalMassCapSolar: 40 });
     for (const t of bank.templates) {
       expect(t.secondaryMass).toBeGreaterThanOrEqual(5 * (1 - 1e-6));
       expect(t.primaryMass).toBeLessThanOrEqual(30 * (1 + 1e-6));
@@ -64,7 +64,7 @@ describe("hexagonal lattice placement", () => {
     // The lattice guarantees the covering radius in each patch's conservative metric; between its
     // samples the local metric differs by a few per cent. Measured: 0.97 (1.2–2 M_sun) and 0.87 (5–30).
     const w1 = worstCoveringRatio(buildBank(options), 400, "cover-bns");
-    const heavy = buildBank({ ...options, massRangeSolar: [5, 30], fminHz: 20 });
+    const heavy = buildBank({ ...options, massRangeSolar: [5, 30], fMinHz: 20 });
     const w2 = worstCoveringRatio(heavy, 400, "cover-bbh");
     expect(w1).toBeLessThan(1.01);
     expect(w2).toBeLessThan(1.01);
@@ -80,7 +80,7 @@ describe("hexagonal lattice placement", () => {
       [1, 3, 30],
       [3, 10, 20],
     ]) {
-      const settings = { massRangeSolar: [mMin, mMax] as [number, number], matchFloor: 0.97, fminHz: fmin, psd: ajith2011 };
+      const settings = { massRangeSolar: [mMin, mMax] as [number, number], matchFloor: 0.97, fMinHz: fmin, psd: ajith2011 };
       const lattice = buildBankWithReport({ ...settings, bandRows: false }).report;
       const ratio = lattice.templateCount / lattice.boundaryAwareEstimate;
       expect(ratio).toBeGreaterThan(0.85);
@@ -100,9 +100,9 @@ describe("hexagonal lattice placement", () => {
     // Uniform draws rarely land in a corner; these 60 seeded draws all do (near (mMax, mMin), the
     // heavy equal-mass end and the light equal-mass end). Measured: worst fitting factor 0.9728.
     const fLow = 20;
-    const bank = buildBank({ massRangeSolar: [3, 10], matchFloor: 0.97, fminHz: fLow, psd: ajith2011 });
-    const grid = chooseMatchGrid({ fHighHz: iscoFrequencyHz(6), lagSpanS: 4 });
-    const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fLow });
+    const bank = buildBank({ massRangeSolar: [3, 10], matchFloor: 0.97, fMinHz: fLow, psd: ajith2011 });
+    const grid = chooseMatchGrid({ fMaxHz: iscoFrequencyHz(6), lagSpanS: 4 });
+    const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: fLow });
     const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
     const sig = new Float64Array(2 * grid.nBins);
     const tpl = new Float64Array(2 * grid.nBins);
@@ -131,8 +131,8 @@ describe("hexagonal lattice placement", () => {
   it("rejects bad settings with one-line InputErrors naming the parameter", () => {
     expect(() => buildBank({ ...options, massRangeSolar: [3, 1] })).toThrow(/massRangeSolar/);
     expect(() => buildBank({ ...options, matchFloor: 1 })).toThrow(/matchFloor/);
-    expect(() => buildBank({ ...options, massRangeSolar: [1, 3], fminHz: 800 })).toThrow(/ISCO/);
-    expect(() => buildBank({ ...options, fminHz: 5 })).toThrow(/lowest frequency/);
+    expect(() => buildBank({ ...options, massRangeSolar: [1, 3], fMinHz: 800 })).toThrow(/ISCO/);
+    expect(() => buildBank({ ...options, fMinHz: 5 })).toThrow(/lowest frequency/);
     expect(() => buildBank({ ...options, massRatioCap: 1 })).toThrow(/massRatioCap/);
     // Absurd regions are refused from the count estimate, before any placement work.
     expect(() => buildBank({ ...options, massRangeSolar: [1e-3, 1e-2] })).toThrow(TemplateLimitError);

@@ -4,9 +4,9 @@ import { iscoFrequencyHz } from "../../packages/core/src/bank/chirpTimeCoordinat
 import { chooseMatchGrid, createMatchComputer } from "../../packages/core/src/bank/match.js";
 import { createTaylorF2Generator } from "../../packages/core/src/waveform/taylorf2.js";
 
-function setup(lagSpanS: number, fHighHz = 1800) {
-  const grid = chooseMatchGrid({ fHighHz, lagSpanS });
-  const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: 40 });
+function setup(lagSpanS: number, fMaxHz = 1800) {
+  const grid = chooseMatchGrid({ fMaxHz, lagSpanS });
+  const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: 40 });
   const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
   return { grid, mc, gen, a: new Float64Array(2 * grid.nBins), b: new Float64Array(2 * grid.nBins) };
 }
@@ -31,8 +31,8 @@ describe("match maximised over time and phase", () => {
   });
 
   it("without the refinement, the sampled peak alone loses match between samples", () => {
-    const grid = chooseMatchGrid({ fHighHz: 1800, lagSpanS: 2, oversample: 1 });
-    const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: 40, refinePeak: false });
+    const grid = chooseMatchGrid({ fMaxHz: 1800, lagSpanS: 2, oversample: 1 });
+    const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: 40, refinePeak: false });
     const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
     const a = new Float64Array(2 * grid.nBins);
     const b = new Float64Array(2 * grid.nBins);
@@ -69,8 +69,8 @@ describe("match maximised over time and phase", () => {
   it("integrates an abrupt ISCO end to O(df²): norms on 1 Hz and 1/32 Hz grids agree to 1e-3", () => {
     // Heavy binary ending at ~98 Hz, from 40 Hz: few bins, the end weight matters.
     const f = (lag: number) => {
-      const grid = chooseMatchGrid({ fHighHz: 200, lagSpanS: lag });
-      const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: 40 });
+      const grid = chooseMatchGrid({ fMaxHz: 200, lagSpanS: lag });
+      const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: 40 });
       const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
       const a = new Float64Array(2 * grid.nBins);
       gen.generate(a, 40, 25, 20);
@@ -147,7 +147,7 @@ describe("match maximised over time and phase", () => {
   });
 
   it("rejects an invalid grid with a one-line InputError", () => {
-    expect(() => chooseMatchGrid({ fHighHz: -1, lagSpanS: 1 })).toThrow(/fHighHz/);
-    expect(() => createMatchComputer({ dfHz: 1, nBins: 100, fftSize: 64, psd: ajith2011, fLowHz: 10 })).toThrow(/fftSize/);
+    expect(() => chooseMatchGrid({ fMaxHz: -1, lagSpanS: 1 })).toThrow(/fMaxHz/);
+    expect(() => createMatchComputer({ dfHz: 1, nBins: 100, fftSize: 64, psd: ajith2011, fMinHz: 10 })).toThrow(/fftSize/);
   });
 });

@@ -45,7 +45,7 @@ describe("chirp-time metric", () => {
     const fLow = 40;
     const [m1, m2] = [1.6, 1.3];
     const t = chirpTimes(m1, m2, fLow);
-    const g = createChirpTimeMetric({ psd: ajith2011, fLowHz: fLow }).at(t.tau0, t.tau3);
+    const g = createChirpTimeMetric({ psd: ajith2011, fMinHz: fLow }).at(t.tau0, t.tau3);
     const fUp = iscoFrequencyHz(m1 + m2);
     const n = 6000;
     const h0 = 1e-5 * t.tau0;
@@ -81,7 +81,7 @@ describe("chirp-time metric", () => {
       [5, 30, 20],
       [1, 10, 10],
     ]) {
-      const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: f });
+      const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: f });
       for (const [a, b] of [
         [mMin, mMin],
         [mMax, mMin],
@@ -100,9 +100,9 @@ describe("chirp-time metric", () => {
     const fLow = 30;
     const [m1, m2] = [2.5, 1.2];
     const t = chirpTimes(m1, m2, fLow);
-    const g = createChirpTimeMetric({ psd: ajith2011, fLowHz: fLow }).at(t.tau0, t.tau3);
-    const grid = chooseMatchGrid({ fHighHz: 1500, lagSpanS: 1 });
-    const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fLow });
+    const g = createChirpTimeMetric({ psd: ajith2011, fMinHz: fLow }).at(t.tau0, t.tau3);
+    const grid = chooseMatchGrid({ fMaxHz: 1500, lagSpanS: 1 });
+    const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: fLow });
     const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
     const a = new Float64Array(2 * grid.nBins);
     const b = new Float64Array(2 * grid.nBins);
@@ -138,13 +138,13 @@ describe("placement metric (tangent match and ISCO cutoff term)", () => {
       [12, 10, 40, 0.97],
       [2, 1.1, 30, 0.9],
     ]) {
-      const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: fLow, pointsPerEFold: 60 });
+      const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: fLow, pointsPerEFold: 60 });
       const t = chirpTimes(m1, m2, fLow);
       const tangent = metric.tangent(t.tau0, t.tau3);
       const G = placementMetric(tangent, t.tau0, t.tau3, mm);
       const D = tangent.sample.cutoffSensitivity;
-      const grid = chooseMatchGrid({ fHighHz: iscoFrequencyHz((m1 + m2) * 0.6), lagSpanS: fLow < 20 ? 16 : 2 });
-      const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fLow });
+      const grid = chooseMatchGrid({ fMaxHz: iscoFrequencyHz((m1 + m2) * 0.6), lagSpanS: fLow < 20 ? 16 : 2 });
+      const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: fLow });
       const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
       const a = new Float64Array(2 * grid.nBins);
       const b = new Float64Array(2 * grid.nBins);
@@ -174,7 +174,7 @@ describe("placement metric (tangent match and ISCO cutoff term)", () => {
 
   it("reaches well beyond the quadratic metric along the nearly degenerate direction from 10 Hz", () => {
     // The ball of radius 0.173 (MM 0.97) for 5+2 M_sun from 10 Hz: measured 2.1× the metric's area.
-    const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: 10, pointsPerEFold: 60 });
+    const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: 10, pointsPerEFold: 60 });
     const t = chirpTimes(5, 2, 10);
     const tangent = metric.tangent(t.tau0, t.tau3);
     const G = placementMetric(tangent, t.tau0, t.tau3, 0.97);
@@ -191,12 +191,12 @@ describe("placement metric (tangent match and ISCO cutoff term)", () => {
       [30, 6],
       [10, 5],
     ]) {
-      const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: fLow });
+      const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: fLow });
       const t = chirpTimes(m1, m2, fLow);
       const s = metric.sample(t.tau0, t.tau3);
       const g = s.g;
-      const grid = chooseMatchGrid({ fHighHz: iscoFrequencyHz((m1 + m2) * 0.7), lagSpanS: 1 });
-      const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fLow });
+      const grid = chooseMatchGrid({ fMaxHz: iscoFrequencyHz((m1 + m2) * 0.7), lagSpanS: 1 });
+      const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: fLow });
       const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
       const a = new Float64Array(2 * grid.nBins);
       const b = new Float64Array(2 * grid.nBins);
@@ -226,8 +226,8 @@ describe("phase chart", () => {
   it("is nearly flat: the pulled-back metric varies by less than 30 % over 1–3 M_sun from 30 Hz", () => {
     // In (τ0, τ3) the same metric varies by a factor ≈ 2.7 (0.64–1.72 about the centre).
     const region = createMassRegion({ minMassSolar: 1, maxMassSolar: 3 }, 30);
-    const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: 30 });
-    const chart = createPhaseChart({ psd: ajith2011, fLowHz: 30, region });
+    const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: 30 });
+    const chart = createPhaseChart({ psd: ajith2011, fMinHz: 30, region });
     const t0c = 0.5 * (region.tau0Min + region.tau0Max);
     const t3c = region.tau3At(t0c, 0.24);
     const ref = chart.pullBack(metric.at(t0c, t3c), t0c, t3c);
@@ -251,7 +251,7 @@ describe("phase chart", () => {
 
   it("inverts itself: toTau(toX(τ)) = τ", () => {
     const region = createMassRegion({ minMassSolar: 5, maxMassSolar: 30 }, 20);
-    const chart = createPhaseChart({ psd: ajith2011, fLowHz: 20, region });
+    const chart = createPhaseChart({ psd: ajith2011, fMinHz: 20, region });
     for (const [m1, m2] of [
       [5, 5],
       [30, 5],

@@ -60,9 +60,9 @@ describe("spin chirp-time metric", () => {
 
   it("predicts small mismatches along the spin direction to 10% of direct matches (match.ts)", () => {
     const fmin = 30;
-    const metric = createSpinMetric({ psd: ajith2011, fLowHz: fmin });
-    const grid = chooseMatchGrid({ fHighHz: 1100, lagSpanS: 4 });
-    const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fmin });
+    const metric = createSpinMetric({ psd: ajith2011, fMinHz: fmin });
+    const grid = chooseMatchGrid({ fMaxHz: 1100, lagSpanS: 4 });
+    const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: fmin });
     const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
     const a = new Float64Array(2 * grid.nBins);
     const b = new Float64Array(2 * grid.nBins);
@@ -84,7 +84,7 @@ describe("spin chirp-time metric", () => {
 
 describe("aligned-spin bank files", () => {
   const bank = {
-    fminHz: 30,
+    fMinHz: 30,
     matchFloor: 0.97,
     noiseCurve: "ajith2011",
     massRangeSolar: [5, 15] as [number, number],
@@ -119,12 +119,12 @@ describe("aligned-spin bank files", () => {
 });
 
 describe("aligned-spin bank guards", () => {
-  const base = { massRangeSolar: [5, 30] as [number, number], matchFloor: 0.97, fminHz: 30, psd: ajith2011, spinRange: [0, 0.5] as [number, number] };
+  const base = { massRangeSolar: [5, 30] as [number, number], matchFloor: 0.97, fMinHz: 30, psd: ajith2011, spinRange: [0, 0.5] as [number, number] };
   it("refuses, before placing, a bank over the template cap", () => {
     expect(() => buildSpinBank({ ...base, templateCap: 50 })).toThrow(TemplateLimitError);
   });
   it("keeps the band rule of non-spinning banks", () => {
-    expect(() => buildSpinBank({ ...base, fminHz: 70 })).toThrow(BandError);
+    expect(() => buildSpinBank({ ...base, fMinHz: 70 })).toThrow(BandError);
   });
   it("refuses an empty or reversed spin range", () => {
     expect(() => buildSpinBank({ ...base, spinRange: [0.3, 0.3] })).toThrow(/minimum 0.3 must be below/);
@@ -135,7 +135,7 @@ describe("aligned-spin bank guards", () => {
 describe("coverage of spinning signals (5–30 M_sun from 30 Hz, spins 0–0.5, ajith2011, MM 0.97; 200 draws each)", () => {
   // The 5–30 M_sun region of the check, from 30 Hz rather than a lower cutoff so that the
   // spinning bank (≈ 1 900 templates) builds in about 20 s on one core.
-  const region = { massRangeSolar: [5, 30] as [number, number], matchFloor: 0.97, fminHz: 30, psd: ajith2011 };
+  const region = { massRangeSolar: [5, 30] as [number, number], matchFloor: 0.97, fMinHz: 30, psd: ajith2011 };
   const spinRange: [number, number] = [0, 0.5];
   const flat = buildBank(region);
   const spinning = buildSpinBank({ ...region, spinRange });

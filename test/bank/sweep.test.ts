@@ -12,7 +12,7 @@ describe("match-floor sweep", () => {
   });
 
   it("trades templates against rate loss: more templates and less loss at higher match floors", () => {
-    const r = sweepMatchFloors({ massRangeSolar: [8, 20], fminHz: 20, psd: ajith2011, matchFloors: [0.9, 0.95, 0.97], draws: 60, seed: "sweep" });
+    const r = sweepMatchFloors({ massRangeSolar: [8, 20], fMinHz: 20, psd: ajith2011, matchFloors: [0.9, 0.95, 0.97], draws: 60, seed: "sweep" });
     expect(r.rows.map((x) => x.matchFloor)).toEqual([0.9, 0.95, 0.97]);
     for (let i = 1; i < r.rows.length; i++) {
       expect(r.rows[i].templateCount).toBeGreaterThan(r.rows[i - 1].templateCount);
@@ -28,7 +28,7 @@ describe("match-floor sweep", () => {
   });
 
   it("scales the measured per-template cost by templates × segments per hour", () => {
-    const cost = measureTemplateCost({ longestTemplateSeconds: 3, highestFrequencyHz: 400, fminHz: 20, repeats: 3 });
+    const cost = measureTemplateCost({ longestTemplateSeconds: 3, highestFrequencyHz: 400, fMinHz: 20, repeats: 3 });
     expect(cost.segmentSeconds).toBe(8);
     expect(cost.sampleRate).toBe(1024);
     expect(cost.segmentsPerHour).toBe(900);

@@ -13,10 +13,10 @@ const psd = psdModelByName("ajith2011");
  * 0.99999 (and 1/500 for 8–12 M_sun), where the loss from the templates' different ISCO cutoffs,
  * linear in their separation, outweighs the quadratic metric.
  */
-const cases: { massRangeSolar: [number, number]; fminHz: number; floors: number[] }[] = [
-  { massRangeSolar: [8, 9], fminHz: 40, floors: [MIN_MATCH_FLOOR, 0.97, 0.9999, MAX_MATCH_FLOOR] },
-  { massRangeSolar: [20, 25], fminHz: 20, floors: [0.9, 0.999, 0.9999] },
-  { massRangeSolar: [1.4, 1.6], fminHz: 40, floors: [MIN_MATCH_FLOOR, 0.97, 0.999] },
+const cases: { massRangeSolar: [number, number]; fMinHz: number; floors: number[] }[] = [
+  { massRangeSolar: [8, 9], fMinHz: 40, floors: [MIN_MATCH_FLOOR, 0.97, 0.9999, MAX_MATCH_FLOOR] },
+  { massRangeSolar: [20, 25], fMinHz: 20, floors: [0.9, 0.999, 0.9999] },
+  { massRangeSolar: [1.4, 1.6], fMinHz: 40, floors: [MIN_MATCH_FLOOR, 0.97, 0.999] },
 ];
 
 describe("template-count estimate", () => {
@@ -25,9 +25,9 @@ describe("template-count estimate", () => {
   });
 
   for (const c of cases) {
-    it(`is within 0.5–2× of the placed count for ${c.massRangeSolar.join("–")} M_sun from ${c.fminHz} Hz, match floors ${c.floors.join(", ")}`, () => {
+    it(`is within 0.5–2× of the placed count for ${c.massRangeSolar.join("–")} M_sun from ${c.fMinHz} Hz, match floors ${c.floors.join(", ")}`, () => {
       for (const matchFloor of c.floors) {
-        const options: BuildBankOptions = { massRangeSolar: c.massRangeSolar, fminHz: c.fminHz, matchFloor, psd };
+        const options: BuildBankOptions = { massRangeSolar: c.massRangeSolar, fMinHz: c.fMinHz, matchFloor, psd };
         const estimate = estimateTemplateCount(options);
         const { report } = buildBankWithReport(options);
         const ratio = report.templateCount / estimate;
@@ -40,7 +40,7 @@ describe("template-count estimate", () => {
   }
 
   it("refuses 8–12 M_sun from 40 Hz at 0.99999 from its estimate (~2.1e6; placement once made 2 148 404)", () => {
-    const options: BuildBankOptions = { massRangeSolar: [8, 12], fminHz: 40, matchFloor: 0.99999, psd };
+    const options: BuildBankOptions = { massRangeSolar: [8, 12], fMinHz: 40, matchFloor: 0.99999, psd };
     const estimate = estimateTemplateCount(options);
     expect(estimate).toBeGreaterThan(1.5e6);
     expect(estimate).toBeLessThan(3e6);
@@ -48,7 +48,7 @@ describe("template-count estimate", () => {
   });
 
   it("placement stops past the limit when the estimate let it start (20–25 M_sun from 20 Hz at 0.5: estimate 1.4, count 2)", () => {
-    const options: BuildBankOptions = { massRangeSolar: [20, 25], fminHz: 20, matchFloor: 0.5, psd, templateCap: 1.5 };
+    const options: BuildBankOptions = { massRangeSolar: [20, 25], fMinHz: 20, matchFloor: 0.5, psd, templateCap: 1.5 };
     expect(estimateTemplateCount(options)).toBeLessThanOrEqual(1.5);
     let error: unknown;
     try {
@@ -64,7 +64,7 @@ describe("template-count estimate", () => {
     for (const matchFloor of [0.3, 0.999999]) {
       let error: unknown;
       try {
-        estimateTemplateCount({ massRangeSolar: [8, 9], fminHz: 40, matchFloor, psd });
+        estimateTemplateCount({ massRangeSolar: [8, 9], fMinHz: 40, matchFloor, psd });
       } catch (err) {
         error = err;
       }

@@ -5,7 +5,7 @@ import { drawInRegion } from "../../packages/core/src/bank/verify.js";
 
 describe("bank verification", () => {
   it("near-template search finds the same fitting factors as a brute-force maximum over the whole bank", () => {
-    const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.9, fminHz: 20, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.9, fMinHz: 20, psd: ajith2011 });
     const opts = { draws: 80, seed: "near-vs-all", psd: ajith2011, worstCount: 80 };
     const near = verifyBank(bank, opts);
     const all = verifyBank(bank, { ...opts, exhaustive: true });
@@ -15,7 +15,7 @@ describe("bank verification", () => {
   });
 
   it("near-template search agrees with brute force for TaylorT4 signals too", () => {
-    const bank = buildBank({ massRangeSolar: [10, 20], matchFloor: 0.95, fminHz: 25, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [10, 20], matchFloor: 0.95, fMinHz: 25, psd: ajith2011 });
     const opts = { draws: 12, seed: "pn-time", psd: ajith2011, signal: "pn-time" as const, worstCount: 12 };
     const near = verifyBank(bank, opts);
     const all = verifyBank(bank, { ...opts, exhaustive: true });
@@ -27,7 +27,7 @@ describe("bank verification", () => {
   });
 
   it("is seeded: the same seed gives the same report, another seed other draws", () => {
-    const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fminHz: 20, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [8, 20], matchFloor: 0.95, fMinHz: 20, psd: ajith2011 });
     const a = verifyBank(bank, { draws: 30, seed: "s1", psd: ajith2011 });
     const b = verifyBank(bank, { draws: 30, seed: "s1", psd: ajith2011 });
     const c = verifyBank(bank, { draws: 30, seed: "s2", psd: ajith2011 });
@@ -48,7 +48,7 @@ describe("bank verification", () => {
   });
 
   it("verifies a bank of thousands of templates in seconds (1–3 M_sun from 30 Hz, 1000 draws)", () => {
-    const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fminHz: 30, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fMinHz: 30, psd: ajith2011 });
     expect(bank.templates.length).toBeGreaterThan(4000);
     const r = verifyBank(bank, { draws: 1000, seed: "thousands", psd: ajith2011 });
     // No timing assertion (loaded machine); r.wallTimeMs is reported. Coverage must hold.

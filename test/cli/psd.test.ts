@@ -42,7 +42,7 @@ describe("chirpsieve psd", () => {
     expect(Math.abs(ratio / 850 - 1)).toBeLessThan(0.02);
     // Nyquist 1024 Hz is below the ISCO frequency, so the integral stops there. Estimating S from
     // the data raises 1/S on average (Jensen), so allow a few % above the model's horizon.
-    const model = horizonDistance({ massSolar1: 1.4, massSolar2: 1.4, psd: ajith2011, fLowHz: 20, fHighHz: 1024 });
+    const model = horizonDistance({ massSolar1: 1.4, massSolar2: 1.4, psd: ajith2011, fMinHz: 20, fMaxHz: 1024 });
     expect(j.horizonMpc1p4 / model.horizonMpc).toBeGreaterThan(0.97);
     expect(j.horizonMpc1p4 / model.horizonMpc).toBeLessThan(1.08);
     expect(j.rangeMpc1p4).toBeCloseTo(j.horizonMpc1p4 / 2.264, 10);

@@ -51,7 +51,7 @@ describe("chirpsieve recover: a small campaign", () => {
     expect(Object.keys(doc.summary).slice(0, 8)).toEqual(["injections", "found", "missed", "efficiency", "efficiencyLower", "efficiencyUpper", "interval", "efficiencyBySnr"]);
     expect(Object.keys(doc.injections[0])).toEqual([
       "index", "batch", "primaryMass", "secondaryMass", "chirpMass", "coalescenceTime", "arrivalTime", "distanceMpc", "inclination",
-      "rightAscension", "declination", "polarization", "phase", "optimalSnr", "found", "recoveredSnr", "reweightedSnr",
+      "rightAscension", "declination", "polarisation", "phase", "optimalSnr", "found", "recoveredSnr", "reweightedSnr",
       "recoveredChirpMass", "chirpMassError", "timeError",
     ]);
     expect(doc.summary.injections).toBe(12);

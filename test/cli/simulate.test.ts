@@ -17,7 +17,7 @@ const oneInjection = {
   inclination: 0.4,
   rightAscension: 2,
   declination: 0.3,
-  polarization: 1,
+  polarisation: 1,
   phase: 0.5,
 };
 

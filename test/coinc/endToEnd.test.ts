@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, analyseCoincidences, arraySource, chirpMass, colouredNoise, loadFftBackends, searchSource, type SearchOptions, type SearchTemplate } from "@chirpsieve/core";
+import { ajith2011, analyseCoincidences, arrayInput, chirpMass, colouredNoise, loadFftBackends, searchStrain, type SearchOptions, type SearchTemplate } from "@chirpsieve/core";
 import { interSiteDelay } from "../../packages/core/src/coinc/interSiteDelay.js";
 import { BUILTIN_SITES } from "../../packages/core/src/coinc/sites.js";
 
@@ -21,7 +21,7 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
       templates,
       fMinHz: 30,
       snrThreshold: 4,
-      chi2Bins: 4,
+      chi2Bands: 4,
       loudestWithinSeconds: 0.1,
       psd: { kind: "model", model: ajith2011 },
       fftBackend: "pffft",
@@ -30,7 +30,7 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
     const scans = [];
     for (const [det, seed] of [[A, "e2e-site-a"], [B, "e2e-site-b"]] as const) {
       const data = colouredNoise(ajith2011, seconds * fs, fs, seed);
-      const { candidates, summary } = await searchSource(arraySource(data, fs, start, `${det.name}.synthetic`), options);
+      const { candidates, summary } = await searchStrain(arrayInput(data, fs, start, `${det.name}.synthetic`), options);
       scans.push({ detector: det, candidates, analysedSeconds: summary.analysedSeconds, startTime: start, endTime: start + seconds });
     }
     const r = analyseCoincidences(scans, { slideStepSeconds: 1 });

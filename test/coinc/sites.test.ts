@@ -82,13 +82,13 @@ describe("injectionAtSites", () => {
   it("takes antenna factors and delays from the shared antenna code", () => {
     const inj: Injection = {
       primaryMass: 1.4, secondaryMass: 1.3, coalescenceTime: 12_345.6, distance: 50, inclination: 0.4,
-      rightAscension: 2.1, declination: -0.3, polarization: 0.8, phase: 0.1,
+      rightAscension: 2.1, declination: -0.3, polarisation: 0.8, phase: 0.1,
     };
     const dets = BUILTIN_SITES.map((s) => s.detector);
     const out = injectionAtSites(inj, dets);
     const g = siderealAngle(inj.coalescenceTime);
     out.forEach((r, i) => {
-      const f = plusCrossResponse(dets[i], inj, inj.polarization, g);
+      const f = plusCrossResponse(dets[i], inj, inj.polarisation, g);
       expect(r.site).toBe(dets[i].name);
       expect(r.plus).toBe(f.plus);
       expect(r.cross).toBe(f.cross);

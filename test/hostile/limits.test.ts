@@ -136,7 +136,7 @@ describe("messages in the user's terms, blaming the right flag or file", () => {
   });
   it("--fmin 1e-9 names --fmin", () => {
     const r = expectRefusal(["scan", "ok.f64", "--mass-range", "8:12", "--fmin", "1e-9"], "--fmin");
-    expect(r.stderr).not.toMatch(/fminHz/);
+    expect(r.stderr).not.toMatch(/fMinHz/);
   });
   it("an unknown input extension lists the readable extensions and does not suggest --format", () => {
     const r = expectRefusal(["scan", "ok.xyz", ...scanArgs], "ok.xyz", ".f64");

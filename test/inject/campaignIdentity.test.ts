@@ -9,7 +9,7 @@ const base: CampaignOptions = {
     templates: [{ primaryMass: 10, secondaryMass: 9 }],
     fMinHz: 30,
     snrThreshold: 6,
-    chi2Bins: 16,
+    chi2Bands: 16,
     loudestWithinSeconds: 1,
     psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
     fftBackend: "fftjs",

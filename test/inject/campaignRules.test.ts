@@ -4,7 +4,7 @@ import { arrivalTimeAt, matchInjections } from "../../packages/core/src/inject/m
 import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 function injection(t: number): Injection {
-  return { primaryMass: 1.4, secondaryMass: 1.4, coalescenceTime: t, distance: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarization: 0.2, phase: 0.7 };
+  return { primaryMass: 1.4, secondaryMass: 1.4, coalescenceTime: t, distance: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarisation: 0.2, phase: 0.7 };
 }
 
 function candidate(t: number, snr: number): Candidate {
@@ -57,7 +57,7 @@ function outcome(i: number, snr: number, found: boolean, distanceMpc = 100, mcEr
     inclination: 0,
     rightAscension: 0,
     declination: 0,
-    polarization: 0,
+    polarisation: 0,
     phase: 0,
     optimalSnr: snr,
     found,

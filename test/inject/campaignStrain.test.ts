@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import {
   ajith2011,
-  arraySource,
+  arrayInput,
   colouredNoise,
   loadFftBackends,
   planCampaign,
@@ -23,7 +23,7 @@ function strainCampaign(count: number, seconds: number, distribution?: "uniform"
     population: distribution
       ? { count, massRangeSolar: [8, 12], distanceMpc: [200, 600], distanceDistribution: distribution, seed: "strain" }
       : { count, massRangeSolar: [8, 12], snrRange: [12, 20], seed: "strain" },
-    data: { kind: "strain", sources: [arraySource(noise, FS, 1000, "user.f64")] },
+    data: { kind: "strain", sources: [arrayInput(noise, FS, 1000, "user.f64")] },
     search: standardSearch(chirpMassGrid(6.5, 10.6, 0.01, [1, 0.75]), 30, 7),
     injectionsPerBatch: 4,
   };

@@ -12,7 +12,7 @@ const base: Injection = {
   inclination: 0.7,
   rightAscension: 2.1,
   declination: -0.4,
-  polarization: 0.9,
+  polarisation: 0.9,
   phase: 1.3,
 };
 
@@ -52,7 +52,7 @@ describe("projectInjection / injectInto", () => {
     const start = 1_000_000_000;
     const seg = projectInjection(base, SITE_A, { sampleRate: fs, gridStartTime: start, fMinHz: 30 });
     const gmst = siderealAngle(base.coalescenceTime);
-    const f = plusCrossResponse(SITE_A, base, base.polarization, gmst);
+    const f = plusCrossResponse(SITE_A, base, base.polarisation, gmst);
     const delay = geocentreDelay(SITE_A, base, gmst);
     const wf = taylorT4({
       massSolar1: 10,

@@ -13,7 +13,7 @@ const one: Injection = {
   inclination: 0.5,
   rightAscension: 1,
   declination: 0.2,
-  polarization: 0.3,
+  polarisation: 0.3,
   phase: 0.4,
   optimalSnr: 17.5,
 };

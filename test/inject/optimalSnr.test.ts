@@ -18,7 +18,7 @@ const overhead: Injection = {
   inclination: 0,
   rightAscension: 0,
   declination: 0,
-  polarization: 0,
+  polarisation: 0,
   phase: 0,
 };
 

@@ -13,7 +13,7 @@ const injections: Injection[] = [
     inclination: 0.3,
     rightAscension: 4,
     declination: 0.6,
-    polarization: 2,
+    polarisation: 2,
     phase: 0.1,
   },
   {
@@ -24,7 +24,7 @@ const injections: Injection[] = [
     inclination: 2.5,
     rightAscension: 1,
     declination: -1,
-    polarization: 0.5,
+    polarisation: 0.5,
     phase: 3,
   },
 ];

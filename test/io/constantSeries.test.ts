@@ -1,13 +1,13 @@
 import { writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { describeConstantSeries, findConstantSeries, isDimensionlessStrain, openStrain, strainSourceFromSeries, writeStrain } from "@chirpsieve/core";
+import { describeConstantSeries, findConstantSeries, isDimensionlessStrain, openStrain, strainReaderFromSeries, writeStrain } from "@chirpsieve/core";
 import { checkNotConstant } from "../../packages/core/src/io/constantSeries.js";
 import { inputErrorOf, syntheticStrain, useTempDir } from "./tempDir.js";
 
 const tmp = useTempDir("constant");
 
 function memory(data: number[] | Float64Array, file = "mem") {
-  return strainSourceFromSeries({ data: Float64Array.from(data), sampleRate: 16, startTime: 0, file });
+  return strainReaderFromSeries({ data: Float64Array.from(data), sampleRate: 16, startTime: 0, file });
 }
 
 describe("constant series (no strain to search)", () => {

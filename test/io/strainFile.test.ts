@@ -1,6 +1,6 @@
 import { mkdirSync, writeFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { InputError, openStrain, readStrain, strainFormatOf, strainSourceFromSeries, writeStrain } from "@chirpsieve/core";
+import { InputError, openStrain, readStrain, strainFormatOf, strainReaderFromSeries, writeStrain } from "@chirpsieve/core";
 import { useTempDir, inputErrorOf } from "./tempDir.js";
 
 const tmp = useTempDir("file");
@@ -58,9 +58,9 @@ describe("strain file format and writer checks", () => {
     expect(await inputErrorOf(openStrain(d, { rate: 1 }))).toBe(`${d}: is a directory, not a file`);
   });
 
-  it("strainSourceFromSeries serves copies of an in-memory series in chunks", async () => {
+  it("strainReaderFromSeries serves copies of an in-memory series in chunks", async () => {
     const data = new Float64Array([1, 2, 3, 4, 5]);
-    const src = strainSourceFromSeries({ data, sampleRate: 10, startTime: 2, file: "(memory)", label: "synthetic" });
+    const src = strainReaderFromSeries({ data, sampleRate: 10, startTime: 2, file: "(memory)", label: "synthetic" });
     expect(src).toMatchObject({ length: 5, sampleRate: 10, startTime: 2, file: "(memory)", label: "synthetic" });
     const chunk = await src.read(1, 3);
     expect([...chunk]).toEqual([2, 3, 4]);
@@ -68,6 +68,6 @@ describe("strain file format and writer checks", () => {
     expect(data[1]).toBe(2);
     await expect(src.read(4, 2)).rejects.toBeInstanceOf(RangeError);
     await src.close();
-    expect(() => strainSourceFromSeries({ data, sampleRate: -1, startTime: 0, file: "m" })).toThrow(/m: sampleRate must be a positive number/);
+    expect(() => strainReaderFromSeries({ data, sampleRate: -1, startTime: 0, file: "m" })).toThrow(/m: sampleRate must be a positive number/);
   });
 });

@@ -56,7 +56,7 @@ describe("text strain files", () => {
     expect(await inputErrorOf(readStrain(p, { rate: 10 }))).toBe(`${p}: line 3: malformed number "oops"`);
   });
 
-  it("chunked reads through the same StrainSource equal the whole read", async () => {
+  it("chunked reads through the same StrainReader equal the whole read", async () => {
     const p = tmp.path("chunks.txt");
     await writeStrain(p, { data, sampleRate: 1000, startTime: 0.5 });
     const whole = (await readStrain(p)).data;

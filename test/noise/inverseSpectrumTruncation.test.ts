@@ -50,7 +50,7 @@ describe("inverse spectrum truncation", () => {
     const psd = heldAjith();
     const kLine = Math.round(60 / df);
     psd[kLine] *= 1e4; // one-bin line at 60 Hz
-    const t = truncateInverseSpectrum(psd, { sampleRate: fs, lengthSamples: fs, fLowHz: 15 });
+    const t = truncateInverseSpectrum(psd, { sampleRate: fs, lengthSamples: fs, fMinHz: 15 });
     expect(t.lengthSamples).toBe(fs);
     let worst = 0;
     for (let k = Math.round(25 / df); k < Math.round(2000 / df); k++) {

@@ -28,7 +28,7 @@ describe("whiten", () => {
   }
 
   it("turns ajith2011 noise into unit-variance noise with a flat spectrum (model PSD)", () => {
-    const y = whiten(x, fs, ajith2011, { fLowHz: fLow });
+    const y = whiten(x, fs, ajith2011, { fMinHz: fLow });
     const { variance, worstBand } = statistics(y);
     // Kept fraction of the band: 1 − 2·fLow/fs; the variance of a variance estimate from N samples
     // of white noise is 2/N (here N = 229 376: σ ≈ 0.003).
@@ -38,8 +38,8 @@ describe("whiten", () => {
 
   it("does the same with a Welch estimate, truncated, on another grid (interpolated)", () => {
     const est = welchPsd(x, fs, { segmentLength: 4 * fs, average: "median" });
-    const truncated = truncateInverseSpectrum(est.psd, { sampleRate: fs, lengthSeconds: 2, fLowHz: fLow });
-    const y = whiten(x, fs, { df: truncated.df, psd: truncated.psd }, { fLowHz: fLow });
+    const truncated = truncateInverseSpectrum(est.psd, { sampleRate: fs, lengthSeconds: 2, fMinHz: fLow });
+    const y = whiten(x, fs, { df: truncated.df, psd: truncated.psd }, { fMinHz: fLow });
     const { variance, worstBand } = statistics(y);
     // Whitening by a noisy estimate Ŝ raises the variance by E[S/Ŝ] ≈ 1 + Var(Ŝ)/S² (Jensen). For a
     // median of K unit exponentials, Var ≈ 1/(4K·p(m)²) = 1/K (asymptotic variance of a sample
@@ -53,12 +53,12 @@ describe("whiten", () => {
   });
 
   it("zeroes the band outside [fLow, fHigh] and rejects bad arguments", () => {
-    const y = whiten(x.subarray(0, 8 * fs), fs, ajith2011, { fLowHz: 100, fHighHz: 200 });
+    const y = whiten(x.subarray(0, 8 * fs), fs, ajith2011, { fMinHz: 100, fMaxHz: 200 });
     const w = welchPsd(y, fs, { segmentLength: fs });
     expect(w.psd[Math.round(50 / w.df)]).toBeLessThan(1e-6 * w.psd[150]);
     expect(w.psd[Math.round(400 / w.df)]).toBeLessThan(1e-6 * w.psd[150]);
     expect(() => whiten(x, 0, ajith2011)).toThrow(/sampleRate/);
-    expect(() => whiten(x, fs, ajith2011, { fLowHz: 30, fHighHz: 20 })).toThrow(/fHighHz/);
+    expect(() => whiten(x, fs, ajith2011, { fMinHz: 30, fMaxHz: 20 })).toThrow(/fMaxHz/);
     expect(() => whiten(new Float64Array(2), fs, ajith2011)).toThrow(/at least 4 samples/);
   });
 });

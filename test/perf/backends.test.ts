@@ -1,7 +1,7 @@
 // The FFT backends (fft.js in double precision, pffft-wasm in single precision) give the same
 // search result for the same injection.
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, arraySource, loadFftBackends, searchSource, type SearchOptions } from "@chirpsieve/core";
+import { ajith2011, arrayInput, loadFftBackends, searchStrain, type SearchOptions } from "@chirpsieve/core";
 import { arrivalTime, atSnr, chirpMassGrid, injectionAt, simulatedData } from "../search/fixtures.js";
 
 const FS = 2048;
@@ -20,13 +20,13 @@ describe("FFT backends agree on the search output", () => {
         templates: chirpMassGrid(7, 9, 0.01, [1, 0.8]),
         fMinHz: FMIN,
         snrThreshold: 6,
-        chi2Bins: 16,
+        chi2Bands: 16,
         loudestWithinSeconds: 1,
         psd: psd === "model" ? { kind: "model", model: ajith2011 } : { kind: "estimate", segmentSeconds: 4, average: "median" },
         threads: 1,
       };
       const loudest = async (fftBackend: "pffft" | "fftjs") => {
-        const { candidates, summary } = await searchSource(arraySource(data, FS), { ...base, fftBackend });
+        const { candidates, summary } = await searchStrain(arrayInput(data, FS), { ...base, fftBackend });
         expect(summary.fftBackend).toBe(fftBackend);
         return candidates.reduce((a, b) => (b.snr > a.snr ? b : a));
       };

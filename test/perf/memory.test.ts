@@ -3,7 +3,7 @@
 // scanned within a fixed RSS bound, not far above the peak of a 10-minute scan.
 import seedrandom from "seedrandom";
 import { beforeAll, describe, expect, it } from "vitest";
-import { loadFftBackends, searchSource, type SearchInput, type SearchOptions } from "@chirpsieve/core";
+import { loadFftBackends, searchStrain, type SearchInput, type SearchOptions } from "@chirpsieve/core";
 import { flatPsd } from "../../packages/core/src/noise/psdModel.js";
 
 const FS = 4096;
@@ -57,7 +57,7 @@ const options: SearchOptions = {
   ],
   fMinHz: 40,
   snrThreshold: 6,
-  chi2Bins: 16,
+  chi2Bands: 16,
   loudestWithinSeconds: 1,
   psd: { kind: "model", model: flatPsd() },
   fftBackend: "pffft",
@@ -67,7 +67,7 @@ const options: SearchOptions = {
 /** Peak RSS (bytes) sampled after every segment of a scan, and the scan's summary. */
 async function scanPeakRss(input: SearchInput) {
   let peak = process.memoryUsage().rss;
-  const result = await searchSource(input, {
+  const result = await searchStrain(input, {
     ...options,
     onProgress: () => {
       peak = Math.max(peak, process.memoryUsage().rss);

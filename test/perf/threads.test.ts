@@ -5,7 +5,7 @@ import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, arraySource, createBankFilter, createSegmentFilter, loadFftBackends, searchSource, type Candidate, type SearchOptions } from "@chirpsieve/core";
+import { ajith2011, arrayInput, createBankFilter, createSegmentFilter, loadFftBackends, searchStrain, type Candidate, type SearchOptions } from "@chirpsieve/core";
 import { type Trigger } from "../../packages/core/src/filter/peaks.js";
 import { createSearchPool, searchWorkerUrl } from "../../packages/core/src/search/workerPool.js";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData } from "../search/fixtures.js";
@@ -46,18 +46,18 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
         templates: chirpMassGrid(1.1, 1.6, 0.01, [1, 0.5]).filter((_, i) => fftBackend === "pffft" || i % 4 === 0),
         fMinHz: FMIN,
         snrThreshold: 5.5,
-        chi2Bins: 16,
+        chi2Bands: 16,
         loudestWithinSeconds: 1,
         psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
         segmentSeconds: 128,
         fftBackend,
       };
-      const one = await searchSource(arraySource(data, FS), { ...options, threads: 1 });
+      const one = await searchStrain(arrayInput(data, FS), { ...options, threads: 1 });
       expect(one.summary.threads).toBe(1);
       expect(one.summary.segments).toBeGreaterThan(1);
       if (fftBackend === "pffft") expect(one.candidates.filter((c) => c.snr > 9)).toHaveLength(2);
       for (const threads of counts) {
-        const many = await searchSource(arraySource(data, FS), { ...options, threads });
+        const many = await searchStrain(arrayInput(data, FS), { ...options, threads });
         expect(many.summary.threads).toBe(threads);
         expectSameCandidates(one.candidates, many.candidates);
       }
@@ -99,12 +99,12 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
       templates: [{ primaryMass: 10, secondaryMass: 8 }],
       fMinHz: FMIN,
       snrThreshold: 6,
-      chi2Bins: 0,
+      chi2Bands: 0,
       loudestWithinSeconds: 1,
       psd: { kind: "model", model: ajith2011 },
     };
     for (const threads of [0, 1.5, -2, NaN]) {
-      await expect(searchSource(arraySource(data, FS), { ...options, threads })).rejects.toThrow(/threads must be a positive integer/);
+      await expect(searchStrain(arrayInput(data, FS), { ...options, threads })).rejects.toThrow(/threads must be a positive integer/);
     }
   });
 });

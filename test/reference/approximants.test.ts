@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { ajith2011, arraySource, searchSource } from "@chirpsieve/core";
+import { ajith2011, arrayInput, searchStrain } from "@chirpsieve/core";
 import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
 import { injectionAt, simulatedData } from "../search/fixtures.js";
 
@@ -16,11 +16,11 @@ async function overlap(m1: number, m2: number, fMin: number): Promise<number> {
   const inj = injectionAt(m1, m2, 90.25, { distance: 100 });
   const data = simulatedData({ psd: ajith2011, fs, seconds: 128, seed: "none", fMin, injections: [inj], noise: false });
   const optimal = optimalSnrOfSeries(data, ajith2011, fs, fMin);
-  const { candidates } = await searchSource(arraySource(data, fs), {
+  const { candidates } = await searchStrain(arrayInput(data, fs), {
     templates: [{ primaryMass: m1, secondaryMass: m2 }],
     fMinHz: fMin,
     snrThreshold: 1,
-    chi2Bins: 0,
+    chi2Bands: 0,
     loudestWithinSeconds: 1,
     psd: { kind: "model", model: ajith2011 },
     // Noise-free data is mostly exact zeros, and the signal an excursion over no noise: neither screened nor gated.

@@ -13,12 +13,12 @@ function metricVersusDirect(points: [number, number, number][], levels: number[]
   const rng = seedrandom(seed);
   const rows: { predicted: number; tangent: number; direct: number }[] = [];
   for (const [m1, m2, fLow] of points) {
-    const metric = createChirpTimeMetric({ psd: ajith2011, fLowHz: fLow });
+    const metric = createChirpTimeMetric({ psd: ajith2011, fMinHz: fLow });
     const t = chirpTimesFromComponents(m1, m2, fLow);
     const g = metric.at(t.tau0, t.tau3);
     const tangent = metric.tangent(t.tau0, t.tau3);
-    const grid = chooseMatchGrid({ fHighHz: iscoFrequencyHz((m1 + m2) * 0.7), lagSpanS: 1 });
-    const mc = createMatchComputer({ ...grid, psd: ajith2011, fLowHz: fLow });
+    const grid = chooseMatchGrid({ fMaxHz: iscoFrequencyHz((m1 + m2) * 0.7), lagSpanS: 1 });
+    const mc = createMatchComputer({ ...grid, psd: ajith2011, fMinHz: fLow });
     const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
     const a = new Float64Array(2 * grid.nBins);
     const b = new Float64Array(2 * grid.nBins);
@@ -93,7 +93,7 @@ describe("template metric against directly computed matches (Owen 1996)", () => 
 
 describe("coverage of TaylorF2 signals (minimal match 0.97, ajith2011)", () => {
   it("1.2–2 M_sun from 40 Hz: at least 99% of 500 draws reach 0.97, and ⟨FF³⟩ ≥ MM³ (Owen 1996)", () => {
-    const bank = buildBank({ massRangeSolar: [1.2, 2], matchFloor: 0.97, fminHz: 40, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [1.2, 2], matchFloor: 0.97, fMinHz: 40, psd: ajith2011 });
     const r = verifyBank(bank, { draws: 500, seed: "coverage-bns", psd: ajith2011 });
     expect(r.fractionAboveMinimalMatch).toBeGreaterThanOrEqual(0.99);
     // Event-rate loss of a bank with minimal match MM is at most 1 − MM³ (Owen 1996).
@@ -101,14 +101,14 @@ describe("coverage of TaylorF2 signals (minimal match 0.97, ajith2011)", () => {
   });
 
   it("5–30 M_sun from 20 Hz: at least 99% of 500 draws reach 0.97, and ⟨FF³⟩ ≥ MM³", () => {
-    const bank = buildBank({ massRangeSolar: [5, 30], matchFloor: 0.97, fminHz: 20, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [5, 30], matchFloor: 0.97, fMinHz: 20, psd: ajith2011 });
     const r = verifyBank(bank, { draws: 500, seed: "coverage-bbh", psd: ajith2011 });
     expect(r.fractionAboveMinimalMatch).toBeGreaterThanOrEqual(0.99);
     expect(r.meanCube).toBeGreaterThanOrEqual(0.97 ** 3);
   });
 
   it("draws uniform in chirp times are covered as well (1–3 M_sun from 40 Hz)", () => {
-    const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fminHz: 40, psd: ajith2011 });
+    const bank = buildBank({ massRangeSolar: [1, 3], matchFloor: 0.97, fMinHz: 40, psd: ajith2011 });
     const r = verifyBank(bank, { draws: 300, seed: "coverage-tau", drawSpace: "chirp-times", psd: ajith2011 });
     expect(r.fractionAboveMinimalMatch).toBeGreaterThanOrEqual(0.99);
   });
@@ -118,8 +118,8 @@ describe("two-dimensional scaling of the template count (Owen 1996)", () => {
   it("halving 1 − MM nearly doubles the count (between the 1-D √2 and the 2-D 2)", () => {
     // Owen 1996: N ∝ (1 − MM)^{−D/2} for a D-dimensional parameter space; D = 2 here, less the
     // boundary layer, which scales as (1 − MM)^{−1/2}.
-    const a = buildBankWithReport({ massRangeSolar: [3, 10], matchFloor: 0.97, fminHz: 20, psd: ajith2011 }).report;
-    const b = buildBankWithReport({ massRangeSolar: [3, 10], matchFloor: 0.985, fminHz: 20, psd: ajith2011 }).report;
+    const a = buildBankWithReport({ massRangeSolar: [3, 10], matchFloor: 0.97, fMinHz: 20, psd: ajith2011 }).report;
+    const b = buildBankWithReport({ massRangeSolar: [3, 10], matchFloor: 0.985, fMinHz: 20, psd: ajith2011 }).report;
     // Measured: 976 → 1878 templates, ×1.92.
     const ratio = b.templateCount / a.templateCount;
     expect(ratio).toBeGreaterThan(1.75);

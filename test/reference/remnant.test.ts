@@ -80,7 +80,7 @@ describe("inspiral share of the SNR when the signal continues to the ringdown fr
     expect(inspiralSnrShare(60, 50, ajith2011, 30).share).toBeCloseTo(0.214, 3);
   });
   it("is 1 when an upper cut lies below the ISCO, and 0 when fLow is above the ISCO", () => {
-    expect(inspiralSnrShare(10, 10, ajith2011, 30, { fHighHz: 150 }).share).toBe(1);
+    expect(inspiralSnrShare(10, 10, ajith2011, 30, { fMaxHz: 150 }).share).toBe(1);
     expect(inspiralSnrShare(60, 50, ajith2011, 50).share).toBe(0);
   });
 });

@@ -33,7 +33,7 @@ beforeAll(async () => {
     frequencies[i] = 20 + (i * (FS / 2 - 20)) / n;
     psd[i] = ajith2011.evaluate(frequencies[i]);
   }
-  const bank = buildBank({ massRangeSolar: [8, 12], matchFloor: 0.95, fminHz: 30, psd: ajith2011 });
+  const bank = buildBank({ massRangeSolar: [8, 12], matchFloor: 0.95, fMinHz: 30, psd: ajith2011 });
   const sweep: SweepResult = {
     draws: 10,
     signal: "taylorf2",
@@ -46,7 +46,7 @@ beforeAll(async () => {
     "psd": renderAsdPlot(estimate, 30, "noise.f32"),
     "scan-psd": renderSegmentAsdPlot(frequencies, psd),
     "bank": renderBankPlot(bank),
-    "sweep": renderSweepPlot(sweep, { massRangeSolar: [8, 12], fminHz: 30 }),
+    "sweep": renderSweepPlot(sweep, { massRangeSolar: [8, 12], fMinHz: 30 }),
   };
   reportHtml = renderCampaignReport(await smallCampaignDocument());
 });

@@ -2,7 +2,7 @@
 // overflowing the single-precision FFT and silently losing every candidate of the segment.
 import { beforeAll, describe, expect, it } from "vitest";
 import seedrandom from "seedrandom";
-import { InputError, ajith2011, arraySource, loadFftBackends, searchSource } from "@chirpsieve/core";
+import { InputError, ajith2011, arrayInput, loadFftBackends, searchStrain } from "@chirpsieve/core";
 import { firstCorruptSample } from "../../packages/core/src/search/corruptSample.js";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch } from "./fixtures.js";
 
@@ -35,19 +35,19 @@ describe("corrupt samples", () => {
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 256, seed: "corrupt-scan", fMin: FMIN, injections: [inj] });
     data[1000] = 1e30;
     const opts = { ...standardSearch(chirpMassGrid(1.1, 1.3, 0.01, [0.9]), FMIN, 8), segmentSeconds: 64 };
-    const err = await searchSource(arraySource(data, FS, 0, "x.f32"), opts).catch((e: unknown) => e);
+    const err = await searchStrain(arrayInput(data, FS, 0, "x.f32"), opts).catch((e: unknown) => e);
     expect(err).toBeInstanceOf(InputError);
     expect((err as Error).message).toBe(
       "x.f32: corrupt samples (up to 1.00e+30, over 1e+8 times the median magnitude) at t = 0.4883 s (samples 1000–1000, 0.000488 s); " +
         "bad data are rejected unless the search is told to leave them out",
     );
-    const { candidates, summary } = await searchSource(arraySource(data, FS, 0, "x.f32"), { ...opts, badData: "exclude" });
+    const { candidates, summary } = await searchStrain(arrayInput(data, FS, 0, "x.f32"), { ...opts, badData: "exclude" });
     expect(summary.skipped).toEqual([{ startTime: 1000 / FS, endTime: 1001 / FS, reason: "corrupt samples (up to 1.00e+30, over 1e+8 times the median magnitude)" }]);
     expect(summary.skippedSeconds).toBeCloseTo(1 / FS, 12);
     // The rest is searched as if nothing were wrong: the injection is found as in clean data (the
     // segments start after the bad sample, so their PSD estimates differ slightly).
     data[1000] = 0;
-    const clean = await searchSource(arraySource(data, FS, 0, "x.f32"), opts);
+    const clean = await searchStrain(arrayInput(data, FS, 0, "x.f32"), opts);
     const near = (list: typeof candidates) => list.filter((c) => Math.abs(c.coalescenceTime - 100) < 0.1);
     expect(near(clean.candidates)).toHaveLength(1);
     expect(near(candidates)).toHaveLength(1);

@@ -1,6 +1,6 @@
 // Screening, interval planning, stream joining and interval files: each on a small fixture.
 import { describe, expect, it } from "vitest";
-import { InputError, arraySource, joinContiguousInputs } from "@chirpsieve/core";
+import { InputError, arrayInput, joinContiguousInputs } from "@chirpsieve/core";
 import { parseIntervals } from "../../packages/core/src/io/intervalFile.js";
 import { MIN_CONSTANT_RUN, screenInput } from "../../packages/core/src/search/dataQuality.js";
 import { continues } from "../../packages/core/src/search/joinedInput.js";
@@ -17,7 +17,7 @@ function noise(n: number, seed: string): Float64Array {
 
 describe("screenInput finds every unusable stretch, and nothing else", () => {
   it("finds nothing in noise", async () => {
-    expect(await screenInput(arraySource(noise(100_000, "clean"), 100))).toEqual([]);
+    expect(await screenInput(arrayInput(noise(100_000, "clean"), 100))).toEqual([]);
   });
 
   it("finds NaN runs, zero-filled and constant runs of at least MIN_CONSTANT_RUN samples, and corrupt samples", async () => {
@@ -28,7 +28,7 @@ describe("screenInput finds every unusable stretch, and nothing else", () => {
     x.fill(0.25, 2_000_000, 2_000_000 + MIN_CONSTANT_RUN);
     x.fill(0.3, 2_100_000, 2_100_000 + MIN_CONSTANT_RUN - 1); // one too short
     x[2_500_000] = 1e12;
-    const bad = await screenInput(arraySource(x, 1000));
+    const bad = await screenInput(arrayInput(x, 1000));
     expect(bad).toEqual([
       { start: 1000, end: 1500, kind: "non-finite", value: Number.NaN },
       { start: 1600, end: 1601, kind: "non-finite", value: Number.NaN },
@@ -39,7 +39,7 @@ describe("screenInput finds every unusable stretch, and nothing else", () => {
   });
 
   it("finds an all-zero input as one stretch", async () => {
-    expect(await screenInput(arraySource(new Float64Array(5000), 100))).toEqual([{ start: 0, end: 5000, kind: "constant", value: 0 }]);
+    expect(await screenInput(arrayInput(new Float64Array(5000), 100))).toEqual([{ start: 0, end: 5000, kind: "constant", value: 0 }]);
   });
 });
 
@@ -90,7 +90,7 @@ describe("planStream leaves out exclusions and tiles the valid intervals", () =>
 });
 
 describe("contiguous inputs form one stream", () => {
-  const part = (t0: number, n: number, fs: number, name: string) => arraySource(noise(n, name), fs, t0, name);
+  const part = (t0: number, n: number, fs: number, name: string) => arrayInput(noise(n, name), fs, t0, name);
 
   it("joins files whose samples continue each other (within half a sample), in time order", async () => {
     const a = part(100, 1000, 100, "a");

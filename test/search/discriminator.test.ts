@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, arraySource, loadFftBackends, searchSource, type SearchOptions } from "@chirpsieve/core";
+import { ajith2011, arrayInput, loadFftBackends, searchStrain, type SearchOptions } from "@chirpsieve/core";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch, taylorF2Chirp } from "./fixtures.js";
 
 const FS = 2048;
@@ -22,7 +22,7 @@ async function loudest(data: Float64Array, noiseFree = false, extra: Partial<Sea
   // Noise-free data is mostly exact zeros: the search is told neither to screen it nor to gate it
   // (any signal is a loud excursion over no noise).
   const o: SearchOptions = { ...(noiseFree ? { ...opts, psd: { kind: "model", model: ajith2011 }, badData: "ignore" as const, gating: null } : opts), ...extra };
-  const { candidates } = await searchSource(arraySource(data, FS), o);
+  const { candidates } = await searchStrain(arrayInput(data, FS), o);
   return candidates.reduce((a, b) => (b.snr > a.snr ? b : a));
 }
 
@@ -80,7 +80,7 @@ describe("chi-squared discriminator and reweighted SNR (Allen 2005; Babak et al.
 
   it("noise alone: no candidate above SNR 8 in 512 s of Gaussian noise with a few hundred templates", async () => {
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 512, seed: "quiet", fMin: FMIN });
-    const { candidates, summary } = await searchSource(arraySource(data, FS), opts);
+    const { candidates, summary } = await searchStrain(arrayInput(data, FS), opts);
     expect(bank.length).toBeGreaterThan(200);
     expect(summary.analysedSeconds).toBeGreaterThan(400);
     expect(candidates.filter((c) => c.snr > 8)).toHaveLength(0);

@@ -14,7 +14,7 @@ export function injectionAt(m1: number, m2: number, coalescenceTime: number, ext
     inclination: 0.3,
     rightAscension: 1.1,
     declination: 0.4,
-    polarization: 0.2,
+    polarisation: 0.2,
     phase: 0.7,
     ...extra,
   };
@@ -100,7 +100,7 @@ export function standardSearch(templates: SearchTemplate[], fMinHz: number, snrT
     templates,
     fMinHz,
     snrThreshold,
-    chi2Bins: 16,
+    chi2Bands: 16,
     loudestWithinSeconds: 1,
     psd: { kind: "estimate", segmentSeconds: 4, average: "median" },
     fftBackend: "pffft",

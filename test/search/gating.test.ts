@@ -1,6 +1,6 @@
 // Gating of loud transients in whitened data (noise/gating.ts).
 import { beforeAll, describe, expect, it } from "vitest";
-import { DEFAULT_GATE_SETTINGS, ajith2011, arraySource, colouredNoise, loadFftBackends, searchSource } from "@chirpsieve/core";
+import { DEFAULT_GATE_SETTINGS, ajith2011, arrayInput, colouredNoise, loadFftBackends, searchStrain } from "@chirpsieve/core";
 import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
 import { createGater } from "../../packages/core/src/noise/gating.js";
 import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
@@ -44,8 +44,8 @@ describe("gating", () => {
     // At 20 σ the false-gate probability per sample is erfc(20/√2) ≈ 6e-89 (common practice, no source).
     const data = colouredNoise(ajith2011, 256 * FS, FS, "gate-quiet");
     const o = { ...standardSearch(chirpMassGrid(1.1, 1.3, 0.01, [0.9]), FMIN, 5.5), segmentSeconds: 128 };
-    const on = await searchSource(arraySource(data, FS), o);
-    const off = await searchSource(arraySource(data, FS), { ...o, gating: null });
+    const on = await searchStrain(arrayInput(data, FS), o);
+    const off = await searchStrain(arrayInput(data, FS), { ...o, gating: null });
     expect(on.summary.gates).toEqual([]);
     expect(on.candidates.length).toBeGreaterThan(0); // SNR 5.5 is reached by noise alone: the comparison is not empty
     expect(on.candidates).toEqual(off.candidates);
@@ -75,7 +75,7 @@ describe("glitches from SNR 50 to 500", () => {
       { t: 180, f0: 150, snr: 500 },
     ];
     for (const g of glitches) addGlitch(data, g.t, g.f0, g.snr);
-    const { candidates, summary } = await searchSource(arraySource(data, FS), o);
+    const { candidates, summary } = await searchStrain(arrayInput(data, FS), o);
     for (const g of glitches) {
       const near = candidates.filter((c) => Math.abs(c.coalescenceTime - g.t) < 2);
       expect(near.filter((c) => c.reweightedSnr > 6), `glitch of SNR ${g.snr} at ${g.t} s`).toEqual([]);

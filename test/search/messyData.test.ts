@@ -3,7 +3,7 @@
 // both chirps as it does in clean data, raise nothing loud at the defects, and lose only the bad
 // stretches plus the filter lengths they force.
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, arraySource, joinContiguousInputs, loadFftBackends, searchSource, type Candidate, type SearchOptions } from "@chirpsieve/core";
+import { ajith2011, arrayInput, joinContiguousInputs, loadFftBackends, searchStrain, type Candidate, type SearchOptions } from "@chirpsieve/core";
 import { optimalSnrOfSeries } from "../../packages/core/src/inject/optimalSnr.js";
 import { arrivalTime, atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch } from "./fixtures.js";
 
@@ -38,25 +38,25 @@ function sineGaussian(n: number, t0: number, snr: number): Float64Array {
 
 const options: SearchOptions = { ...standardSearch(bank, FMIN, 6), segmentSeconds: 256, fftBackend: "pffft" };
 let clean: Candidate[];
-let messy: Awaited<ReturnType<typeof searchSource>>;
+let messy: Awaited<ReturnType<typeof searchStrain>>;
 let data: Float64Array;
 
 beforeAll(async () => {
   await loadFftBackends();
   data = simulatedData({ psd: ajith2011, fs: FS, seconds: SECONDS, seed: "messy-data", fMin: FMIN, injections: [bns, bbh] });
-  clean = (await searchSource(arraySource(data, FS, 0, "clean.f64"), options)).candidates;
+  clean = (await searchStrain(arrayInput(data, FS, 0, "clean.f64"), options)).candidates;
   const bad = data.slice();
   for (let i = GAP.start * FS; i < GAP.end * FS; i++) bad[i] = Number.NaN;
   bad.fill(0, ZEROS.start * FS, ZEROS.end * FS);
   const glitch = sineGaussian(bad.length, GLITCH_TIME, 200);
   for (let i = 0; i < bad.length; i++) bad[i] += glitch[i];
   const files = FILE_EDGES.slice(0, -1).map((t, k) =>
-    arraySource(bad.slice(t * FS, FILE_EDGES[k + 1] * FS), FS, t, `part-${k}.f64`),
+    arrayInput(bad.slice(t * FS, FILE_EDGES[k + 1] * FS), FS, t, `part-${k}.f64`),
   );
   // Given out of order: the stream is put together by time.
   const streams = joinContiguousInputs([files[2], files[0], files[1]]);
   expect(streams).toHaveLength(1);
-  messy = await searchSource(streams[0], { ...options, badData: "exclude" });
+  messy = await searchStrain(streams[0], { ...options, badData: "exclude" });
 }, 240_000);
 
 describe("recorded-data defects (seeded noise with gaps, zeros, a glitch and three contiguous files)", () => {

@@ -1,9 +1,9 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import {
   ajith2011,
-  arraySource,
+  arrayInput,
   loadFftBackends,
-  searchSource,
+  searchStrain,
   type SearchOptions,
 } from "@chirpsieve/core";
 import { arrivalTime, atSnr, chirpMassGrid, injectionAt, simulatedData, standardSearch } from "./fixtures.js";
@@ -27,7 +27,7 @@ describe("injection recovery with TaylorT4 signals (not the search's own templat
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 192, seed: "bns-12", fMin: FMIN, injections: [inj] });
     // BNS phase is very sensitive to chirp mass: steps of 0.05% (a stand-in for a lattice bank).
     const bank = chirpMassGrid(1.205, 1.235, 0.0005, [1, 0.9, 0.8]);
-    const { candidates } = await searchSource(arraySource(data, FS), options(bank));
+    const { candidates } = await searchStrain(arrayInput(data, FS), options(bank));
     const best = candidates.reduce((a, b) => (b.snr > a.snr ? b : a));
     expect(Math.abs(best.coalescenceTime - arrivalTime(inj))).toBeLessThan(0.002);
     expect(Math.abs(best.chirpMass / chirpMass(1.4, 1.4) - 1)).toBeLessThan(0.01);
@@ -46,7 +46,7 @@ describe("injection recovery with TaylorT4 signals (not the search's own templat
       const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 64, seed, fMin: FMIN, injections: [inj], noise });
       // Noise-free data is mostly exact zeros: the search is told neither to screen nor to gate it.
       const o = noise ? options(bank) : { ...options(bank), psd: { kind: "model" as const, model: ajith2011 }, badData: "ignore" as const, gating: null };
-      const { candidates } = await searchSource(arraySource(data, FS), o);
+      const { candidates } = await searchStrain(arrayInput(data, FS), o);
       return candidates.reduce((a, b) => (b.snr > a.snr ? b : a));
     };
     const clean = await run("none", false);
@@ -66,7 +66,7 @@ describe("injection recovery with TaylorT4 signals (not the search's own templat
     const b = atSnr(injectionAt(12, 9, 110.5, { phase: 2.1 }), 15, ajith2011, FS, FMIN);
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 160, seed: "two-chirps", fMin: FMIN, injections: [a, b] });
     const bank = chirpMassGrid(6, 10, 0.01, [1, 0.75]);
-    const { candidates } = await searchSource(arraySource(data, FS), options(bank));
+    const { candidates } = await searchStrain(arrayInput(data, FS), options(bank));
     const loud = candidates.filter((c) => c.snr > 10);
     expect(loud).toHaveLength(2);
     expect(Math.abs(loud[0].coalescenceTime - arrivalTime(a))).toBeLessThan(0.005);

@@ -4,7 +4,7 @@
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, arraySource, colouredNoise, createComplexFft, loadFftBackends, searchSource, taylorF2Into, type SearchTemplate } from "@chirpsieve/core";
+import { ajith2011, arrayInput, colouredNoise, createComplexFft, loadFftBackends, searchStrain, taylorF2Into, type SearchTemplate } from "@chirpsieve/core";
 import { standardSearch } from "./fixtures.js";
 
 const FS = 2048;
@@ -55,7 +55,7 @@ describe("spinning templates in the search", () => {
   const without: SearchTemplate[] = [{ primaryMass: 10, secondaryMass: 8 }];
 
   const run = async (templates: SearchTemplate[], threads: number) =>
-    (await searchSource(arraySource(data, FS, 0, "spin.f64"), { ...standardSearch(templates, FMIN, 8), psd: { kind: "model", model: ajith2011 }, threads })).candidates;
+    (await searchStrain(arrayInput(data, FS, 0, "spin.f64"), { ...standardSearch(templates, FMIN, 8), psd: { kind: "model", model: ajith2011 }, threads })).candidates;
 
   it("finds a spinning chirp louder, with a small chi-squared, when the template carries its spins; reports them and χ_eff", async () => {
     const [spun] = await run(withSpin, 1);

@@ -4,7 +4,7 @@ import { decidingPeaks } from "../../packages/core/src/run/shardRecord.js";
 import { clusterByTime } from "../../packages/core/src/search/cluster.js";
 import { type SegmentPeak } from "../../packages/core/src/search/segmentHook.js";
 
-/** The per-segment clustering as searchSource runs it: peaks in (template, sample) order. */
+/** The per-segment clustering as searchStrain runs it: peaks in (template, sample) order. */
 function cluster(peaks: readonly SegmentPeak[], w: number): SegmentPeak[] {
   const ordered = [...peaks].sort((a, b) => a.templateIndex - b.templateIndex || a.index - b.index);
   return clusterByTime(ordered, w);

@@ -1,14 +1,14 @@
 // Shared set-up for the sharding, merge and resume tests: a small synthetic run (invented data,
 // seeded noise with two injected chirps, one near a segment boundary) and helpers that run a
-// shard or a resumable scan through searchSource's segment hook.
+// shard or a resumable scan through searchStrain's segment hook.
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll } from "vitest";
 import {
   ajith2011,
-  arraySource,
-  searchSource,
+  arrayInput,
+  searchStrain,
   startScanRun,
   type Candidate,
   type SearchInput,
@@ -29,7 +29,7 @@ export function runOptions(extra: Partial<SearchOptions> = {}): SearchOptions {
     templates: chirpMassGrid(6, 10, 0.03, [1, 0.7]),
     fMinHz: FMIN,
     snrThreshold: 4.6,
-    chi2Bins: 8,
+    chi2Bands: 8,
     loudestWithinSeconds: 0.4,
     psd: { kind: "estimate", segmentSeconds: 2, average: "median" },
     truncationSeconds: 1,
@@ -55,20 +55,20 @@ export function syntheticInputs(): SearchInput[] {
     }),
     simulatedData({ psd: ajith2011, fs: FS, seconds: 48, seed: "shard-b", fMin: FMIN, injections: [atSnr(injectionAt(8, 8, 20.7), 10, ajith2011, FS, FMIN)] }),
   ];
-  return [arraySource(cached[0], FS, 1000, "synthetic-a"), arraySource(cached[1], FS, 2000, "synthetic-b")];
+  return [arrayInput(cached[0], FS, 1000, "synthetic-a"), arrayInput(cached[1], FS, 2000, "synthetic-b")];
 }
 
-/** What the CLI does without sharding: searchSource per input, candidates concatenated. */
+/** What the CLI does without sharding: searchStrain per input, candidates concatenated. */
 export async function unshardedCandidates(inputs: SearchInput[], options: SearchOptions): Promise<Candidate[]> {
   const out: Candidate[] = [];
-  for (const s of inputs) out.push(...(await searchSource(s, options)).candidates);
+  for (const s of inputs) out.push(...(await searchStrain(s, options)).candidates);
   return out;
 }
 
-/** Runs one shard of the run through searchSource's segment hook and writes its record file and manifest. */
+/** Runs one shard of the run through searchStrain's segment hook and writes its record file and manifest. */
 export async function runShard(dir: string, inputs: SearchInput[], options: SearchOptions, shard: ShardSpec, name = `part-${shard.index}.jsonl`): Promise<string> {
   const run = await startScanRun({ version: VERSION, inputs, options, shard, arguments: RUN_ARGUMENTS });
-  for (const [i, s] of inputs.entries()) await searchSource(s, { ...options, segmentHook: run.hook(i) });
+  for (const [i, s] of inputs.entries()) await searchStrain(s, { ...options, segmentHook: run.hook(i) });
   const path = join(dir, name);
   run.writeShard(path);
   return path;
@@ -81,11 +81,11 @@ export function tempDir(prefix: string): string {
   return dir;
 }
 
-/** Fails with a clear message when searchSource does not honour options.segmentHook yet. */
+/** Fails with a clear message when searchStrain does not honour options.segmentHook yet. */
 export async function expectHookWired(): Promise<void> {
   let asked = false;
   const [input] = syntheticInputs();
-  await searchSource(input, {
+  await searchStrain(input, {
     ...runOptions(),
     segmentHook: {
       segments: () => {
@@ -96,5 +96,5 @@ export async function expectHookWired(): Promise<void> {
       done: () => {},
     },
   });
-  if (!asked) throw new Error("searchSource ignores options.segmentHook: the filter loop in search/scan.ts must ask the hook for its segments");
+  if (!asked) throw new Error("searchStrain ignores options.segmentHook: the filter loop in search/scan.ts must ask the hook for its segments");
 }

@@ -1,7 +1,7 @@
 import { copyFileSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { arraySource, InputError, loadFftBackends, mergeShards, searchSource, type Candidate, type ShardBy } from "@chirpsieve/core";
+import { arrayInput, InputError, loadFftBackends, mergeShards, searchStrain, type Candidate, type ShardBy } from "@chirpsieve/core";
 import { expectHookWired, runOptions, runShard, syntheticInputs, tempDir, unshardedCandidates } from "./fixtures.js";
 
 const root = tempDir("merge");
@@ -55,10 +55,10 @@ describe("merging shards of a run that skips bad data", () => {
     const [a, b] = syntheticInputs();
     const data = await a.read(0, a.length);
     data[30_000] = Number.NaN;
-    const inputs = [arraySource(data, a.sampleRate, a.startTime, a.file), b];
+    const inputs = [arrayInput(data, a.sampleRate, a.startTime, a.file), b];
     const options = runOptions({ badData: "exclude" });
-    const single = await searchSource(inputs[0], options);
-    const singleB = await searchSource(inputs[1], options);
+    const single = await searchStrain(inputs[0], options);
+    const singleB = await searchStrain(inputs[1], options);
     expect(single.summary.skipped).toHaveLength(1);
     const dir = join(root, "nan");
     mkdirSync(dir);

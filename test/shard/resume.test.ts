@@ -1,7 +1,7 @@
 import { appendFileSync, existsSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { InputError, loadFftBackends, mergeShards, searchSource, startScanRun, type Candidate, type SearchOptions, type ShardSpec } from "@chirpsieve/core";
+import { InputError, loadFftBackends, mergeShards, searchStrain, startScanRun, type Candidate, type SearchOptions, type ShardSpec } from "@chirpsieve/core";
 import { readScanJournal } from "../../packages/core/src/run/scanJournal.js";
 import { expectHookWired, RUN_ARGUMENTS, runOptions, runShard, syntheticInputs, tempDir, unshardedCandidates, VERSION } from "./fixtures.js";
 
@@ -28,7 +28,7 @@ async function journaledScan(journalPath: string, options: SearchOptions, killAf
   try {
     for (const [i, s] of inputs.entries()) {
       const hook = run.hook(i);
-      await searchSource(s, {
+      await searchStrain(s, {
         ...options,
         segmentHook: {
           segments: (total) => hook.segments(total),

@@ -225,12 +225,12 @@ describe("bad inputs throw InputError (one line naming the parameter)", () => {
   const cases: [string, () => unknown, RegExp][] = [
     ["m1 ≤ 0", () => taylorF2Into(out, 100, 1, 20, 0, 1.4), /m1Solar/],
     ["m2 NaN", () => taylorF2Into(out, 100, 1, 20, 1.4, NaN), /m2Solar/],
-    ["fLow ≤ 0", () => taylorF2Into(out, 100, 1, 0, 1.4, 1.4), /fLowHz/],
+    ["fLow ≤ 0", () => taylorF2Into(out, 100, 1, 0, 1.4, 1.4), /fMinHz/],
     ["df ≤ 0", () => taylorF2Into(out, 100, -1, 20, 1.4, 1.4), /dfHz/],
     ["out too short", () => taylorF2Into(out, 101, 1, 20, 1.4, 1.4), /out must be/],
     ["nBins not an integer", () => taylorF2Into(out, 10.5, 1, 20, 1.4, 1.4), /nBins/],
     ["distance 0", () => taylorF2Into(out, 100, 1, 20, 1.4, 1.4, 0), /distanceMpc/],
-    ["fHigh negative", () => taylorF2Into(out, 100, 1, 20, 1.4, 1.4, 1, -5), /fHighHz/],
+    ["fHigh negative", () => taylorF2Into(out, 100, 1, 20, 1.4, 1.4, 1, -5), /fMaxHz/],
     ["pnOrder 8", () => taylorF2Into(out, 100, 1, 20, 1.4, 1.4, 1, Infinity, 8), /pnOrder/],
     ["generator df", () => createTaylorF2Generator(100, 0), /dfHz/],
     ["generator nBins", () => createTaylorF2Generator(0, 1), /nBins/],
@@ -238,10 +238,10 @@ describe("bad inputs throw InputError (one line naming the parameter)", () => {
     ["generate out too short", () => createTaylorF2Generator(101, 1).generate(out, 20, 1.4, 1.4), /out must be/],
     ["generate mass", () => createTaylorF2Generator(100, 1).generate(out, 20, -1, 1.4), /m1Solar/],
     ["phase f", () => taylorF2Phase(-3, 1.4, 1.4), /fHz/],
-    ["chirp times fLow", () => chirpTimes(1.4, 1.4, Infinity), /fLowHz/],
+    ["chirp times fLow", () => chirpTimes(1.4, 1.4, Infinity), /fMinHz/],
     ["masses from chirp times", () => massesFromChirpTimes(0, 1, 40), /tau0/],
     ["time to coalescence", () => pnTimeToCoalescence(30, 1.4, 0), /m2Solar/],
-    ["cycles band", () => gwCycleCounts(1.4, 1.4, 100, 50), /fHighHz/],
+    ["cycles band", () => gwCycleCounts(1.4, 1.4, 100, 50), /fMaxHz/],
     ["eta > 1/4", () => taylorF2PhaseCoefficients(0.3), /eta/],
   ];
   for (const [name, fn, re] of cases) {

@@ -15,7 +15,7 @@ export function renderBankPlot(bank: TemplateBank): string {
     height,
     marginLeft: 60,
     marginBottom: 45,
-    x: { label: `τ0 (s) from ${bank.fminHz} Hz`, grid: true },
+    x: { label: `τ0 (s) from ${bank.fMinHz} Hz`, grid: true },
     y: { label: "τ3 (s)", grid: true },
     marks: [Plot.dot(pts, { x: "tau0", y: "tau3", r, fill: INK.main, stroke: "none" })],
   });
@@ -28,7 +28,7 @@ export function renderBankPlot(bank: TemplateBank): string {
     y: { label: "secondary mass (M_sun)", grid: true },
     marks: [Plot.dot(pts, { x: "m1", y: "m2", r, fill: INK.main, stroke: "none" })],
   });
-  const title = `${bank.templates.length} templates, ${bank.massRangeSolar[0]}–${bank.massRangeSolar[1]} M_sun, minimal match ${bank.matchFloor}, ${bank.noiseCurve} from ${bank.fminHz} Hz`;
+  const title = `${bank.templates.length} templates, ${bank.massRangeSolar[0]}–${bank.massRangeSolar[1]} M_sun, minimal match ${bank.matchFloor}, ${bank.noiseCurve} from ${bank.fMinHz} Hz`;
   const inner = (svg: string, x: number): string => svg.replace("<svg", `<svg x="${x}" y="24"`);
   return (
     `<svg xmlns="http://www.w3.org/2000/svg" width="${2 * width}" height="${height + 24}" viewBox="0 0 ${2 * width} ${height + 24}">` +
@@ -40,7 +40,7 @@ export function renderBankPlot(bank: TemplateBank): string {
 }
 
 /** Trade-off plot: estimated CPU hours per hour of data (or template count) against the rate loss. */
-export function renderSweepPlot(result: SweepResult, region: { massRangeSolar: [number, number]; fminHz: number }): string {
+export function renderSweepPlot(result: SweepResult, region: { massRangeSolar: [number, number]; fMinHz: number }): string {
   const hasCost = result.rows.every((r) => r.cpuSecondsPerHour !== undefined);
   const pts = result.rows.map((r) => ({
     loss: 100 * r.rateLoss,
@@ -54,7 +54,7 @@ export function renderSweepPlot(result: SweepResult, region: { massRangeSolar: [
     marginRight: 80,
     marginBottom: 45,
     inset: 12,
-    x: { label: `expected loss of detection rate 1 − ⟨FF³⟩ (%), ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fminHz} Hz`, grid: true },
+    x: { label: `expected loss of detection rate 1 − ⟨FF³⟩ (%), ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun from ${region.fMinHz} Hz`, grid: true },
     y: { type: "log", label: hasCost ? "estimated CPU hours per hour of data (measured here, scaled)" : "templates", grid: true, tickFormat: "~g" },
     marks: [
       Plot.line(pts, { x: "loss", y: "y", stroke: INK.main }),

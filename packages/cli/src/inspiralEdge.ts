@@ -18,7 +18,7 @@ export function checkInspiralEdge(templates: readonly ShareTemplate[], psd: PsdM
   const curve = psd ?? ajith2011;
   const edge = inspiralEdgeOfBank(templates, curve, fMinHz, {
     threshold: INSPIRAL_SHARE_FLOOR,
-    fHighHz: curve.fMaxHz,
+    fMaxHz: curve.fMaxHz,
   });
   return { ...edge, psd: psd ? curve.name : `${curve.name} (design curve standing in for the estimated PSD)` };
 }

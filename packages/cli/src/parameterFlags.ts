@@ -8,9 +8,8 @@ import type { InputError } from "@chirpsieve/core";
 const FLAG_OF_PARAMETER: Readonly<Record<string, string>> = {
   massRangeSolar: "--mass-range",
   matchFloor: "--match-floor",
-  fminHz: "--fmin",
   fMinHz: "--fmin",
-  fmaxHz: "--fmax",
+  fMaxHz: "--fmax",
   templateCap: "--template-cap",
   draws: "--draws",
   slidesPerSide: "--slides",

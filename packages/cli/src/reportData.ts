@@ -122,7 +122,7 @@ export function campaignDocument(input: {
     inclination: r(o.inclination, 5)!,
     rightAscension: r(o.rightAscension, 5)!,
     declination: r(o.declination, 5)!,
-    polarization: r(o.polarization, 5)!,
+    polarisation: r(o.polarisation, 5)!,
     phase: r(o.phase, 5)!,
     optimalSnr: r(o.optimalSnr, 4)!,
     found: o.found,

@@ -68,7 +68,7 @@ export function addSearchOptions(cmd: Command, defaults: { fmin: string }): Comm
 export interface ParsedSearchFlags {
   fMinHz: number;
   snrThreshold: number;
-  chi2Bins: number;
+  chi2Bands: number;
   chi2Allowance: number;
   loudestWithinSeconds: number;
   welchSegmentSeconds: number;
@@ -81,12 +81,12 @@ export interface ParsedSearchFlags {
 }
 
 export function parseSearchFlags(flags: SearchFlags): ParsedSearchFlags {
-  const chi2Bins = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
-  if (chi2Bins === 1) throw new UsageError("--chi2-bands: must be 0 (off) or at least 2 (got 1)");
+  const chi2Bands = parseNumberFlag("--chi2-bands", flags.chi2Bands, { min: 0, integer: true });
+  if (chi2Bands === 1) throw new UsageError("--chi2-bands: must be 0 (off) or at least 2 (got 1)");
   return {
     fMinHz: parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true }),
     snrThreshold: parseNumberFlag("--min-snr", flags.minSnr, { min: 0, minExclusive: true }),
-    chi2Bins,
+    chi2Bands,
     chi2Allowance: parseNumberFlag("--chi2-allowance", flags.chi2Allowance, { min: 0 }),
     loudestWithinSeconds: parseNumberFlag("--loudest-within", flags.loudestWithin, { min: 0, minExclusive: true }),
     welchSegmentSeconds: parseNumberFlag("--welch-segment", flags.welchSegment, { min: 0, minExclusive: true }),
@@ -134,10 +134,10 @@ export function resolveTemplates(
 ): { templates: SearchTemplate[]; description: string; fMinHz: number } {
   if (flags.bank) {
     const bank = readBankFile(flags.bank);
-    if (fMinTyped && fMinHz !== bank.fminHz) {
-      process.stderr.write(`chirpsieve: note: --fmin ${fMinHz} Hz differs from the bank's ${bank.fminHz} Hz, from which its coverage was verified\n`);
+    if (fMinTyped && fMinHz !== bank.fMinHz) {
+      process.stderr.write(`chirpsieve: note: --fmin ${fMinHz} Hz differs from the bank's ${bank.fMinHz} Hz, from which its coverage was verified\n`);
     }
-    return { templates: bank.templates, description: flags.bank, fMinHz: fMinTyped ? fMinHz : bank.fminHz };
+    return { templates: bank.templates, description: flags.bank, fMinHz: fMinTyped ? fMinHz : bank.fMinHz };
   }
   if (!massRangeSolar) throw new UsageError("--mass-range or --bank: one is needed to know which templates to use");
   const matchFloor = parseNumberFlag("--match-floor", flags.matchFloor, { min: 0, max: 1, minExclusive: true, maxExclusive: true });
@@ -145,8 +145,8 @@ export function resolveTemplates(
   const bank = withBankFlagErrors(
     () =>
       spinRange
-        ? buildSpinBank({ massRangeSolar, spinRange, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) })
-        : buildBank({ massRangeSolar, matchFloor, fminHz: fMinHz, psd: psdModelFromSpec(placementCurve) }),
+        ? buildSpinBank({ massRangeSolar, spinRange, matchFloor, fMinHz: fMinHz, psd: psdModelFromSpec(placementCurve) })
+        : buildBank({ massRangeSolar, matchFloor, fMinHz: fMinHz, psd: psdModelFromSpec(placementCurve) }),
     "narrow it, raise --fmin or lower --match-floor (or build a bank with `chirpsieve bank` and pass --bank)",
   );
   const spins = spinRange ? `, aligned spins ${spinRange[0]} to ${spinRange[1]}` : "";

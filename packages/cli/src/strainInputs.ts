@@ -6,7 +6,7 @@ import {
   isDimensionlessStrain,
   openStrain,
   type StrainOpenOptions,
-  type StrainSource,
+  type StrainReader,
 } from "@chirpsieve/core";
 
 /** Prints each of a file's warnings on stderr, one line each (they name the file). */
@@ -15,7 +15,7 @@ export function printStrainWarnings(warnings: readonly string[] | undefined): vo
 }
 
 /** Opens a strain file and prints its warnings. */
-export async function openStrainInput(path: string, options: StrainOpenOptions): Promise<StrainSource> {
+export async function openStrainInput(path: string, options: StrainOpenOptions): Promise<StrainReader> {
   const source = await openStrain(path, options);
   printStrainWarnings(source.warnings);
   return source;
@@ -25,7 +25,7 @@ export async function openStrainInput(path: string, options: StrainOpenOptions):
  * Why a source cannot be searched at all (every finite sample has one value), or undefined.
  * Without `skip` that is an InputError naming the file; with it the reason is returned.
  */
-export async function constantInputReason(source: StrainSource, skip: boolean): Promise<string | undefined> {
+export async function constantInputReason(source: StrainReader, skip: boolean): Promise<string | undefined> {
   const c = await findConstantSeries(source);
   if (!c) return undefined;
   if (!skip) throw new InputError(describeConstantSeries(c));

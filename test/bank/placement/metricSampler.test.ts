@@ -8,10 +8,10 @@ import { createMetricSampler } from "../../../packages/core/src/bank/metricSampl
 
 describe("createMetricSampler (8–12 M_sun from 40 Hz, ajith2011)", () => {
   const region = createMassRegion({ minMassSolar: 8, maxMassSolar: 12 }, 40);
-  const base = createChirpTimeMetric({ psd: ajith2011, fLowHz: 40, pointsPerEFold: 60 });
+  const base = createChirpTimeMetric({ psd: ajith2011, fMinHz: 40, pointsPerEFold: 60 });
   let calls = 0;
   const metric: ChirpTimeMetric = { ...base, tangent: (t0, t3) => (calls++, base.tangent(t0, t3)) };
-  const chart = createPhaseChart({ psd: ajith2011, fLowHz: 40, region });
+  const chart = createPhaseChart({ psd: ajith2011, fMinHz: 40, region });
   const sampleAt = createMetricSampler({ region, metric, chart, minimalMatch: 0.97 });
 
   it("gives the placement metric pulled back into the chart, computed once per point", () => {

@@ -153,12 +153,12 @@ export function registerBank(program: Command): void {
 
 interface RegionSettings {
   massRangeSolar: [number, number];
-  fminHz: number;
+  fMinHz: number;
   psd: PsdModel;
   noiseCurve: string;
   totalMassCapSolar?: number;
   massRatioCap?: number;
-  fmaxHz?: number;
+  fMaxHz?: number;
   templateCap: number;
   spinRange?: [number, number];
   placement: "stochastic" | "lattice";
@@ -169,7 +169,7 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   if (flags.massRange === undefined) throw new UsageError(`--mass-range: required, e.g. --mass-range 1:3`);
   if (flags.fmin === undefined) throw new UsageError(`--fmin: required, e.g. --fmin 30`);
   const massRangeSolar = parseRangeFlag("--mass-range", flags.massRange, { strict: true });
-  const fminHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
+  const fMinHz = parseNumberFlag("--fmin", flags.fmin, { min: 0, minExclusive: true });
   const totalMassCapSolar =
     flags.totalMassCap === undefined ? undefined : parseNumberFlag("--total-mass-cap", flags.totalMassCap, { min: 0, minExclusive: true });
   if (totalMassCapSolar !== undefined && !(totalMassCapSolar > 2 * massRangeSolar[0])) {
@@ -177,10 +177,10 @@ function parseRegion(flags: RegionFlags): RegionSettings {
   }
   const massRatioCap =
     flags.massRatioCap === undefined ? undefined : parseNumberFlag("--mass-ratio-cap", flags.massRatioCap, { min: 1, minExclusive: true });
-  const fmaxHz = flags.fmax === undefined ? undefined : parseNumberFlag("--fmax", flags.fmax, { min: fminHz, minExclusive: true });
+  const fMaxHz = flags.fmax === undefined ? undefined : parseNumberFlag("--fmax", flags.fmax, { min: fMinHz, minExclusive: true });
   const psd: PsdModel = onFlag("--noise-curve", () => psdModelFromSpec(flags.noiseCurve));
-  if (fminHz < psd.fMinHz) {
-    throw new UsageError(`--fmin: ${fminHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
+  if (fMinHz < psd.fMinHz) {
+    throw new UsageError(`--fmin: ${fMinHz} Hz is below the lowest frequency ${psd.fMinHz} Hz of noise curve "${psd.name}"`);
   }
   const templateCap = parseNumberFlag("--template-cap", flags.templateCap, { min: 1, integer: true });
   const spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
@@ -188,7 +188,7 @@ function parseRegion(flags: RegionFlags): RegionSettings {
     throw new UsageError(`--spin-range: a bank needs MIN below MAX (got "${flags.spinRange}")`);
   }
   const placement = parseChoiceFlag("--placement", flags.placement, ["stochastic", "lattice"] as const);
-  const settings = { massRangeSolar, fminHz, psd, noiseCurve: flags.noiseCurve, totalMassCapSolar, massRatioCap, fmaxHz, templateCap, spinRange, placement };
+  const settings = { massRangeSolar, fMinHz, psd, noiseCurve: flags.noiseCurve, totalMassCapSolar, massRatioCap, fMaxHz, templateCap, spinRange, placement };
   // The band rules (core's MIN_ISCO_OVER_FMIN, MIN_FMAX_OVER_FMIN) checked here, before any work, with the flag named.
   withBankFlagErrors(() => checkBankOptions(settings), LIMIT_REMEDY);
   return settings;
@@ -216,7 +216,7 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
     const { bank, report } = withBankFlagErrors(() => buildSpinBankWithReport({ ...region, spinRange, matchFloor }), LIMIT_REMEDY);
     bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
     writeBankFile(flags.out, bank);
-    const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fminHz);
+    const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fMinHz);
     warnInspiralEdge(inspiralEdge);
     if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
     if (flags.json) {
@@ -230,7 +230,7 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
   const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
-  const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fminHz);
+  const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fMinHz);
   warnInspiralEdge(inspiralEdge);
   if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
   if (flags.json) {
@@ -250,7 +250,7 @@ function spinBuildSummary(file: string, bank: TemplateBank, r: SpinBankReport): 
       : `placed stochastically from ${r.proposals} draws`;
   return (
     `${file}: ${r.templateCount} template${r.templateCount === 1 ? "" : "s"} for ${a}–${b} M_sun with aligned spins ${s0} to ${s1} ` +
-    `from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ${how}; ` +
+    `from ${bank.fMinHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ${how}; ` +
     `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (the region is thin along its nearly degenerate mass–spin direction, so most templates cover its faces)`
   );
 }
@@ -258,7 +258,7 @@ function spinBuildSummary(file: string, bank: TemplateBank, r: SpinBankReport): 
 function buildSummary(file: string, bank: TemplateBank, r: BankPlacementReport): string {
   const [a, b] = bank.massRangeSolar;
   return (
-    `${file}: ${r.templateCount} template${r.templateCount === 1 ? "" : "s"} for ${a}–${b} M_sun from ${bank.fminHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
+    `${file}: ${r.templateCount} template${r.templateCount === 1 ? "" : "s"} for ${a}–${b} M_sun from ${bank.fMinHz} Hz (${bank.noiseCurve}) at minimal match ${bank.matchFloor}; ` +
     (r.volumeEstimate >= 1
       ? `metric-volume estimate ${r.volumeEstimate.toFixed(0)} (count/estimate ${(r.templateCount / r.volumeEstimate).toFixed(2)}); `
       : `metric-volume estimate ${r.volumeEstimate.toPrecision(2)} (the region is thinner than one template's cell, so its area says little); `) +
@@ -355,7 +355,7 @@ async function runSweep(flags: SweepFlags): Promise<void> {
   const lines = [
     `minimal-match sweep, ${region.massRangeSolar[0]}–${region.massRangeSolar[1]} M_sun` +
       (region.spinRange ? ` with aligned spins ${region.spinRange[0]} to ${region.spinRange[1]} (draws: each body's spin uniform in the range)` : "") +
-      ` from ${region.fminHz} Hz (${region.noiseCurve}), ${result.draws} ${result.signal} draws per bank`,
+      ` from ${region.fMinHz} Hz (${region.noiseCurve}), ${result.draws} ${result.signal} draws per bank`,
     `  match floor  templates  volume est.  coverage  min FF   mean FF  rate loss  est. CPU h per h of data`,
   ];
   for (const row of result.rows) {

@@ -3,7 +3,7 @@ import {
   describeConstantSeries,
   findConstantSeries,
   isDimensionlessStrain,
-  strainSourceFromSeries,
+  strainReaderFromSeries,
   formatPsdTable,
   horizonDistance,
   InputError,
@@ -73,7 +73,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
 
   const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
   printStrainWarnings(strain.warnings);
-  const constant = await findConstantSeries(strainSourceFromSeries(strain));
+  const constant = await findConstantSeries(strainReaderFromSeries(strain));
   if (constant) throw new InputError(describeConstantSeries(constant));
   // A horizon in Mpc assumes dimensionless strain; for other units (e.g. counts) it is not given.
   const physical = isDimensionlessStrain(strain.units);
@@ -103,7 +103,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
       massSolar1: REFERENCE_MASS_SOLAR,
       massSolar2: REFERENCE_MASS_SOLAR,
       psd: { df: estimate.df, psd: estimate.psd },
-      fLowHz: fMinHz,
+      fMinHz: fMinHz,
     });
   } catch (err) {
     // E.g. an all-zero series: no meaningful horizon. Anything else is a bug and propagates.
@@ -128,7 +128,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
       average,
       segments: estimate.segments,
       df: estimate.df,
-      fminHz: fMinHz,
+      fMinHz: fMinHz,
       horizonMpc1p4: horizon?.horizonMpc ?? null,
       rangeMpc1p4: horizon?.rangeMpc ?? null,
       frequency: Array.from(estimate.frequencies),
@@ -161,7 +161,7 @@ function summaryText(
   );
   if (horizon) {
     lines.push(
-      `1.4+1.4 M_sun at SNR 8, ${fmt(horizon.fLowHz)}–${fmt(horizon.fHighHz)} Hz: horizon ${horizon.horizonMpc.toFixed(1)} Mpc ` +
+      `1.4+1.4 M_sun at SNR 8, ${fmt(horizon.fMinHz)}–${fmt(horizon.fMaxHz)} Hz: horizon ${horizon.horizonMpc.toFixed(1)} Mpc ` +
         `(optimal orientation), averaged range ${horizon.rangeMpc.toFixed(1)} Mpc`,
     );
   } else {

@@ -24,9 +24,9 @@ import {
   type BatchResult,
   type CampaignOptions,
   type PsdModel,
-  type PsdSource,
+  type PsdMethod,
   type Requirement,
-  type StrainSource,
+  type StrainReader,
 } from "@chirpsieve/core";
 import { UsageError, onFlag } from "../errors.js";
 import { checkFilePlan, noiseCurveInput, strainInputs } from "../outputPath.js";
@@ -120,7 +120,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const distanceMpc = flags.distanceRange === undefined ? undefined : parseRangeFlag("--distance-range", flags.distanceRange);
   const distanceDistribution = parseChoiceFlag("--distance-distribution", flags.distanceDistribution, ["volume", "uniform"] as const);
   if (flags.seed.trim() === "") throw new UsageError("--seed: must not be empty");
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
   const rate = parseRateFlag("--rate", flags.rate);
   const matchWindowSeconds = parseNumberFlag("--match-window", flags.matchWindow, { min: 0, minExclusive: true });
   const perBatch = flags.perBatch === undefined ? undefined : parseNumberFlag("--per-batch", flags.perBatch, { min: 1, integer: true });
@@ -154,13 +154,13 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
 
   // The PSD the search filters with: scan's rule (a named curve, else a Welch estimate).
   const useModel = strainFiles.length > 0 ? noiseModel !== undefined : !!flags.modelPsd;
-  const psd: PsdSource = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
+  const psd: PsdMethod = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
   const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
-  const sources: StrainSource[] = [];
+  const sources: StrainReader[] = [];
   let lock: RunLock | undefined;
   try {
     for (const f of strainFiles) sources.push(await openStrainInput(f, { rate: cmd.getOptionValueSource("rate") === "cli" ? rate : undefined, start, dataset: flags.dataset }));
@@ -168,7 +168,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
     const options: CampaignOptions = {
       population: { count, massRangeSolar, ...(spinRange ? { spinRange } : {}), snrRange, distanceMpc, distanceDistribution, seed: flags.seed },
       data: strainFiles.length ? { kind: "strain", sources } : { kind: "simulated", psd: noiseModel!, sampleRate: rate },
-      search: { templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend, threads, gating },
+      search: { templates, fMinHz, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend, threads, gating },
       detector,
       matchWindowSeconds,
       injectionsPerBatch: perBatch,

@@ -7,15 +7,15 @@ import {
   type Coincidence,
   type Detector,
   type SingleSiteCandidate,
-  type StrainSource,
+  type StrainReader,
   loadFftBackends,
   openStrain,
   psdModelFromSpec,
   resolveFftBackend,
-  searchSource,
+  searchStrain,
   writeFileAtomic,
   type Candidate,
-  type PsdSource,
+  type PsdMethod,
   type SearchSummary,
   journalPathFor,
   manifestPathFor,
@@ -125,7 +125,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
+  const { fMinHz: fMinFlag, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
   const analysisIntervals = flags.keepTimes === undefined ? undefined : readIntervalFile(flags.keepTimes);
   const excludedIntervals = flags.dropTimes === undefined ? undefined : readIntervalFile(flags.dropTimes);
   const format = chooseCandidateFormat(flags);
@@ -138,7 +138,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   if ((shard || flags.resume) && !flags.out) throw new UsageError(`${shard ? "--shard" : "--resume"}: needs --out (its records and journal are kept beside it)`);
   if (shard && network.length > 0) throw new UsageError("--shard: not available with --site (coincidences need every site's whole scan)");
 
-  const psd: PsdSource = flags.noiseCurve
+  const psd: PsdMethod = flags.noiseCurve
     ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
     : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
@@ -151,7 +151,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
-  const sources: StrainSource[] = [];
+  const sources: StrainReader[] = [];
   try {
     for (const f of files) {
       // Bad samples (non-finite, zero-filled or constant, corrupt) are found by the search's
@@ -168,7 +168,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   // lost at their boundaries); --site files are one per site.
   const streams: SearchInput[] = network.length > 0 ? sources : joinContiguousInputs(sources);
   const searchOptions = {
-    templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
+    templates, fMinHz, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
     badData: flags.skipBadData ? ("exclude" as const) : ("reject" as const), analysisIntervals, excludedIntervals, gating,
   };
   const run = shard || flags.resume
@@ -184,7 +184,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const wallStart = performance.now();
   try {
     for (const [i, stream] of streams.entries()) {
-      const r = await withBadDataHint(() => searchSource(stream, {
+      const r = await withBadDataHint(() => searchStrain(stream, {
         ...searchOptions,
         threads, // not part of the run id: results do not depend on it
         onProgress: (done, total) => progress.update(i, streams.length, done, total),
@@ -276,7 +276,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     mkdirSync(flags.plot, { recursive: true });
     const { writeScanPlots } = await import("../scanPlots.js");
     await writeScanPlots(flags.plot, sources.map((x) => x.file), candidates, {
-      templates, fMinHz, snrThreshold, chi2Bins, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
+      templates, fMinHz, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
       open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }),
     });
   }
@@ -316,7 +316,7 @@ function scanFilePlan(files: string[], network: NetworkSite[], flags: ScanFlags)
  * sidecars record the run): such files are not one simulated network, and their coincidences
  * would mean nothing. Files that record no run (or a single-site one) are not judged.
  */
-function checkSitesFromOneRun(network: NetworkSite[], sources: StrainSource[]): void {
+function checkSitesFromOneRun(network: NetworkSite[], sources: StrainReader[]): void {
   let first: { site: NetworkSite; id: string } | undefined;
   network.forEach((site, i) => {
     const run = sources[i].run;

@@ -16,14 +16,14 @@ import type { BankGenerator, Template, TemplateBank } from "./templateBank.js";
  */
 export function formatBankFile(bank: TemplateBank): string {
   const head: Record<string, unknown> = {
-    fmin: bank.fminHz,
+    fmin: bank.fMinHz,
     matchFloor: bank.matchFloor,
     noiseCurve: bank.noiseCurve,
     massRange: bank.massRangeSolar,
   };
   if (bank.totalMassCapSolar !== undefined) head.totalMassCap = bank.totalMassCapSolar;
   if (bank.massRatioCap !== undefined) head.massRatioCap = bank.massRatioCap;
-  if (bank.fmaxHz !== undefined) head.fmax = bank.fmaxHz;
+  if (bank.fMaxHz !== undefined) head.fmax = bank.fMaxHz;
   if (bank.spinRange !== undefined) head.spinRange = bank.spinRange;
   if (bank.generator) head.generator = bank.generator;
   const lines = Object.entries(head).map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
@@ -77,7 +77,7 @@ export function parseBankFile(text: string, label: string): TemplateBank {
   for (const key of ["fmin", "matchFloor", "noiseCurve", "massRange", "templates"]) {
     if (!(key in o)) throw new InputError(`${label}: missing "${key}"`);
   }
-  const fminHz = positive("fmin", o.fmin);
+  const fMinHz = positive("fmin", o.fmin);
   const matchFloor = num("matchFloor", o.matchFloor);
   if (!(matchFloor > 0 && matchFloor < 1)) throw new InputError(`${label}: matchFloor must be strictly between 0 and 1 (got ${matchFloor})`);
   if (typeof o.noiseCurve !== "string" || o.noiseCurve.trim() === "") {
@@ -88,7 +88,7 @@ export function parseBankFile(text: string, label: string): TemplateBank {
   const mMin = positive("massRange", mr[0], "massRange[0]");
   const mMax = positive("massRange", mr[1], "massRange[1]");
   if (!(mMin < mMax)) throw new InputError(`${label}: massRange minimum ${mMin} must be below the maximum ${mMax}`);
-  const bank: TemplateBank = { fminHz, matchFloor, noiseCurve: o.noiseCurve, massRangeSolar: [mMin, mMax], templates: [] };
+  const bank: TemplateBank = { fMinHz, matchFloor, noiseCurve: o.noiseCurve, massRangeSolar: [mMin, mMax], templates: [] };
   if (o.totalMassCap !== undefined) bank.totalMassCapSolar = positive("totalMassCap", o.totalMassCap);
   if (o.massRatioCap !== undefined) {
     const q = num("massRatioCap", o.massRatioCap);
@@ -97,8 +97,8 @@ export function parseBankFile(text: string, label: string): TemplateBank {
   }
   if (o.fmax !== undefined) {
     const f = positive("fmax", o.fmax);
-    if (!(f > fminHz)) throw new InputError(`${label}: fmax ${f} must be above fmin ${fminHz}`);
-    bank.fmaxHz = f;
+    if (!(f > fMinHz)) throw new InputError(`${label}: fmax ${f} must be above fmin ${fMinHz}`);
+    bank.fMaxHz = f;
   }
   if (o.spinRange !== undefined) {
     const sr = o.spinRange;
@@ -133,9 +133,9 @@ export function parseBankFile(text: string, label: string): TemplateBank {
     if (m2 > m1 * (1 + 1e-12)) throw new InputError(`${label}: ${where}: secondaryMass ${m2} exceeds primaryMass ${m1}`);
     const mcExpected = Math.pow(m1 * m2, 0.6) / Math.pow(m1 + m2, 0.2);
     if (!close(mc, mcExpected)) throw new InputError(`${label}: ${where}.chirpMass ${mc} does not match the masses (expected ${mcExpected})`);
-    const ct = chirpTimesFromComponents(m1, m2, fminHz);
-    if (!close(t0, ct.tau0)) throw new InputError(`${label}: ${where}.tau0 ${t0} does not match the masses at fmin ${fminHz} Hz (expected ${ct.tau0})`);
-    if (!close(t3, ct.tau3)) throw new InputError(`${label}: ${where}.tau3 ${t3} does not match the masses at fmin ${fminHz} Hz (expected ${ct.tau3})`);
+    const ct = chirpTimesFromComponents(m1, m2, fMinHz);
+    if (!close(t0, ct.tau0)) throw new InputError(`${label}: ${where}.tau0 ${t0} does not match the masses at fmin ${fMinHz} Hz (expected ${ct.tau0})`);
+    if (!close(t3, ct.tau3)) throw new InputError(`${label}: ${where}.tau3 ${t3} does not match the masses at fmin ${fMinHz} Hz (expected ${ct.tau3})`);
     const t: Template = { primaryMass: m1, secondaryMass: m2, chirpMass: mc, tau0: t0, tau3: t3 };
     if ("primarySpin" in e || "secondarySpin" in e) {
       const spin = (key: "primarySpin" | "secondarySpin"): number => {

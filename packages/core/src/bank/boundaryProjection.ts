@@ -35,7 +35,7 @@ export function projectOntoBoundary(
   r: number,
   target: [number, number],
 ): [number, number] {
-  const fLow = region.fLowHz;
+  const fLow = region.fMinHz;
   const pieces: { curve: (s: number) => [number, number]; sLo: number; sHi: number; decreasing: boolean }[] = [
     { curve: (t) => [t, region.tau3At(t, 0.25)], sLo: region.tau0Min, sHi: region.tau0Max, decreasing: false },
   ];

@@ -74,7 +74,7 @@ export function patchBoundaryPoints(region: MassRegion, box: PatchBox, toU: ToWh
     const at = (s: number): [number, number] => {
       const m1 = edge.from[0] + s * (edge.to[0] - edge.from[0]);
       const m2 = edge.from[1] + s * (edge.to[1] - edge.from[1]);
-      const t = chirpTimesFromComponents(m1, m2, region.fLowHz);
+      const t = chirpTimesFromComponents(m1, m2, region.fMinHz);
       return [t.tau0, t.tau3];
     };
     // τ0 decreases along the edge: find the parameter range with τ0 ∈ [a, b].

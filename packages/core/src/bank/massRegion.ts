@@ -31,7 +31,7 @@ export interface MassEdge {
  */
 export interface MassRegion {
   readonly limits: Required<Pick<MassRegionLimits, "minMassSolar" | "maxMassSolar">> & MassRegionLimits;
-  readonly fLowHz: number;
+  readonly fMinHz: number;
   /** τ0 range (s): from the heaviest equal-mass binary to the lightest. */
   readonly tau0Min: number;
   readonly tau0Max: number;
@@ -55,14 +55,14 @@ export interface MassRegion {
 }
 
 /** Total mass (solar) of the binary with chirp time τ0 from fLow and symmetric mass ratio η. */
-export function totalMassFromTau0Eta(tau0: number, eta: number, fLowHz: number): number {
+export function totalMassFromTau0Eta(tau0: number, eta: number, fMinHz: number): number {
   // τ0 = 5 / (256 π f0 η) (π M f0)^{−5/3}  ⇒  π M f0 = (5 / (256 π f0 η τ0))^{3/5} (Sathyaprakash 1994).
-  const x = Math.pow(5 / (256 * Math.PI * fLowHz * eta * tau0), 0.6);
-  return x / (Math.PI * fLowHz * T_SUN);
+  const x = Math.pow(5 / (256 * Math.PI * fMinHz * eta * tau0), 0.6);
+  return x / (Math.PI * fMinHz * T_SUN);
 }
 
 /** Validates the limits and builds the region; throws InputError naming the offending limit. */
-export function createMassRegion(limits: MassRegionLimits, fLowHz: number): MassRegion {
+export function createMassRegion(limits: MassRegionLimits, fMinHz: number): MassRegion {
   const { minMassSolar: mMin, maxMassSolar: mMax } = limits;
   const totalMax = limits.totalMassCapSolar ?? Infinity;
   const qMax = limits.massRatioCap ?? Infinity;
@@ -71,7 +71,7 @@ export function createMassRegion(limits: MassRegionLimits, fLowHz: number): Mass
   if (!(mMin < mMax)) throw new InputError(`mass range: the minimum ${mMin} must be below the maximum ${mMax}`);
   if (!(totalMax > 2 * mMin)) throw new InputError(`the total-mass cap ${totalMax} must exceed twice the minimum component mass (${2 * mMin})`);
   if (!(qMax > 1)) throw new InputError(`the mass-ratio cap must be a number above 1 (got ${limits.massRatioCap})`);
-  if (!(fLowHz > 0) || !Number.isFinite(fLowHz)) throw new InputError(`fmin must be a positive number (got ${fLowHz})`);
+  if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw new InputError(`fmin must be a positive number (got ${fMinHz})`);
 
   const tol = 1e-9;
   const containsMasses = (mA: number, mB: number): boolean => {
@@ -113,18 +113,18 @@ export function createMassRegion(limits: MassRegionLimits, fLowHz: number): Mass
   }
   const upperChain: MassEdge[] = [];
   for (let i = 0; i + 1 < chainPts.length; i++) upperChain.push({ from: chainPts[i], to: chainPts[i + 1] });
-  const chainTau0 = chainPts.map((p) => chirpTimesFromComponents(p[0], p[1], fLowHz).tau0);
+  const chainTau0 = chainPts.map((p) => chirpTimesFromComponents(p[0], p[1], fMinHz).tau0);
   const tau0Max = chainTau0[0];
   const tau0Min = chainTau0[chainTau0.length - 1];
 
-  const etaAt = (tau0: number, tau3: number): number => massEtaFromChirpTimes(tau0, tau3, fLowHz).eta;
+  const etaAt = (tau0: number, tau3: number): number => massEtaFromChirpTimes(tau0, tau3, fMinHz).eta;
   const tau3At = (tau0: number, eta: number): number => {
-    const m = totalMassFromTau0Eta(tau0, eta, fLowHz);
-    return chirpTimesFromMassEta(m, eta, fLowHz).tau3;
+    const m = totalMassFromTau0Eta(tau0, eta, fMinHz);
+    return chirpTimesFromMassEta(m, eta, fMinHz).tau3;
   };
   const inside = (tau0: number, eta: number): boolean => {
     if (!(eta <= 0.25 * (1 + 1e-12))) return false;
-    const c = componentsFromMassEta(totalMassFromTau0Eta(tau0, eta, fLowHz), Math.min(eta, 0.25));
+    const c = componentsFromMassEta(totalMassFromTau0Eta(tau0, eta, fMinHz), Math.min(eta, 0.25));
     return containsMasses(c.m1, c.m2);
   };
   const etaLow = (tau0: number): number => {
@@ -143,7 +143,7 @@ export function createMassRegion(limits: MassRegionLimits, fLowHz: number): Mass
   };
   const contains = (tau0: number, tau3: number): boolean => {
     if (!(tau0 > 0) || !(tau3 > 0)) return false;
-    const { totalMassSolar, eta } = massEtaFromChirpTimes(tau0, tau3, fLowHz);
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(tau0, tau3, fMinHz);
     if (!(eta <= 0.25 * (1 + 1e-12))) return false;
     const c = componentsFromMassEta(totalMassSolar, Math.min(eta, 0.25));
     return containsMasses(c.m1, c.m2);
@@ -151,7 +151,7 @@ export function createMassRegion(limits: MassRegionLimits, fLowHz: number): Mass
 
   return {
     limits: { ...limits },
-    fLowHz,
+    fMinHz,
     tau0Min,
     tau0Max,
     equalMassTotalMin,

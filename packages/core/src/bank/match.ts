@@ -14,7 +14,7 @@ export interface MatchGrid {
 
 export interface MatchGridOptions {
   /** Highest frequency that any waveform reaches (Hz), e.g. the ISCO of the lightest binary. */
-  fHighHz: number;
+  fMaxHz: number;
   /**
    * The span of relative time shifts (s) the correlation must represent without wrapping; the grid
    * spacing is df = 1 / (the next power of two ≥ this, in seconds). For two waveforms that nearly
@@ -27,16 +27,16 @@ export interface MatchGridOptions {
   oversample?: number;
 }
 
-/** The grid for matches of waveforms up to `fHighHz` with time offsets within `lagSpanS`. */
+/** The grid for matches of waveforms up to `fMaxHz` with time offsets within `lagSpanS`. */
 export function chooseMatchGrid(options: MatchGridOptions): MatchGrid {
-  const { fHighHz, lagSpanS } = options;
+  const { fMaxHz, lagSpanS } = options;
   const oversample = options.oversample ?? 2;
-  if (!(fHighHz > 0) || !Number.isFinite(fHighHz)) throw new InputError(`match grid: fHighHz must be a positive number (got ${fHighHz})`);
+  if (!(fMaxHz > 0) || !Number.isFinite(fMaxHz)) throw new InputError(`match grid: fMaxHz must be a positive number (got ${fMaxHz})`);
   if (!(lagSpanS > 0) || !Number.isFinite(lagSpanS)) throw new InputError(`match grid: lagSpanS must be a positive number (got ${lagSpanS})`);
   if (!(oversample >= 1)) throw new InputError(`match grid: oversample must be ≥ 1 (got ${oversample})`);
   const span = Math.pow(2, Math.ceil(Math.log2(lagSpanS)));
   const dfHz = 1 / span;
-  const nBins = Math.floor(fHighHz / dfHz) + 2;
+  const nBins = Math.floor(fMaxHz / dfHz) + 2;
   const fftSize = Math.pow(2, Math.ceil(Math.log2(nBins * oversample)));
   return { dfHz, nBins, fftSize };
 }
@@ -45,9 +45,9 @@ export function chooseMatchGrid(options: MatchGridOptions): MatchGrid {
 export interface MatchComputerOptions extends MatchGrid {
   psd: PsdModel;
   /** Lower end of the inner-product integrals, Hz. */
-  fLowHz: number;
+  fMinHz: number;
   /** Upper end of the inner-product integrals, Hz (default: the grid's last bin). */
-  fHighHz?: number;
+  fMaxHz?: number;
   /** Refine the time of the correlation peak between samples (default true). */
   refinePeak?: boolean;
 }
@@ -88,27 +88,27 @@ export interface MatchComputer {
  * so a waveform's abrupt end at its ISCO is integrated to O(df²) instead of O(df).
  */
 export function createMatchComputer(options: MatchComputerOptions): MatchComputer {
-  const { psd, dfHz, nBins, fftSize, fLowHz } = options;
+  const { psd, dfHz, nBins, fftSize, fMinHz } = options;
   if (!(dfHz > 0) || !Number.isInteger(nBins) || nBins < 2) throw new InputError(`match: invalid grid (dfHz ${dfHz}, nBins ${nBins})`);
   if (!Number.isInteger(fftSize) || fftSize < nBins) throw new InputError(`match: fftSize ${fftSize} must be an integer ≥ nBins ${nBins}`);
-  const fHighHz = Math.min(options.fHighHz ?? Infinity, (nBins - 1) * dfHz);
-  if (!(fLowHz > 0) || !(fHighHz > fLowHz)) throw new InputError(`match: need 0 < fLowHz < fHighHz (got ${fLowHz}, ${fHighHz})`);
+  const fMaxHz = Math.min(options.fMaxHz ?? Infinity, (nBins - 1) * dfHz);
+  if (!(fMinHz > 0) || !(fMaxHz > fMinHz)) throw new InputError(`match: need 0 < fMinHz < fMaxHz (got ${fMinHz}, ${fMaxHz})`);
   const refine = options.refinePeak ?? true;
-  const kLow = Math.max(1, Math.round(fLowHz / dfHz));
+  const kLow = Math.max(1, Math.round(fMinHz / dfHz));
   // Base weights 1/S(f_k) on [kLow, kTop]; the first bin's cell is cut at fLow.
   const w = new Float64Array(nBins);
   for (let k = kLow; k < nBins; k++) {
     const s = psd.evaluate(k * dfHz);
     w[k] = s > 0 && Number.isFinite(s) ? 1 / s : 0;
   }
-  w[kLow] *= Math.min(1, Math.max(0, (kLow + 0.5) - fLowHz / dfHz));
+  w[kLow] *= Math.min(1, Math.max(0, (kLow + 0.5) - fMinHz / dfHz));
   const fft: ComplexFft = createComplexFft(fftSize);
   const prod = new Float64Array(2 * fftSize);
   const corr = new Float64Array(2 * fftSize);
 
   /** Last bin index and its weight factor for a band ending at cutHz. */
   const endOf = (cutHz: number): { kLast: number; frac: number } => {
-    const c = Math.min(cutHz, fHighHz) / dfHz;
+    const c = Math.min(cutHz, fMaxHz) / dfHz;
     let kLast = Math.floor(c);
     if (kLast > nBins - 1) kLast = nBins - 1;
     // The cell of bin kLast is [kLast − ½, kLast + ½]; the band covers it up to c (extrapolated past ½).

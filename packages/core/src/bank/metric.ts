@@ -17,13 +17,13 @@ export interface ChirpTimeMetricOptions {
   /** Noise curve S_n(f). */
   psd: PsdModel;
   /** Lower cutoff of the match integrals and reference frequency f0 of the chirp times, Hz. */
-  fLowHz: number;
+  fMinHz: number;
   /**
-   * Fixed upper cutoff, Hz. The integrals run to min(f_ISCO of the point's total mass, fHighHz):
+   * Fixed upper cutoff, Hz. The integrals run to min(f_ISCO of the point's total mass, fMaxHz):
    * a template stops at its ISCO, so the metric uses the point's own ISCO (the derivative of the
    * cutoff itself is neglected, as usual). Default: no fixed cutoff (ISCO only).
    */
-  fHighHz?: number;
+  fMaxHz?: number;
   /** Twice the PN order of the TaylorF2 phase (default 7, i.e. 3.5PN). */
   pnOrder?: number;
   /** Quadrature nodes per e-fold of frequency (default 200; trapezoid rule in ln f). */
@@ -33,7 +33,7 @@ export interface ChirpTimeMetricOptions {
 /** The metric at one point together with what the upper cutoff does there. */
 export interface MetricSample {
   g: Metric2;
-  /** Upper cutoff of the integrals (Hz): min(ISCO of the point's total mass, fHighHz). */
+  /** Upper cutoff of the integrals (Hz): min(ISCO of the point's total mass, fMaxHz). */
   cutoffHz: number;
   /**
    * D = f_c (f_c^{−7/3}/S(f_c)) / I7: the fraction of the squared SNR per unit ln f at the cutoff f_c
@@ -47,9 +47,9 @@ export interface MetricSample {
 
 /** Metric evaluator bound to one noise curve and cutoff. Not thread-safe (reuses scratch arrays). */
 export interface ChirpTimeMetric {
-  readonly fLowHz: number;
-  readonly fHighHz: number;
-  /** Upper cutoff (Hz) of the integrals at this point: min(ISCO of its total mass, fHighHz). */
+  readonly fMinHz: number;
+  readonly fMaxHz: number;
+  /** Upper cutoff (Hz) of the integrals at this point: min(ISCO of its total mass, fMaxHz). */
   upperCutoffHz(tau0: number, tau3: number): number;
   /** The metric at (τ0, τ3) (seconds), projected over coalescence time and phase. */
   at(tau0: number, tau3: number): Metric2;
@@ -105,12 +105,12 @@ export function metricDensity(g: Metric2): number {
  */
 export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTimeMetric {
   const { psd } = options;
-  const fLowHz = options.fLowHz;
-  const fHighHz = options.fHighHz ?? Infinity;
+  const fMinHz = options.fMinHz;
+  const fMaxHz = options.fMaxHz ?? Infinity;
   const pnOrder = options.pnOrder ?? 7;
   const perEFold = options.pointsPerEFold ?? 200;
-  if (!(fLowHz > 0) || !Number.isFinite(fLowHz)) throw new InputError(`metric: fLowHz must be a positive number (got ${fLowHz})`);
-  if (!(fHighHz > fLowHz)) throw new InputError(`metric: fHighHz must exceed fLowHz (got ${fHighHz} ≤ ${fLowHz})`);
+  if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw new InputError(`metric: fMinHz must be a positive number (got ${fMinHz})`);
+  if (!(fMaxHz > fMinHz)) throw new InputError(`metric: fMaxHz must exceed fMinHz (got ${fMaxHz} ≤ ${fMinHz})`);
   if (!Number.isInteger(pnOrder) || pnOrder < 0 || pnOrder > 7) throw new InputError(`metric: pnOrder must be an integer 0..7 (got ${pnOrder})`);
   if (!(perEFold >= 10)) throw new InputError(`metric: pointsPerEFold must be ≥ 10 (got ${perEFold})`);
 
@@ -124,7 +124,7 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     return s > 0 && Number.isFinite(s) ? Math.pow(f, -4 / 3) / s : 0;
   };
   const ensureGrid = (fTop: number): void => {
-    const need = Math.ceil(Math.log(fTop / fLowHz) / h) + 2;
+    const need = Math.ceil(Math.log(fTop / fMinHz) / h) + 2;
     if (need <= nGrid) return;
     const n = Math.max(need, Math.ceil(nGrid * 1.5));
     const ln = new Float64Array(n);
@@ -132,7 +132,7 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     ln.set(lnF);
     w.set(wGrid);
     for (let k = nGrid; k < n; k++) {
-      ln[k] = Math.log(fLowHz) + k * h;
+      ln[k] = Math.log(fMinHz) + k * h;
       w[k] = weightAt(Math.exp(ln[k]));
     }
     lnF = ln;
@@ -162,16 +162,16 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
   const bm = new Float64Array(8);
 
   const upperCutoffHz = (tau0: number, tau3: number): number => {
-    const { totalMassSolar } = massEtaFromChirpTimes(tau0, tau3, fLowHz);
-    return Math.min(iscoFrequencyHz(totalMassSolar), fHighHz);
+    const { totalMassSolar } = massEtaFromChirpTimes(tau0, tau3, fMinHz);
+    return Math.min(iscoFrequencyHz(totalMassSolar), fMaxHz);
   };
 
   const sample = (tau0: number, tau3: number): MetricSample => {
-    const { totalMassSolar, eta } = massEtaFromChirpTimes(tau0, tau3, fLowHz);
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(tau0, tau3, fMinHz);
     const fIsco = iscoFrequencyHz(totalMassSolar);
-    const fUp = Math.min(fIsco, fHighHz);
-    if (!(fUp > fLowHz)) {
-      throw new InputError(`metric: upper cutoff ${fUp.toFixed(1)} Hz (ISCO of ${totalMassSolar.toFixed(2)} M_sun) is not above fLow ${fLowHz} Hz`);
+    const fUp = Math.min(fIsco, fMaxHz);
+    if (!(fUp > fMinHz)) {
+      throw new InputError(`metric: upper cutoff ${fUp.toFixed(1)} Hz (ISCO of ${totalMassSolar.toFixed(2)} M_sun) is not above fLow ${fMinHz} Hz`);
     }
     ensureGrid(fUp);
     const lnUp = Math.log(fUp);
@@ -284,7 +284,7 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
         g11: s * (c11 - (ct1 * ct1) / ctt),
       },
       cutoffHz: fUp,
-      cutoffSensitivity: fIsco <= fHighHz ? weightAt(fUp) / sw : 0,
+      cutoffSensitivity: fIsco <= fMaxHz ? weightAt(fUp) / sw : 0,
     };
   };
   const at = (tau0: number, tau3: number): Metric2 => sample(tau0, tau3).g;
@@ -299,5 +299,5 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     return createTangentMatch(smp, w, p0.slice(0, n), p1.slice(0, n), ft.slice(0, n));
   };
 
-  return { fLowHz, fHighHz, upperCutoffHz, at, sample, tangent };
+  return { fMinHz, fMaxHz, upperCutoffHz, at, sample, tangent };
 }

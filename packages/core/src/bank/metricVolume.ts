@@ -83,7 +83,7 @@ export function regionProperPerimeter(region: MassRegion, metricAt: (tau0: numbe
       const m2 = e.from[1] + s * (e.to[1] - e.from[1]);
       const m = m1 + m2;
       const eta = (m1 * m2) / (m * m);
-      const t0 = chirpTimesFromMassEta(m, eta, region.fLowHz).tau0;
+      const t0 = chirpTimesFromMassEta(m, eta, region.fMinHz).tau0;
       return [t0, region.tau3At(t0, eta)];
     });
   }

@@ -25,8 +25,8 @@ export interface PhaseChart {
 
 export interface PhaseChartOptions {
   psd: PsdModel;
-  fLowHz: number;
-  fHighHz?: number;
+  fMinHz: number;
+  fMaxHz?: number;
   region: MassRegion;
   pnOrder?: number;
 }
@@ -48,15 +48,15 @@ export interface PhaseChartOptions {
  * pulled back into it for placement.
  */
 export function createPhaseChart(options: PhaseChartOptions): PhaseChart {
-  const { psd, fLowHz, region } = options;
+  const { psd, fMinHz, region } = options;
   const pnOrder = options.pnOrder ?? 7;
   const fRef = Math.min(
-    options.fHighHz ?? Infinity,
+    options.fMaxHz ?? Infinity,
     Math.sqrt(iscoFrequencyHz(region.equalMassTotalMin) * iscoFrequencyHz(region.equalMassTotalMax)),
   );
   // Weighted, projected basis on a log grid (trapezoid in ln f).
   const nF = 800;
-  const lnLo = Math.log(fLowHz);
+  const lnLo = Math.log(fMinHz);
   const h = (Math.log(fRef) - lnLo) / (nF - 1);
   const f = new Float64Array(nF);
   const w = new Float64Array(nF);
@@ -126,7 +126,7 @@ export function createPhaseChart(options: PhaseChartOptions): PhaseChart {
     for (let j = 0; j < nE; j++) {
       const eta = lo + ((0.25 - lo) * j) / (nE - 1);
       const v = new Float64Array(N_BASIS);
-      coefficients(totalMassFromTau0Eta(t0, eta, fLowHz), eta, v);
+      coefficients(totalMassFromTau0Eta(t0, eta, fMinHz), eta, v);
       samples.push(v);
     }
   }
@@ -156,7 +156,7 @@ export function createPhaseChart(options: PhaseChartOptions): PhaseChart {
   });
   const cx = new Float64Array(N_BASIS);
   const rawX = (tau0: number, tau3: number): [number, number] => {
-    const { totalMassSolar, eta } = massEtaFromChirpTimes(tau0, tau3, fLowHz);
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(tau0, tau3, fMinHz);
     coefficients(totalMassSolar, eta, cx);
     let x0 = 0;
     let x1 = 0;

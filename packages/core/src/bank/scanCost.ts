@@ -27,7 +27,7 @@ export interface TemplateCostOptions {
   longestTemplateSeconds: number;
   /** Highest template frequency (Hz): the sample rate is the next power of two ≥ 2× this (at most 16384). */
   highestFrequencyHz: number;
-  fminHz: number;
+  fMinHz: number;
   /** Timed runs (default 5; the median is kept). */
   repeats?: number;
   backend?: FftBackendName;
@@ -40,11 +40,11 @@ export interface TemplateCostOptions {
  * those inverse FFTs (templates × segments of them; design notes); the rest is small beside them.
  */
 export function measureTemplateCost(options: TemplateCostOptions): TemplateCostMeasurement {
-  const { longestTemplateSeconds, highestFrequencyHz, fminHz } = options;
+  const { longestTemplateSeconds, highestFrequencyHz, fMinHz } = options;
   const repeats = options.repeats ?? 5;
   const backend = options.backend ?? resolveFftBackend("auto");
   if (!(longestTemplateSeconds > 0)) throw new InputError(`scan cost: longestTemplateSeconds must be positive (got ${longestTemplateSeconds})`);
-  if (!(highestFrequencyHz > fminHz)) throw new InputError(`scan cost: highestFrequencyHz must exceed fminHz`);
+  if (!(highestFrequencyHz > fMinHz)) throw new InputError(`scan cost: highestFrequencyHz must exceed fMinHz`);
   if (!Number.isInteger(repeats) || repeats < 1) throw new InputError(`scan cost: repeats must be a positive integer (got ${repeats})`);
   const segmentSeconds = Math.max(8, Math.pow(2, Math.ceil(Math.log2(2 * longestTemplateSeconds))));
   const sampleRate = Math.min(16384, Math.pow(2, Math.ceil(Math.log2(2 * highestFrequencyHz))));
@@ -62,7 +62,7 @@ export function measureTemplateCost(options: TemplateCostOptions): TemplateCostM
   // One warm-up run, then the timed ones (masses vary a little so nothing is cached).
   for (let rep = -1; rep < repeats; rep++) {
     const t0 = performance.now();
-    gen.generate(tmpl, fminHz, 1.4 + 0.01 * rep, 1.3, 1, highestFrequencyHz);
+    gen.generate(tmpl, fMinHz, 1.4 + 0.01 * rep, 1.3, 1, highestFrequencyHz);
     for (let k = 0; k < nBins; k++) {
       const ar = data[2 * k];
       const ai = data[2 * k + 1];

@@ -62,7 +62,7 @@ function spinRegionOf(options: BuildSpinBankOptions): SpinRegion {
   return {
     masses: createMassRegion(
       { minMassSolar: mMin, maxMassSolar: mMax, totalMassCapSolar: options.totalMassCapSolar, massRatioCap: options.massRatioCap },
-      options.fminHz,
+      options.fMinHz,
     ),
     spinRange: options.spinRange,
   };
@@ -77,7 +77,7 @@ function spinRegionOf(options: BuildSpinBankOptions): SpinRegion {
 export function estimateSpinTemplateCount(options: BuildSpinBankOptions): number {
   checkBankOptions(options);
   checkSpinRange(options.spinRange);
-  const metric = createSpinMetric({ psd: options.psd, fLowHz: options.fminHz, fHighHz: options.fmaxHz, minimalMatch: options.matchFloor });
+  const metric = createSpinMetric({ psd: options.psd, fMinHz: options.fMinHz, fMaxHz: options.fMaxHz, minimalMatch: options.matchFloor });
   const volume = spinRegionProperVolume(spinRegionOf(options), metric);
   return spinVolumeEstimate(volume, options.matchFloor) + estimateTemplateCount(options);
 }
@@ -99,7 +99,7 @@ export function buildSpinBankWithReport(options: BuildSpinBankOptions): { bank: 
     throw new InputError(`placement must be "lattice" or "stochastic" (got ${JSON.stringify(placementKind)})`);
   }
   const region = spinRegionOf(options);
-  const metric = createSpinMetric({ psd: options.psd, fLowHz: options.fminHz, fHighHz: options.fmaxHz, minimalMatch: options.matchFloor });
+  const metric = createSpinMetric({ psd: options.psd, fMinHz: options.fMinHz, fMaxHz: options.fMaxHz, minimalMatch: options.matchFloor });
   const properVolume = spinRegionProperVolume(region, metric);
   const volumeEstimate = spinVolumeEstimate(properVolume, options.matchFloor);
   const estimate = volumeEstimate + estimateTemplateCount(options);
@@ -108,7 +108,7 @@ export function buildSpinBankWithReport(options: BuildSpinBankOptions): { bank: 
     const [mMin, mMax] = options.massRangeSolar;
     const [sLo, sHi] = options.spinRange;
     throw new TemplateLimitError(
-      `${mMin}–${mMax} M_sun with aligned spins ${sLo} to ${sHi} from ${options.fminHz} Hz at minimal match ${options.matchFloor} needs about ` +
+      `${mMin}–${mMax} M_sun with aligned spins ${sLo} to ${sHi} from ${options.fMinHz} Hz at minimal match ${options.matchFloor} needs about ` +
         `${estimate.toPrecision(2)} templates, more than the limit of ${limit}`,
       estimate,
       limit,
@@ -124,7 +124,7 @@ export function buildSpinBankWithReport(options: BuildSpinBankOptions): { bank: 
   });
   const templates: Template[] = placed.points.map((p) => {
     const { m1, m2 } = spinPointComponents(p);
-    const ct = chirpTimesFromComponents(m1, m2, options.fminHz);
+    const ct = chirpTimesFromComponents(m1, m2, options.fMinHz);
     return {
       primaryMass: m1,
       secondaryMass: m2,
@@ -137,18 +137,18 @@ export function buildSpinBankWithReport(options: BuildSpinBankOptions): { bank: 
   });
   templates.sort((a, b) => a.chirpMass - b.chirpMass || a.primaryMass - b.primaryMass || a.primarySpin! - b.primarySpin!);
   if (templates.length === 0) {
-    throw new InputError(`the placement found no template for ${options.massRangeSolar.join("–")} M_sun from ${options.fminHz} Hz; widen the band or the ranges`);
+    throw new InputError(`the placement found no template for ${options.massRangeSolar.join("–")} M_sun from ${options.fMinHz} Hz; widen the band or the ranges`);
   }
   const [mMin, mMax] = options.massRangeSolar;
   const bank: TemplateBank = {
-    fminHz: options.fminHz,
+    fMinHz: options.fMinHz,
     matchFloor: options.matchFloor,
     noiseCurve: options.noiseCurve ?? options.psd.name,
     massRangeSolar: [mMin, mMax],
     spinRange: [options.spinRange[0], options.spinRange[1]],
     ...(options.totalMassCapSolar !== undefined ? { totalMassCapSolar: options.totalMassCapSolar } : {}),
     ...(options.massRatioCap !== undefined ? { massRatioCap: options.massRatioCap } : {}),
-    ...(options.fmaxHz !== undefined ? { fmaxHz: options.fmaxHz } : {}),
+    ...(options.fMaxHz !== undefined ? { fMaxHz: options.fMaxHz } : {}),
     templates,
   };
   return {

@@ -95,9 +95,9 @@ export function equalSpinPhaseInto(totalMassSolar: number, eta: number, spin: nu
 export interface SpinMetricOptions {
   psd: PsdModel;
   /** Lower end of the inner products (Hz): the bank's fmin, also the reference of the chirp times. */
-  fLowHz: number;
+  fMinHz: number;
   /** Fixed upper end (Hz); default each point's ISCO frequency. */
-  fHighHz?: number;
+  fMaxHz?: number;
   /** Frequencies of the quadrature (log-spaced; default 160). */
   points?: number;
   /**
@@ -117,7 +117,7 @@ export interface SpinMetric {
  * The match metric g_ij with time and phase maximised out (Owen, Phys. Rev. D 53, 6749 (1996), Sec. II):
  *   g_ij = ½ [⟨ψi ψj⟩ − ⟨ψi⟩⟨ψj⟩ − (⟨ψi ω⟩ − ⟨ψi⟩⟨ω⟩)(⟨ψj ω⟩ − ⟨ψj⟩⟨ω⟩) / (⟨ω²⟩ − ⟨ω⟩²)],
  * ψi = ∂Ψ/∂u_i, ω = 2πf, ⟨x⟩ = ∫ x f^{−7/3}/S df / ∫ f^{−7/3}/S df from fLow to the point's ISCO
- * (or fHighHz), so that 1 − match ≈ g_ij Δu_i Δu_j. The derivatives are central differences of
+ * (or fMaxHz), so that 1 − match ≈ g_ij Δu_i Δu_j. The derivatives are central differences of
  * {@link equalSpinPhaseInto} (relative steps 1e-5); the integrals a trapezoid rule on a log grid.
  *
  * When the ISCO ends the band, a template of another total mass ends elsewhere, which costs a mismatch
@@ -127,7 +127,7 @@ export interface SpinMetric {
  * budget 1 − MM and is below it on the axis (conservative there).
  */
 export function createSpinMetric(options: SpinMetricOptions): SpinMetric {
-  const { psd, fLowHz } = options;
+  const { psd, fMinHz } = options;
   const n = options.points ?? 160;
   const f = new Float64Array(n);
   const w = new Float64Array(n);
@@ -135,15 +135,15 @@ export function createSpinMetric(options: SpinMetricOptions): SpinMetric {
   const d = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
   const psdTop = psd.fMaxHz ?? Infinity;
   const phaseAt = (t0: number, t3: number, ts: number, out: Float64Array): void => {
-    const p = massEtaSpinFromCoordinates(t0, t3, ts, fLowHz);
+    const p = massEtaSpinFromCoordinates(t0, t3, ts, fMinHz);
     equalSpinPhaseInto(p.totalMassSolar, p.eta, p.spin, f, out);
   };
   return {
     at(tau0, tau3, tauS, out = new Float64Array(6)) {
-      const m = massEtaFromChirpTimes(tau0, tau3, fLowHz).totalMassSolar;
-      const fTop = Math.min(iscoFrequencyHz(m), options.fHighHz ?? Infinity, psdTop);
-      const lnLo = Math.log(fLowHz);
-      const step = (Math.log(Math.max(fTop, fLowHz * 1.0001)) - lnLo) / (n - 1);
+      const m = massEtaFromChirpTimes(tau0, tau3, fMinHz).totalMassSolar;
+      const fTop = Math.min(iscoFrequencyHz(m), options.fMaxHz ?? Infinity, psdTop);
+      const lnLo = Math.log(fMinHz);
+      const step = (Math.log(Math.max(fTop, fMinHz * 1.0001)) - lnLo) / (n - 1);
       let norm = 0;
       for (let i = 0; i < n; i++) {
         f[i] = Math.exp(lnLo + i * step);
@@ -155,7 +155,7 @@ export function createSpinMetric(options: SpinMetricOptions): SpinMetric {
       }
       for (let i = 0; i < n; i++) w[i] /= norm;
       // Density of the normalised weight per unit ln f at the cutoff (w[n−1] holds half a step).
-      const cutoffDensity = fTop < Math.min(options.fHighHz ?? Infinity, psdTop) * (1 - 1e-12) ? (2 * w[n - 1]) / step : 0;
+      const cutoffDensity = fTop < Math.min(options.fMaxHz ?? Infinity, psdTop) * (1 - 1e-12) ? (2 * w[n - 1]) / step : 0;
       const u = [tau0, tau3, tauS];
       const h = [1e-5 * tau0, 1e-5 * tau3, 1e-5 * tau3];
       for (let j = 0; j < 3; j++) {

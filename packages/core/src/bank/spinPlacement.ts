@@ -59,7 +59,7 @@ export function spinRegionPoint(region: SpinRegion, u: readonly number[]): { tot
   const [t0, t3, ts] = u;
   if (!(t0 >= m.tau0Min && t0 <= m.tau0Max && t3 > 0)) return undefined;
   if (!m.contains(t0, t3)) return undefined;
-  const { totalMassSolar, eta } = massEtaFromChirpTimes(t0, t3, m.fLowHz);
+  const { totalMassSolar, eta } = massEtaFromChirpTimes(t0, t3, m.fMinHz);
   const spin = (12 * ((4 * Math.PI * ts) / t3)) / (113 - 76 * Math.min(eta, 0.25));
   const [lo, hi] = region.spinRange;
   const slack = 1e-9 * Math.max(1, hi - lo);
@@ -303,7 +303,7 @@ export function placeSpinTemplates(options: SpinPlacementOptions): SpinPlacement
     for (let k = 0; k <= 100; k++) {
       const m1 = e.from[0] + (k / 100) * (e.to[0] - e.from[0]);
       const m2 = e.from[1] + (k / 100) * (e.to[1] - e.from[1]);
-      const t3 = spinCoordinatesFromComponents(m1, m2, 0, 0, m.fLowHz)[1];
+      const t3 = spinCoordinatesFromComponents(m1, m2, 0, 0, m.fMinHz)[1];
       t3lo = Math.min(t3lo, t3);
       t3hi = Math.max(t3hi, t3);
     }
@@ -335,7 +335,7 @@ export function placeSpinTemplates(options: SpinPlacementOptions): SpinPlacement
     const spin = sLo + (sHi - sLo) * rng();
     if (!m.contains(t0, t3)) continue;
     proposals++;
-    const eta = Math.min(0.25, massEtaFromChirpTimes(t0, t3, m.fLowHz).eta);
+    const eta = Math.min(0.25, massEtaFromChirpTimes(t0, t3, m.fMinHz).eta);
     const u: [number, number, number] = [t0, t3, (t3 * spin * (113 - 76 * eta)) / (48 * Math.PI)];
     metric.at(u[0], u[1], u[2], g);
     const gi = inverse3(g);
@@ -353,7 +353,7 @@ export function placeSpinTemplates(options: SpinPlacementOptions): SpinPlacement
       continue;
     }
     run = 0;
-    const { totalMassSolar } = massEtaFromChirpTimes(t0, t3, m.fLowHz);
+    const { totalMassSolar } = massEtaFromChirpTimes(t0, t3, m.fMinHz);
     add(u, { totalMassSolar, eta, spin });
     stochasticCount++;
   }

@@ -116,8 +116,8 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
       : verifyBank(bank, { draws, seed: options.seed, signal, drawSpace: options.drawSpace, psd: options.psd });
     if (options.measureCost !== false && !cost) {
       const longest = bank.templates.reduce((m, t) => Math.max(m, t.tau0), 0);
-      const top = Math.min(options.fmaxHz ?? Infinity, iscoFrequencyHz(2 * options.massRangeSolar[0]));
-      cost = measureTemplateCost({ longestTemplateSeconds: longest, highestFrequencyHz: top, fminHz: options.fminHz });
+      const top = Math.min(options.fMaxHz ?? Infinity, iscoFrequencyHz(2 * options.massRangeSolar[0]));
+      cost = measureTemplateCost({ longestTemplateSeconds: longest, highestFrequencyHz: top, fMinHz: options.fMinHz });
     }
     rows.push({
       matchFloor: mm,

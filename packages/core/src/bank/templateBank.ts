@@ -37,7 +37,7 @@ export interface BankGenerator {
 /** A template bank: the templates and the settings they were placed for. */
 export interface TemplateBank {
   /** Low-frequency cutoff (Hz) of the match, and reference frequency of the chirp times. */
-  fminHz: number;
+  fMinHz: number;
   /** Minimal match MM the bank was placed for. */
   matchFloor: number;
   /** Name or table path of the noise curve (as given to psdModelFromSpec / psdModelByName). */
@@ -49,7 +49,7 @@ export interface TemplateBank {
   totalMassCapSolar?: number;
   massRatioCap?: number;
   /** Fixed upper cutoff (Hz) of the metric integrals, when one was given (otherwise each template's ISCO). */
-  fmaxHz?: number;
+  fMaxHz?: number;
   templates: Template[];
   generator?: BankGenerator;
 }
@@ -57,13 +57,13 @@ export interface TemplateBank {
 export interface BuildBankOptions {
   massRangeSolar: [number, number];
   matchFloor: number;
-  fminHz: number;
+  fMinHz: number;
   psd: PsdModel;
   /** Label stored in the bank for the noise curve (default psd.name). */
   noiseCurve?: string;
   totalMassCapSolar?: number;
   massRatioCap?: number;
-  fmaxHz?: number;
+  fMaxHz?: number;
   /** Metric variation (λmax/λmin − 1) below which a lattice patch is never split (default 0.05; lattice.ts). */
   tolerance?: number;
   /** Cover thin patches with rows along the band when that needs fewer templates (default true; stripPlacement.ts). */
@@ -96,7 +96,7 @@ export class TemplateLimitError extends InputError {
 }
 
 /**
- * How wide a bank's band must be, as ratios to fminHz. Over a narrow band the phase barely curves once
+ * How wide a bank's band must be, as ratios to fMinHz. Over a narrow band the phase barely curves once
  * time and phase are fitted out, so the match hardly tells templates apart: the metric becomes nearly
  * singular and placements fail. Measured (1–3 M_sun, MM 0.97, 400 draws): with a fixed fmax, 30–33 Hz
  * and 40–44 Hz covered only 98.5% and 95.8% of draws and 40–48 Hz 98.8%, while every band of ratio
@@ -107,10 +107,10 @@ export class TemplateLimitError extends InputError {
 export const MIN_ISCO_OVER_FMIN = 1.1;
 export const MIN_FMAX_OVER_FMIN = 1.3;
 
-/** fminHz or fmaxHz leaves too narrow a band (see {@link MIN_ISCO_OVER_FMIN}); `detail` omits the option's name. */
+/** fMinHz or fMaxHz leaves too narrow a band (see {@link MIN_ISCO_OVER_FMIN}); `detail` omits the option's name. */
 export class BandError extends InputError {
   constructor(
-    readonly option: "fminHz" | "fmaxHz",
+    readonly option: "fMinHz" | "fMaxHz",
     detail: string,
   ) {
     super(`${option} ${detail}`, { parameter: option, detail });
@@ -151,10 +151,10 @@ export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> &
   if (options.matchFloor !== undefined && !(options.matchFloor >= MIN_MATCH_FLOOR && options.matchFloor <= MAX_MATCH_FLOOR)) {
     throw parameterError("matchFloor", `must be from ${MIN_MATCH_FLOOR} to ${MAX_MATCH_FLOOR} (got ${options.matchFloor})`);
   }
-  const fmin = options.fminHz;
-  if (!(fmin > 0) || !Number.isFinite(fmin)) throw parameterError("fminHz", `must be a positive number of Hz (got ${fmin})`);
+  const fmin = options.fMinHz;
+  if (!(fmin > 0) || !Number.isFinite(fmin)) throw parameterError("fMinHz", `must be a positive number of Hz (got ${fmin})`);
   if (fmin < options.psd.fMinHz) {
-    throw parameterError("fminHz", `${fmin} Hz is below the lowest frequency ${options.psd.fMinHz} Hz of noise curve "${options.psd.name}"`);
+    throw parameterError("fMinHz", `${fmin} Hz is below the lowest frequency ${options.psd.fMinHz} Hz of noise curve "${options.psd.name}"`);
   }
   const mTot = options.totalMassCapSolar;
   if (mTot !== undefined && !(mTot > 2 * mMin)) {
@@ -167,15 +167,15 @@ export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> &
   const slack = 1 - 1e-9; // so that a typed 1.1 × fmin passes despite rounding
   if (!(fmin * MIN_ISCO_OVER_FMIN * slack <= fIsco)) {
     throw new BandError(
-      "fminHz",
+      "fMinHz",
       `${fmin} Hz must be at most ${(fIsco / MIN_ISCO_OVER_FMIN).toFixed(1)} Hz: the heaviest binary in range (total mass ${heaviest} M_sun) ` +
         `ends at its ISCO frequency ${fIsco.toFixed(1)} Hz, and its chirp needs a band up to at least ${MIN_ISCO_OVER_FMIN} × fmin to be told apart`,
     );
   }
-  const fmax = options.fmaxHz;
+  const fmax = options.fMaxHz;
   if (fmax !== undefined && !(fmax >= fmin * MIN_FMAX_OVER_FMIN * slack)) {
     throw new BandError(
-      "fmaxHz",
+      "fMaxHz",
       `${fmax} Hz must be at least ${+(fmin * MIN_FMAX_OVER_FMIN).toFixed(3)} Hz (${MIN_FMAX_OVER_FMIN} × fmin ${fmin} Hz): a narrower band cannot tell the templates apart`,
     );
   }
@@ -191,17 +191,17 @@ export function checkBankOptions(options: Omit<BuildBankOptions, "matchFloor"> &
  */
 export function buildBankWithReport(options: BuildBankOptions): { bank: TemplateBank; report: BankPlacementReport } {
   checkBankOptions(options);
-  const { fminHz, psd, matchFloor } = options;
+  const { fMinHz, psd, matchFloor } = options;
   const [mMin, mMax] = options.massRangeSolar;
   const region = regionOf(options);
-  const metric = createChirpTimeMetric({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, pointsPerEFold: 60 });
+  const metric = createChirpTimeMetric({ psd, fMinHz: fMinHz, fMaxHz: options.fMaxHz, pointsPerEFold: 60 });
   const properArea = regionProperArea(region, (t0, t3) => metric.at(t0, t3));
   const cell = hexagonCellArea(matchFloor);
   const properPerimeter = regionProperPerimeter(region, (t0, t3) => metric.at(t0, t3));
   // Refuse before the placement, the only slow part, from the estimate the report gives.
   const effective = effectiveEstimate(region, metric, matchFloor);
   const limit = checkTemplateLimit(options, effective.estimate);
-  const chart = createPhaseChart({ psd, fLowHz: fminHz, fHighHz: options.fmaxHz, region });
+  const chart = createPhaseChart({ psd, fMinHz: fMinHz, fMaxHz: options.fMaxHz, region });
   const placement = placeWithin(limit, options, {
     region,
     metric,
@@ -211,7 +211,7 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
     bandRows: options.bandRows,
   });
   const templates: Template[] = placement.points.map((p) => {
-    const { totalMassSolar, eta } = massEtaFromChirpTimes(p.tau0, p.tau3, fminHz);
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(p.tau0, p.tau3, fMinHz);
     const e = Math.min(eta, 0.25);
     const c = componentsFromMassEta(totalMassSolar, e);
     return { primaryMass: c.m1, secondaryMass: c.m2, chirpMass: chirpMassFromMassEta(totalMassSolar, e), tau0: p.tau0, tau3: p.tau3 };
@@ -220,16 +220,16 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
   // Never hand back an empty bank as if it covered the region (the band rule above keeps this from
   // happening in every case we know of).
   if (templates.length === 0) {
-    throw new InputError(`the placement found no template for ${mMin}–${mMax} M_sun from ${fminHz} Hz; widen the band or the mass range`);
+    throw new InputError(`the placement found no template for ${mMin}–${mMax} M_sun from ${fMinHz} Hz; widen the band or the mass range`);
   }
   const bank: TemplateBank = {
-    fminHz,
+    fMinHz,
     matchFloor,
     noiseCurve: options.noiseCurve ?? psd.name,
     massRangeSolar: [mMin, mMax],
     ...(options.totalMassCapSolar !== undefined ? { totalMassCapSolar: options.totalMassCapSolar } : {}),
     ...(options.massRatioCap !== undefined ? { massRatioCap: options.massRatioCap } : {}),
-    ...(options.fmaxHz !== undefined ? { fmaxHz: options.fmaxHz } : {}),
+    ...(options.fMaxHz !== undefined ? { fMaxHz: options.fMaxHz } : {}),
     templates,
   };
   return {
@@ -273,7 +273,7 @@ function effectiveEstimate(region: MassRegion, metric: ChirpTimeMetric, matchFlo
 export function estimateTemplateCount(options: BuildBankOptions): number {
   checkBankOptions(options);
   const region = regionOf(options);
-  const metric = createChirpTimeMetric({ psd: options.psd, fLowHz: options.fminHz, fHighHz: options.fmaxHz, pointsPerEFold: 60 });
+  const metric = createChirpTimeMetric({ psd: options.psd, fMinHz: options.fMinHz, fMaxHz: options.fMaxHz, pointsPerEFold: 60 });
   return effectiveEstimate(region, metric, options.matchFloor).estimate;
 }
 
@@ -290,7 +290,7 @@ export function checkTemplateLimit(options: BuildBankOptions, estimate = estimat
 /** The error for a bank past the limit: by the estimate (before placing) or by the count placed so far. */
 function templateLimitError(options: BuildBankOptions, count: number, limit: number, how: "estimated" | "placed"): TemplateLimitError {
   const [mMin, mMax] = options.massRangeSolar;
-  const region = `${mMin}–${mMax} M_sun from ${options.fminHz} Hz at minimal match ${options.matchFloor}`;
+  const region = `${mMin}–${mMax} M_sun from ${options.fMinHz} Hz at minimal match ${options.matchFloor}`;
   const what = how === "estimated" ? `needs about ${Number.isFinite(count) ? count.toPrecision(2) : String(count)} templates` : `needed more than ${count} templates (placement stopped there)`;
   return new TemplateLimitError(`${region} ${what}, more than the limit of ${limit}`, count, limit);
 }
@@ -310,7 +310,7 @@ function regionOf(options: BuildBankOptions): MassRegion {
   const [mMin, mMax] = options.massRangeSolar;
   return createMassRegion(
     { minMassSolar: mMin, maxMassSolar: mMax, totalMassCapSolar: options.totalMassCapSolar, massRatioCap: options.massRatioCap },
-    options.fminHz,
+    options.fMinHz,
   );
 }
 

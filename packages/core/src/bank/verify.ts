@@ -117,7 +117,7 @@ export function drawInRegion(region: MassRegion, count: number, space: VerifyDra
   let t3lo = Infinity;
   let t3hi = -Infinity;
   const note = (m1: number, m2: number): void => {
-    const t = chirpTimesFromComponents(m1, m2, region.fLowHz);
+    const t = chirpTimesFromComponents(m1, m2, region.fMinHz);
     t3lo = Math.min(t3lo, t.tau3);
     t3hi = Math.max(t3hi, t.tau3);
   };
@@ -134,7 +134,7 @@ export function drawInRegion(region: MassRegion, count: number, space: VerifyDra
     const t0 = region.tau0Min + (region.tau0Max - region.tau0Min) * rng();
     const t3 = t3lo + (t3hi - t3lo) * rng();
     if (!region.contains(t0, t3)) continue;
-    const { totalMassSolar, eta } = massEtaFromChirpTimes(t0, t3, region.fLowHz);
+    const { totalMassSolar, eta } = massEtaFromChirpTimes(t0, t3, region.fMinHz);
     const c = componentsFromMassEta(totalMassSolar, Math.min(eta, 0.25));
     out.push({ m1: c.m1, m2: c.m2 });
   }
@@ -186,8 +186,8 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     throw new InputError(`verify: the bank's templates carry aligned spins; verify it with spinning draws (verifyBankWithSpins)`);
   }
   const psd = options.psd ?? psdModelFromSpec(bank.noiseCurve);
-  const fmin = bank.fminHz;
-  const fmax = bank.fmaxHz ?? Infinity;
+  const fmin = bank.fMinHz;
+  const fmax = bank.fMaxHz ?? Infinity;
   const region = createMassRegion(
     {
       minMassSolar: bank.massRangeSolar[0],
@@ -197,8 +197,8 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     },
     fmin,
   );
-  const metric = createChirpTimeMetric({ psd, fLowHz: fmin, fHighHz: bank.fmaxHz, pointsPerEFold: 60 });
-  const chart = createPhaseChart({ psd, fLowHz: fmin, fHighHz: bank.fmaxHz, region });
+  const metric = createChirpTimeMetric({ psd, fMinHz: fmin, fMaxHz: bank.fMaxHz, pointsPerEFold: 60 });
+  const chart = createPhaseChart({ psd, fMinHz: fmin, fMaxHz: bank.fMaxHz, region });
   const templates = bank.templates;
   const nT = templates.length;
   const tx = new Float64Array(nT);
@@ -223,8 +223,8 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
   const r = Math.sqrt(1 - bank.matchFloor);
   const index = createPlaneIndex(tx, ty, 2 * r);
   const lagSpan = options.lagSpanS ?? chooseVerifyLagSpan(longest);
-  const grid = chooseMatchGrid({ fHighHz: fTop, lagSpanS: lagSpan });
-  const mc = createMatchComputer({ ...grid, psd, fLowHz: fmin });
+  const grid = chooseMatchGrid({ fMaxHz: fTop, lagSpanS: lagSpan });
+  const mc = createMatchComputer({ ...grid, psd, fMinHz: fmin });
   const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
   const sig = new Float64Array(2 * grid.nBins);
   const tmp = new Float64Array(2 * grid.nBins);

@@ -44,13 +44,13 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
   if (bank.templates.length === 0) throw new InputError(`verify: the bank has no templates`);
   const minNeighbours = options.minNeighbours ?? 32;
   const psd: PsdModel = options.psd ?? psdModelFromSpec(bank.noiseCurve);
-  const fmin = bank.fminHz;
-  const fmax = bank.fmaxHz ?? Infinity;
+  const fmin = bank.fMinHz;
+  const fmax = bank.fMaxHz ?? Infinity;
   const region = createMassRegion(
     { minMassSolar: bank.massRangeSolar[0], maxMassSolar: bank.massRangeSolar[1], totalMassCapSolar: bank.totalMassCapSolar, massRatioCap: bank.massRatioCap },
     fmin,
   );
-  const metric = createSpinMetric({ psd, fLowHz: fmin, fHighHz: bank.fmaxHz, minimalMatch: bank.matchFloor });
+  const metric = createSpinMetric({ psd, fMinHz: fmin, fMaxHz: bank.fMaxHz, minimalMatch: bank.matchFloor });
   const templates = bank.templates;
   const nT = templates.length;
   const tu = new Float64Array(3 * nT);
@@ -73,8 +73,8 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
     // Aligned spins lengthen the chirp by well under a tenth here; the lag span only needs its scale.
     longest = Math.max(longest, 1.1 * chirpTimesFromComponents(d.m1, d.m2, fmin).tau0);
   }
-  const grid = chooseMatchGrid({ fHighHz: fTop, lagSpanS: chooseVerifyLagSpan(longest) });
-  const mc = createMatchComputer({ ...grid, psd, fLowHz: fmin });
+  const grid = chooseMatchGrid({ fMaxHz: fTop, lagSpanS: chooseVerifyLagSpan(longest) });
+  const mc = createMatchComputer({ ...grid, psd, fMinHz: fmin });
   const gen = createTaylorF2Generator(grid.nBins, grid.dfHz);
   const sig = new Float64Array(2 * grid.nBins);
   const tmp = new Float64Array(2 * grid.nBins);

@@ -31,7 +31,7 @@ export function injectionAtSites(injection: Injection, detectors: readonly Detec
   const ci = Math.cos(inj.inclination);
   const ap = (1 + ci * ci) / 2;
   return detectors.map((d) => {
-    const { plus, cross } = plusCrossResponse(d, inj, inj.polarization, gmst);
+    const { plus, cross } = plusCrossResponse(d, inj, inj.polarisation, gmst);
     const delaySeconds = geocentreDelay(d, inj, gmst);
     return {
       site: d.name,

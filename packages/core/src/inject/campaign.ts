@@ -7,8 +7,8 @@ import type { PsdModel } from "../noise/psdModel.js";
 import { welchPsd } from "../noise/welch.js";
 import { M_SUN } from "../physics/constants.js";
 import { chirpMass } from "../physics/masses.js";
-import { arraySource } from "../search/arraySource.js";
-import { searchSource, truncationSeconds, validateSearchOptions } from "../search/scan.js";
+import { arrayInput } from "../search/arrayInput.js";
+import { searchStrain, truncationSeconds, validateSearchOptions } from "../search/scan.js";
 import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo } from "../search/segmentPlan.js";
 import { templateDurationSeconds } from "../search/templateTiming.js";
 import type { SearchInput, SearchOptions } from "../search/types.js";
@@ -99,7 +99,7 @@ export interface InjectionOutcome {
   inclination: number;
   rightAscension: number;
   declination: number;
-  polarization: number;
+  polarisation: number;
   phase: number;
   optimalSnr: number;
   found: boolean;
@@ -344,7 +344,7 @@ async function batchStrain(options: CampaignOptions, layout: CampaignLayout, b: 
       series.set(chunk, at);
       at += chunk.length;
     }
-    return { input: arraySource(series, fs, stretch.startTime, `<simulated batch ${b}>`), injections };
+    return { input: arrayInput(series, fs, stretch.startTime, `<simulated batch ${b}>`), injections };
   }
   const source = data.sources[stretch.source];
   const series = Float64Array.from(await source.read(stretch.offset, layout.batchSamples));
@@ -358,12 +358,12 @@ async function batchStrain(options: CampaignOptions, layout: CampaignLayout, b: 
   }
   const injections = drawBatchInjections(options, layout, b, psd);
   for (const inj of injections) injectInto(series, fs, stretch.startTime, inj, detector, options.search.fMinHz);
-  return { input: arraySource(series, fs, stretch.startTime, source.file), injections };
+  return { input: arrayInput(series, fs, stretch.startTime, source.file), injections };
 }
 
 /**
  * Runs batch b: builds its strain (simulated noise or a stretch of the user's strain, plus the
- * batch's TaylorT4 injections), searches it with {@link searchSource} exactly as `scan` does,
+ * batch's TaylorT4 injections), searches it with {@link searchStrain} exactly as `scan` does,
  * and matches the candidates to the injections ({@link matchInjections}).
  */
 export async function runCampaignBatch(options: CampaignOptions, layout: CampaignLayout, b: number): Promise<BatchResult> {
@@ -371,7 +371,7 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
   const detector = options.detector ?? SITE_A;
   const { input, injections } = await batchStrain(options, layout, b);
   const { onProgress: _ignored, ...search } = options.search;
-  const { candidates, summary } = await searchSource(input, { ...search, segmentSeconds: layout.batchSeconds });
+  const { candidates, summary } = await searchStrain(input, { ...search, segmentSeconds: layout.batchSeconds });
   const { matched, unmatched } = matchInjections(injections, candidates, detector, layout.matchWindowSeconds);
   const first = b * layout.injectionsPerBatch;
   const outcomes: InjectionOutcome[] = injections.map((inj, k) => {
@@ -390,7 +390,7 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
       inclination: inj.inclination,
       rightAscension: inj.rightAscension,
       declination: inj.declination,
-      polarization: inj.polarization,
+      polarisation: inj.polarisation,
       phase: inj.phase,
       optimalSnr: inj.optimalSnr ?? Number.NaN,
       found: c !== undefined,

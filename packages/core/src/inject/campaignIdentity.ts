@@ -33,7 +33,7 @@ export function campaignIdentity(o: CampaignOptions, bank: string): Record<strin
     fMinHz: s.fMinHz,
     fMaxHz: s.fMaxHz ?? null,
     minSnr: s.snrThreshold,
-    chi2Bands: s.chi2Bins,
+    chi2Bands: s.chi2Bands,
     chi2Allowance: s.chi2Allowance ?? 0,
     loudestWithinSeconds: s.loudestWithinSeconds,
     psd: psdLabel(s.psd),

@@ -160,9 +160,9 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
     const cosIota = 2 * rng() - 1;
     const rightAscension = 2 * Math.PI * rng();
     const sinDec = 2 * rng() - 1;
-    const polarization = Math.PI * rng();
+    const polarisation = Math.PI * rng();
     const phase = 2 * Math.PI * rng();
-    return { m1, m2, level, inclination: Math.acos(cosIota), rightAscension, declination: Math.asin(sinDec), polarization, phase };
+    return { m1, m2, level, inclination: Math.acos(cosIota), rightAscension, declination: Math.asin(sinDec), polarisation, phase };
   });
 
   // Placement: minimum spacings, then the slack shared out by sorted uniforms.
@@ -192,7 +192,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
       inclination: d.inclination,
       rightAscension: d.rightAscension,
       declination: d.declination,
-      polarization: d.polarization,
+      polarisation: d.polarisation,
       phase: d.phase,
     };
     if (spinRange) {

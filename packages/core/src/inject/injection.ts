@@ -22,7 +22,7 @@ export interface Injection {
   /** Declination δ in [−π/2, π/2], rad. */
   declination: number;
   /** Polarisation angle ψ, rad. */
-  polarization: number;
+  polarisation: number;
   /** Orbital phase at coalescence, rad (the GW phase there is twice this). */
   phase: number;
   /** Optimal (noise-weighted) SNR in the detector, when known (drawInjections and `simulate` fill it in). */
@@ -61,7 +61,7 @@ export interface ProjectionOptions {
 export function projectInjection(injection: Injection, detector: Detector, options: ProjectionOptions): StrainSegment {
   const inj = checkInjection(injection, "injection");
   const gmst = siderealAngle(inj.coalescenceTime);
-  const { plus, cross } = plusCrossResponse(detector, inj, inj.polarization, gmst);
+  const { plus, cross } = plusCrossResponse(detector, inj, inj.polarisation, gmst);
   const delay = geocentreDelay(detector, inj, gmst);
   const gridStart = options.gridStartTime ?? 0;
   const wf = taylorT4({
@@ -125,7 +125,7 @@ export const INJECTION_FIELDS = [
   "inclination",
   "rightAscension",
   "declination",
-  "polarization",
+  "polarisation",
   "phase",
 ] as const;
 

@@ -67,7 +67,7 @@ export function injectionManifest(
       inclination: inj.inclination,
       rightAscension: inj.rightAscension,
       declination: inj.declination,
-      polarization: inj.polarization,
+      polarisation: inj.polarisation,
       phase: inj.phase,
       optimalSnr: inj.optimalSnr ?? Number.NaN,
       ...(inj.networkOptimalSnr !== undefined ? { networkOptimalSnr: inj.networkOptimalSnr } : {}),

@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import type { StrainSource } from "./strainTypes.js";
+import type { StrainReader } from "./strainTypes.js";
 
 /** Samples per read while looking for a second value (bounds memory on long files). */
 const CHUNK = 1 << 20;
@@ -18,7 +18,7 @@ export interface ConstantSeries {
  * samples are passed over, so a source opened with `nonFinite: "allow"` can be checked too.
  * Such a file has no strain to search: its PSD is zero and its SNRs are meaningless.
  */
-export async function findConstantSeries(source: StrainSource): Promise<ConstantSeries | undefined> {
+export async function findConstantSeries(source: StrainReader): Promise<ConstantSeries | undefined> {
   let first = Number.NaN;
   for (let at = 0; at < source.length; at += CHUNK) {
     const chunk = await source.read(at, Math.min(CHUNK, source.length - at));
@@ -41,7 +41,7 @@ export function describeConstantSeries(c: ConstantSeries): string {
 }
 
 /** Throws an InputError naming the file when every finite sample of `source` has one value. */
-export async function checkNotConstant(source: StrainSource): Promise<void> {
+export async function checkNotConstant(source: StrainReader): Promise<void> {
   const c = await findConstantSeries(source);
   if (c) throw new InputError(describeConstantSeries(c));
 }

@@ -6,7 +6,7 @@ import { outputTarget } from "./fileIdentity.js";
 import { InputError, parameterError } from "../errors.js";
 import { Hdf5Failure, hdf5Request } from "./hdf5Client.js";
 import { agrees, checkFinite, checkReadRange, inputFsError, shown, statInputFile } from "./strainChecks.js";
-import type { StrainOpenOptions, StrainSource, StrainWriteInput } from "./strainTypes.js";
+import type { StrainOpenOptions, StrainReader, StrainWriteInput } from "./strainTypes.js";
 
 /** Attribute names read as a sample rate in Hz. */
 export const HDF5_RATE_ATTRIBUTES: readonly string[] = ["sampleRate", "sample_rate", "samplingRate", "sampling_rate", "rate", "fs"];
@@ -113,7 +113,7 @@ interface Found {
   value: unknown;
 }
 
-class Hdf5StrainSource implements StrainSource {
+class Hdf5StrainSource implements StrainReader {
   private open = true;
   constructor(
     private readonly handle: number,
@@ -177,7 +177,7 @@ function asInputError(path: string, err: unknown, what = "unreadable HDF5 file")
  * how the dataset, sample rate and start time are found). The HDF5 library runs in a worker
  * thread (see hdf5Client.ts), so a damaged file cannot hang or crash the caller.
  */
-export async function openHdf5Strain(path: string, options: StrainOpenOptions): Promise<StrainSource> {
+export async function openHdf5Strain(path: string, options: StrainOpenOptions): Promise<StrainReader> {
   const st = await statInputFile(path);
   if (st.size === 0) throw new InputError(`${path}: empty file`);
   if (!(await hasHdf5Signature(path, st.size))) {

@@ -1,13 +1,13 @@
 import { InputError } from "../errors.js";
 import { checkReadRange, shown } from "./strainChecks.js";
-import type { StrainSeries, StrainSource } from "./strainTypes.js";
+import type { StrainSeries, StrainReader } from "./strainTypes.js";
 
 /**
- * A {@link StrainSource} over a series already in memory (e.g. simulated data, or a text file
+ * A {@link StrainReader} over a series already in memory (e.g. simulated data, or a text file
  * once parsed). `read` returns copies, so callers may modify them. Samples are not checked for
  * finiteness here: the series is taken as given. `sampleRate` and `startTime` are checked.
  */
-export function strainSourceFromSeries(series: StrainSeries): StrainSource {
+export function strainReaderFromSeries(series: StrainSeries): StrainReader {
   const { data, sampleRate, startTime, file, label, units } = series;
   if (!(data instanceof Float64Array)) throw new InputError(`${file}: data must be a Float64Array`);
   if (typeof sampleRate !== "number" || !Number.isFinite(sampleRate) || sampleRate <= 0) {
@@ -17,7 +17,7 @@ export function strainSourceFromSeries(series: StrainSeries): StrainSource {
     throw new InputError(`${file}: startTime must be a finite number of seconds (got ${shown(startTime)})`);
   }
   let closed = false;
-  const source: StrainSource = {
+  const source: StrainReader = {
     file,
     sampleRate,
     startTime,

@@ -12,7 +12,7 @@ import {
   shown,
   statInputFile,
 } from "./strainChecks.js";
-import type { StrainOpenOptions, StrainRun, StrainSource, StrainWriteInput } from "./strainTypes.js";
+import type { StrainOpenOptions, StrainRun, StrainReader, StrainWriteInput } from "./strainTypes.js";
 
 /** The two raw formats: IEEE-754 float32 (.f32) or float64 (.f64) samples. */
 export type RawStrainFormat = "f32" | "f64";
@@ -137,7 +137,7 @@ export function checkAgainstFile(
   }
 }
 
-class RawStrainSource implements StrainSource {
+class RawStrainSource implements StrainReader {
   private handle: FileHandle | undefined;
   constructor(
     handle: FileHandle,
@@ -232,7 +232,7 @@ export async function openRawStrain(
   path: string,
   format: RawStrainFormat,
   options: StrainOpenOptions,
-): Promise<StrainSource> {
+): Promise<StrainReader> {
   const st = await statInputFile(path);
   const sidecar = rawSidecarPath(path);
   let text: string;

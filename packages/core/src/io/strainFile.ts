@@ -8,7 +8,7 @@ import { openTextStrain, writeTextStrain } from "./textStrain.js";
 import type {
   StrainOpenOptions,
   StrainSeries,
-  StrainSource,
+  StrainReader,
   StrainWriteInput,
   StrainWriteOptions,
 } from "./strainTypes.js";
@@ -40,7 +40,7 @@ function checkOpenOptions(options: StrainOpenOptions): void {
  * message names the file (and the line, sample or attribute) and what is wrong; a missing file is
  * `<path>: no such file`. Close the source when done.
  */
-export async function openStrain(path: string, options: StrainOpenOptions = {}): Promise<StrainSource> {
+export async function openStrain(path: string, options: StrainOpenOptions = {}): Promise<StrainReader> {
   checkPath(path);
   checkOpenOptions(options);
   const format = strainFormatOf(path, options.format);

@@ -55,7 +55,7 @@ export interface StrainOpenOptions {
  * unless the file was opened with `nonFinite: "allow"` (each read checks only what it returns).
  * A range outside [0, length] is a RangeError (a bug in the caller, not a user mistake).
  */
-export interface StrainSource {
+export interface StrainReader {
   readonly file: string;
   /** Samples per second (Hz). */
   readonly sampleRate: number;

@@ -6,7 +6,7 @@ import { InputError, parameterError } from "../errors.js";
 import { writeFileAtomic } from "./atomicWrite.js";
 import { checkFinite, checkReadRange, inputFsError, statInputFile } from "./strainChecks.js";
 import { Float64Spill } from "./float64Spill.js";
-import type { StrainOpenOptions, StrainSeries, StrainSource, StrainWriteInput } from "./strainTypes.js";
+import type { StrainOpenOptions, StrainSeries, StrainReader, StrainWriteInput } from "./strainTypes.js";
 
 /** Relative tolerance of a time step, as a fraction of the step (common practice, no source). */
 const STEP_TOLERANCE = 1e-6;
@@ -289,7 +289,7 @@ function timeAxis(file: string, c: ParsedColumns, options: StrainOpenOptions): {
  * (see {@link parseStrainText}); the samples go to an anonymous temporary file beyond the first
  * 2^16, so memory stays bounded whatever the file's length, as for raw files.
  */
-export async function openTextStrain(path: string, options: StrainOpenOptions): Promise<StrainSource> {
+export async function openTextStrain(path: string, options: StrainOpenOptions): Promise<StrainReader> {
   const st = await statInputFile(path);
   if (st.size === 0) throw new InputError(`${path}: empty file (no samples)`);
   const parser = new TextColumnParser(path);
@@ -321,7 +321,7 @@ export async function openTextStrain(path: string, options: StrainOpenOptions): 
     const values = c.values;
     const length = values.length;
     let closed = false;
-    const source: StrainSource = {
+    const source: StrainReader = {
       file: path,
       sampleRate,
       startTime,

@@ -1,6 +1,6 @@
 import { InputError } from "../errors.js";
 import { createRealFft } from "../fft/create.js";
-import { createGaussianSource } from "./gaussianSource.js";
+import { createGaussianDeviates } from "./gaussianDeviates.js";
 import { asPsdModel, type PsdInput } from "./interpolatePsd.js";
 import { createRealInverseFft } from "./realInverseFft.js";
 
@@ -111,7 +111,7 @@ export function createNoiseStream(options: NoiseStreamOptions): NoiseStream {
   const hSpec = new Float64Array(nb + 2);
   fwd.forward(h, hSpec);
 
-  const gauss = createGaussianSource(seed);
+  const gauss = createGaussianDeviates(seed);
   const white = new Float64Array(nb);
   gauss.fill(white.subarray(0, lf)); // filter memory: the stream is stationary from sample 0
   const spec = new Float64Array(nb + 2);

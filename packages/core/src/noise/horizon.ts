@@ -17,12 +17,12 @@ export interface HorizonOptions {
   /** One-sided noise PSD (model, table or sampled estimate). */
   psd: PsdInput;
   /** Lower integration limit (Hz); default the PSD model's fMinHz (a sampled PSD: its first bin). */
-  fLowHz?: number;
+  fMinHz?: number;
   /**
    * Upper integration limit (Hz); default the GW frequency at the ISCO of the total mass. The
    * limit is also capped at the PSD's fMaxHz when it has one (a table or sampled estimate).
    */
-  fHighHz?: number;
+  fMaxHz?: number;
   /** Detection threshold on the optimal SNR; default 8. */
   snr?: number;
 }
@@ -33,8 +33,8 @@ export interface HorizonResult {
   /** Orientation- and sky-averaged range (Mpc): horizonMpc / 2.264. */
   rangeMpc: number;
   /** The integration limits used (Hz). */
-  fLowHz: number;
-  fHighHz: number;
+  fMinHz: number;
+  fMaxHz: number;
   /** GW frequency at the ISCO of the total mass (Hz). */
   fIscoHz: number;
 }
@@ -87,7 +87,7 @@ function inspiralIntegral(evaluate: (f: number) => number, a: number, b: number,
  * and the horizon is the D at which ρ equals the threshold (Allen et al., Phys. Rev. D 85, 122006
  * (2012), Eqs. 3.4ff.; Sathyaprakash & Schutz, Living Rev. Relativ. 12, 2 (2009)). 𝓜 is the chirp
  * mass (m1 m2)^{3/5}/(m1 + m2)^{1/5}. The integral runs to the ISCO GW frequency
- * f = c³/(6^{3/2} π G M) (Schwarzschild ISCO; common practice) unless fHighHz is given. The range
+ * f = c³/(6^{3/2} π G M) (Schwarzschild ISCO; common practice) unless fMaxHz is given. The range
  * is horizon / 2.264 (Finn & Chernoff, Phys. Rev. D 47, 2198 (1993)).
  */
 export function horizonDistance(options: HorizonOptions): HorizonResult {
@@ -98,18 +98,18 @@ export function horizonDistance(options: HorizonOptions): HorizonResult {
   if (!(snr > 0) || !Number.isFinite(snr)) throw new InputError(`horizon: snr must be a positive number (got ${snr})`);
   const model = asPsdModel(options.psd);
   const fIsco = iscoGwFrequency((m1 + m2) * M_SUN);
-  const fLow = options.fLowHz ?? model.fMinHz;
-  if (!(fLow > 0) || !Number.isFinite(fLow)) throw new InputError(`horizon: fLowHz must be a positive number of Hz (got ${fLow})`);
-  let fHigh = options.fHighHz ?? fIsco;
-  if (!(fHigh > 0) || !Number.isFinite(fHigh)) throw new InputError(`horizon: fHighHz must be a positive number of Hz (got ${fHigh})`);
+  const fLow = options.fMinHz ?? model.fMinHz;
+  if (!(fLow > 0) || !Number.isFinite(fLow)) throw new InputError(`horizon: fMinHz must be a positive number of Hz (got ${fLow})`);
+  let fHigh = options.fMaxHz ?? fIsco;
+  if (!(fHigh > 0) || !Number.isFinite(fHigh)) throw new InputError(`horizon: fMaxHz must be a positive number of Hz (got ${fHigh})`);
   if (model.fMaxHz !== undefined) fHigh = Math.min(fHigh, model.fMaxHz);
   if (!(fHigh > fLow)) {
-    throw new InputError(`horizon: the upper frequency ${fHigh.toPrecision(6)} Hz (ISCO or the PSD's end) is not above fLowHz = ${fLow} Hz`);
+    throw new InputError(`horizon: the upper frequency ${fHigh.toPrecision(6)} Hz (ISCO or the PSD's end) is not above fMinHz = ${fLow} Hz`);
   }
   const integral = inspiralIntegral((f) => model.evaluate(f), fLow, fHigh, model.name);
   const mcSolar = Math.pow(m1 * m2, 0.6) / Math.pow(m1 + m2, 0.2);
   const amplitude2 = (5 / 24) * Math.pow(Math.PI, -4 / 3) * Math.pow(GM_SUN * mcSolar, 5 / 3) / (C * C * C);
   const horizonM = Math.sqrt(4 * amplitude2 * integral) / snr;
   const horizonMpc = horizonM / MPC;
-  return { horizonMpc, rangeMpc: horizonMpc / FINN_CHERNOFF_RANGE_FACTOR, fLowHz: fLow, fHighHz: fHigh, fIscoHz: fIsco };
+  return { horizonMpc, rangeMpc: horizonMpc / FINN_CHERNOFF_RANGE_FACTOR, fMinHz: fLow, fMaxHz: fHigh, fIscoHz: fIsco };
 }

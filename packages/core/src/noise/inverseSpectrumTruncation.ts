@@ -21,7 +21,7 @@ export interface InverseSpectrumTruncationOptions {
   /** Length of the inverse-ASD filter kept, in seconds (rounded to an even number of samples). */
   lengthSeconds?: number;
   /** Bins below this frequency (Hz) get a zero inverse ASD before truncation (default 0). */
-  fLowHz?: number;
+  fMinHz?: number;
 }
 
 export interface TruncatedPsd {
@@ -37,15 +37,15 @@ export interface TruncatedPsd {
 /**
  * Inverse spectrum truncation (Allen et al., Phys. Rev. D 85, 122006 (2012), the section on
  * inverse spectrum truncation (section number from memory); common practice). The inverse
- * amplitude spectrum R(f) = 1/√S(f), set to zero below fLowHz and where S is not positive and
+ * amplitude spectrum R(f) = 1/√S(f), set to zero below fMinHz and where S is not positive and
  * finite, is taken to the time domain (a real, even impulse response r[n] of N = 2·(bins − 1)
  * samples), kept only for |n| < L/2 with a half-Hann taper toward the cut, r[n]·½(1 + cos(2πn/L)),
  * set to zero elsewhere, and transformed back to R̃. The returned PSD S̃ = 1/R̃² is the given PSD
  * smoothed so that a whitening filter by R̃ spans L samples (lags −L/2 < n < L/2) and the
  * over-whitening filter 1/S̃ = R̃² about 2L, which bounds how much of each end of a circularly
  * filtered segment is corrupted by wrap-around. Away from sharp spectral features S̃ ≈ S; narrow
- * lines are broadened to ≈ fs/L. Below fLowHz S̃ is large or +Infinity (a filter integrating from
- * fLowHz ignores it).
+ * lines are broadened to ≈ fs/L. Below fMinHz S̃ is large or +Infinity (a filter integrating from
+ * fMinHz ignores it).
  */
 export function truncateInverseSpectrum(psd: Float64Array, options: InverseSpectrumTruncationOptions): TruncatedPsd {
   const { sampleRate } = options;
@@ -65,8 +65,8 @@ export function truncateInverseSpectrum(psd: Float64Array, options: InverseSpect
   if (!Number.isInteger(length) || length < 2 || length % 2 !== 0 || length > n) {
     throw new InputError(`inverse spectrum truncation: filter length must be an even number of samples in [2, ${n}] (got ${length})`);
   }
-  const fLow = options.fLowHz ?? 0;
-  if (!(fLow >= 0) || !Number.isFinite(fLow)) throw new InputError(`inverse spectrum truncation: fLowHz must be ≥ 0 (got ${fLow})`);
+  const fLow = options.fMinHz ?? 0;
+  if (!(fLow >= 0) || !Number.isFinite(fLow)) throw new InputError(`inverse spectrum truncation: fMinHz must be ≥ 0 (got ${fLow})`);
   const df = sampleRate / n;
 
   const spec = new Float64Array(n + 2);

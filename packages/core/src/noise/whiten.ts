@@ -5,18 +5,18 @@ import { createRealInverseFft } from "./realInverseFft.js";
 
 export interface WhitenOptions {
   /** Bins below this frequency (Hz) are set to zero (default 0). */
-  fLowHz?: number;
+  fMinHz?: number;
   /** Bins above this frequency (Hz) are set to zero (default: none). */
-  fHighHz?: number;
+  fMaxHz?: number;
 }
 
 /**
  * Whitens a series by a one-sided PSD: X = FFT(x), Y[k] = X[k] / √(S(f_k)·fs/2), y = IFFT(Y)/N.
  * For stationary noise with PSD S, E|X[k]|² = N·fs·S(f_k)/2 (one-sided convention), so E|Y[k]|² = N
  * and y has unit variance and a flat one-sided PSD 2/fs (common practice, no source). Bins below
- * fLowHz or above fHighHz, and bins where S is not positive and finite (e.g. +Infinity outside a
+ * fMinHz or above fMaxHz, and bins where S is not positive and finite (e.g. +Infinity outside a
  * table), are set to zero; the output variance is then the fraction of the band kept
- * (≈ 1 − 2·fLowHz/fs).
+ * (≈ 1 − 2·fMinHz/fs).
  *
  * The FFT is of the next power of two ≥ length, the series being zero-padded; the filtering is
  * circular, so samples within the whitening filter's length of either end are corrupted (truncate
@@ -27,10 +27,10 @@ export function whiten(series: Float64Array, sampleRate: number, psd: PsdInput, 
   if (!(series instanceof Float64Array)) throw new InputError("whiten: series must be a Float64Array");
   if (series.length < 4) throw new InputError(`whiten: the series needs at least 4 samples (got ${series.length})`);
   if (!(sampleRate > 0) || !Number.isFinite(sampleRate)) throw new InputError(`whiten: sampleRate must be a positive number of Hz (got ${sampleRate})`);
-  const fLow = options.fLowHz ?? 0;
-  const fHigh = options.fHighHz ?? Infinity;
-  if (!(fLow >= 0)) throw new InputError(`whiten: fLowHz must be ≥ 0 (got ${fLow})`);
-  if (!(fHigh > fLow)) throw new InputError(`whiten: fHighHz must be above fLowHz (got ${fHigh} ≤ ${fLow})`);
+  const fLow = options.fMinHz ?? 0;
+  const fHigh = options.fMaxHz ?? Infinity;
+  if (!(fLow >= 0)) throw new InputError(`whiten: fMinHz must be ≥ 0 (got ${fLow})`);
+  if (!(fHigh > fLow)) throw new InputError(`whiten: fMaxHz must be above fMinHz (got ${fHigh} ≤ ${fLow})`);
   const model = asPsdModel(psd);
   let n = 4;
   while (n < series.length) n *= 2;

@@ -21,7 +21,7 @@ export interface RunLayout {
 
 /** The result of a run put together from segment records: what an unsharded run returns. */
 export interface MergedScan {
-  /** Per input in order, each clustered across its segments (as searchSource returns them), concatenated. */
+  /** Per input in order, each clustered across its segments (as searchStrain returns them), concatenated. */
   candidates: Candidate[];
   /** Per input: candidates, segments and searched/skipped seconds (like SearchSummary). */
   perInput: { file: string; candidates: number; segments: number; analysedSeconds: number; skippedSeconds: number; skipped: SkippedStretch[]; gates: GateRecord[] }[];
@@ -45,7 +45,7 @@ interface Peak {
 
 /**
  * Puts a run together from segment records (of shards, or of a journal and a resumed scan) exactly
- * as searchSource clusters a whole run: per segment, the loudest peak within ±window across the
+ * as searchStrain clusters a whole run: per segment, the loudest peak within ±window across the
  * whole bank (re-clustering the union of the records' deciding peaks, in the bank's trigger order,
  * when several records split the bank), then across the segments of each input. The records must
  * cover every segment of every input with templates that tile the bank exactly once (else
@@ -91,7 +91,7 @@ export function mergeSegmentRecords(layout: RunLayout, records: Iterable<Segment
         continue;
       }
       analysed += recs[0].searchSamples;
-      // Segments overlap: a transient in the overlap is gated in both, and recorded once (as searchSource does).
+      // Segments overlap: a transient in the overlap is gated in both, and recorded once (as searchStrain does).
       for (const g of recs[0].gates ?? []) addGate(gates, g);
       if (recs.length === 1) {
         for (const c of recs[0].candidates) all.push(plain(c));

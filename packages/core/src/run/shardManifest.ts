@@ -43,7 +43,7 @@ export interface SearchDescription {
   fMinHz: number;
   fMaxHz: number | null;
   snrThreshold: number;
-  chi2Bins: number;
+  chi2Bands: number;
   chi2Allowance: number;
   loudestWithinSeconds: number;
   /** e.g. "ajith2011" or "welch-median-4s" (the CLI's label). */
@@ -168,7 +168,7 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     fMinHz: options.fMinHz,
     fMaxHz: options.fMaxHz ?? null,
     snrThreshold: options.snrThreshold,
-    chi2Bins: options.chi2Bins,
+    chi2Bands: options.chi2Bands,
     chi2Allowance: options.chi2Allowance ?? 0,
     loudestWithinSeconds: options.loudestWithinSeconds,
     psd: psdLabel(psd),

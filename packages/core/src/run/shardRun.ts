@@ -25,7 +25,7 @@ export interface ScanRunSetup {
   version: string;
   /** The run's inputs, in order; each is checksummed from the file `file` names (or its samples). */
   inputs: readonly SearchInput[];
-  /** The options searchSource gets (callbacks and `segmentHook` are ignored here). */
+  /** The options searchStrain gets (callbacks and `segmentHook` are ignored here). */
   options: SearchOptions;
   /** The caller's arguments that shape the result (not the shard, output or resume flags); hashed into the run id. */
   arguments?: Record<string, unknown>;
@@ -35,7 +35,7 @@ export interface ScanRunSetup {
   journalPath?: string;
 }
 
-/** A scan run in progress: give `hook(i)` to searchSource for input i, then take the result or write the shard. */
+/** A scan run in progress: give `hook(i)` to searchStrain for input i, then take the result or write the shard. */
 export interface ScanRun {
   readonly runId: string;
   readonly inputs: readonly RunInput[];
@@ -43,11 +43,11 @@ export interface ScanRun {
   readonly work: ShardWork;
   /** Segments (of all inputs) whose records came from the journal. */
   readonly resumedSegments: number;
-  /** The hook to pass as `segmentHook` to searchSource for input `input`. */
+  /** The hook to pass as `segmentHook` to searchStrain for input `input`. */
   hook(input: number): SegmentHook;
   /** Records of the segments finished so far (resumed ones first), in no particular order. */
   records(): SegmentRecord[];
-  /** The whole run's result (not for a shard of several): what an uninterrupted unsharded searchSource returns, input by input. */
+  /** The whole run's result (not for a shard of several): what an uninterrupted unsharded searchStrain returns, input by input. */
   result(): MergedScan;
   /** Writes the shard's record file and then its manifest (both atomically); returns the manifest. */
   writeShard(candidatesPath: string, threads?: number): { manifestPath: string; manifest: ShardManifest };
@@ -60,7 +60,7 @@ export interface ScanRun {
 const key = (input: number, segment: number): string => `${input}:${segment}`;
 
 /**
- * Starts a scan run: checksums the inputs, plans their segments as searchSource will, derives the
+ * Starts a scan run: checksums the inputs, plans their segments as searchStrain will, derives the
  * run id and this shard's work, and opens (or resumes) the journal. Records are kept in memory
  * (they hold only the per-segment survivors and, when the bank is split, a few deciding peaks per
  * loudest-within span) and appended to the journal as each segment finishes.

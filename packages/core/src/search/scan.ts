@@ -37,8 +37,8 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
     throw new InputError(`fmin ${o.fMinHz} Hz is at or above the Nyquist frequency ${sampleRate / 2} Hz of the data`);
   }
   if (!(o.snrThreshold > 0)) throw new InputError(`the SNR threshold must be positive (got ${o.snrThreshold})`);
-  if (!Number.isInteger(o.chi2Bins) || o.chi2Bins < 0 || o.chi2Bins === 1) {
-    throw new InputError(`chi-squared bands must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bins})`);
+  if (!Number.isInteger(o.chi2Bands) || o.chi2Bands < 0 || o.chi2Bands === 1) {
+    throw new InputError(`chi-squared bands must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bands})`);
   }
   if (!(o.loudestWithinSeconds > 0)) throw new InputError(`the span kept to its loudest peak must be positive (got ${o.loudestWithinSeconds})`);
   if (o.chi2Allowance !== undefined && !(o.chi2Allowance >= 0 && Number.isFinite(o.chi2Allowance))) {
@@ -211,7 +211,7 @@ interface RawTrigger extends Trigger {
  * length of the input. The candidates do not depend on the thread count.
  * A candidate is not a detection.
  */
-export async function searchSource(
+export async function searchStrain(
   source: SearchInput,
   options: SearchOptions,
 ): Promise<{ candidates: Candidate[]; summary: SearchSummary }> {
@@ -354,7 +354,7 @@ export async function searchSource(
       for (const tr of kept) {
         const t = templates[tr.templateIndex];
         const kEnd = filter.generate(t);
-        const { chi2, dof } = options.chi2Bins >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bins) : { chi2: 0, dof: 0 };
+        const { chi2, dof } = options.chi2Bands >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bands) : { chi2: 0, dof: 0 };
         const peak = parabolicPeak(tr.before, tr.snr, tr.after);
         all.push({
           coalescenceTime: tr.time,

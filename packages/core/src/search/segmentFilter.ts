@@ -6,7 +6,7 @@ import { createBankFilter, type BankFilter } from "./bankFilter.js";
 import { segmentPsd } from "./segmentPsd.js";
 import { allocateSegmentWeights, amplitudeLaw, fillSegmentWeights, type SegmentWeights } from "./segmentWeights.js";
 import { createTaylorF2Phasor } from "./taylorF2Phasor.js";
-import type { PsdSource, SearchTemplate } from "./types.js";
+import type { PsdMethod, SearchTemplate } from "./types.js";
 
 /**
  * The reusable machinery that filters one segment with many templates: FFT plans, the template
@@ -50,7 +50,7 @@ export interface SegmentFilterOptions {
   sampleRate: number;
   fMinHz: number;
   fMaxHz: number;
-  psd: PsdSource;
+  psd: PsdMethod;
   truncationSamples: number;
   backend: FftBackendName;
   /** Put the filter weights in SharedArrayBuffers (for worker threads). Default false. */

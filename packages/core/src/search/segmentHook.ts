@@ -11,7 +11,7 @@ export interface SegmentPeak {
   readonly index: number;
 }
 
-/** What searchSource reports to a {@link SegmentHook} after each segment it searched. */
+/** What searchStrain reports to a {@link SegmentHook} after each segment it searched. */
 export interface SegmentOutcome {
   /** Samples of the segment's searched range (searchEnd − searchStart), whether searched or skipped. */
   readonly searchSamples: number;
@@ -29,7 +29,7 @@ export interface SegmentOutcome {
 
 /**
  * Lets a caller run part of a search and record it segment by segment (sharding, resume; see
- * shardRun.ts). searchSource asks which segments to search and which templates to filter in each,
+ * shardRun.ts). searchStrain asks which segments to search and which templates to filter in each,
  * and reports every searched segment's outcome before it moves on.
  */
 export interface SegmentHook {

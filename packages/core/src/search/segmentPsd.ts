@@ -2,7 +2,7 @@ import { interpolatePsd } from "../noise/interpolatePsd.js";
 import { truncateInverseSpectrum } from "../noise/inverseSpectrumTruncation.js";
 import { welchPsd } from "../noise/welch.js";
 import { nextPowerOfTwo } from "./segmentPlan.js";
-import type { PsdSource } from "./types.js";
+import type { PsdMethod } from "./types.js";
 
 /**
  * The one-sided PSD (1/Hz) on the N/2 + 1 bins of an N-sample segment: a model evaluated at the
@@ -12,7 +12,7 @@ import type { PsdSource } from "./types.js";
  * samples either way — the padding the segment plan leaves at each end of a segment.
  */
 export function segmentPsd(
-  source: PsdSource,
+  source: PsdMethod,
   segment: Float64Array,
   dataLength: number,
   sampleRate: number,
@@ -31,5 +31,5 @@ export function segmentPsd(
     psd = interpolatePsd(est, df, nBins);
   }
   const length = Math.min(size, 2 * Math.max(1, Math.floor(truncationSamples / 2)));
-  return truncateInverseSpectrum(psd, { sampleRate, lengthSamples: length, fLowHz: fMinHz }).psd;
+  return truncateInverseSpectrum(psd, { sampleRate, lengthSamples: length, fMinHz: fMinHz }).psd;
 }

@@ -5,7 +5,7 @@ import type { SegmentHook } from "./segmentHook.js";
 import type { TimeInterval } from "./streamPlan.js";
 
 /**
- * What the search reads: a uniformly sampled series read in pieces (io's StrainSource fits).
+ * What the search reads: a uniformly sampled series read in pieces (io's StrainReader fits).
  * read(offset, count) returns samples [offset, offset + count).
  */
 export interface SearchInput {
@@ -27,7 +27,7 @@ export interface SearchTemplate {
 }
 
 /** Where each segment's noise PSD comes from. */
-export type PsdSource =
+export type PsdMethod =
   | { readonly kind: "model"; readonly model: PsdModel }
   | { readonly kind: "estimate"; readonly segmentSeconds: number; readonly average: "median" | "mean" };
 
@@ -41,7 +41,7 @@ export interface SearchOptions {
   /** Peaks with |z| below this are not reported. */
   readonly snrThreshold: number;
   /** Number of frequency bands p of the chi-squared discriminator (0 turns it off). */
-  readonly chi2Bins: number;
+  readonly chi2Bands: number;
   /**
    * Allowance δ ≥ 0 for the chi-squared of imperfectly matched signals: the reweighted SNR divides
    * χ² by dof + δ ρ² instead of dof (filter/reweight.ts). Default 0 (Babak et al. 2013 exactly).
@@ -49,7 +49,7 @@ export interface SearchOptions {
   readonly chi2Allowance?: number;
   /** Keep the loudest peak within ± this many seconds, across time and the bank. */
   readonly loudestWithinSeconds: number;
-  readonly psd: PsdSource;
+  readonly psd: PsdMethod;
   /** Length of the truncated inverse-PSD filter (s); default the PSD estimate's segment, or 2 s for a model. */
   readonly truncationSeconds?: number;
   /** Segment length (s), rounded up to a power of two samples; default chosen from the longest template. */

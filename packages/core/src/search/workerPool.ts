@@ -74,7 +74,7 @@ export function maxSearchThreads(): number {
   return THREADS_PER_CORE_LIMIT * availableParallelism();
 }
 
-/** Worker threads that filter a bank over one segment at a time (see searchSource). */
+/** Worker threads that filter a bank over one segment at a time (see searchStrain). */
 export interface SearchPool {
   readonly threads: number;
   readonly backend: FftBackendName;

@@ -9,20 +9,20 @@ const scratchA = new Float64Array(8);
 const scratchB = new Float64Array(8);
 
 /**
- * Chirp times (s) from the lower frequency f0 = fLowHz, with M = G(m1+m2)/c³ in seconds and η = m1m2/(m1+m2)²:
+ * Chirp times (s) from the lower frequency f0 = fMinHz, with M = G(m1+m2)/c³ in seconds and η = m1m2/(m1+m2)²:
  *   τ0 = 5 / (256 π f0 η) (π M f0)^{−5/3}   (Newtonian duration),
  *   τ3 = 1 / (8 f0 η) (π M f0)^{−2/3}         (the 1.5PN "tail" term, entering the duration with a minus sign).
  * Source: Sathyaprakash, Phys. Rev. D 50, R7111 (1994).
  */
-export function chirpTimes(m1Solar: number, m2Solar: number, fLowHz: number): { tau0: number; tau3: number } {
+export function chirpTimes(m1Solar: number, m2Solar: number, fMinHz: number): { tau0: number; tau3: number } {
   requireMasses("chirpTimes", m1Solar, m2Solar);
-  requirePositiveFinite("chirpTimes", "fLowHz", fLowHz);
+  requirePositiveFinite("chirpTimes", "fMinHz", fMinHz);
   const mTotal = m1Solar + m2Solar;
   const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
-  const x = Math.PI * mTotal * T_SUN * fLowHz;
+  const x = Math.PI * mTotal * T_SUN * fMinHz;
   return {
-    tau0: (5 / (256 * Math.PI * fLowHz * eta)) * Math.pow(x, -5 / 3),
-    tau3: (1 / (8 * fLowHz * eta)) * Math.pow(x, -2 / 3),
+    tau0: (5 / (256 * Math.PI * fMinHz * eta)) * Math.pow(x, -5 / 3),
+    tau3: (1 / (8 * fMinHz * eta)) * Math.pow(x, -2 / 3),
   };
 }
 
@@ -35,13 +35,13 @@ export function chirpTimes(m1Solar: number, m2Solar: number, fLowHz: number): { 
 export function massesFromChirpTimes(
   tau0: number,
   tau3: number,
-  fLowHz: number,
+  fMinHz: number,
 ): { m1Solar: number; m2Solar: number } | null {
   requirePositiveFinite("massesFromChirpTimes", "tau0 (s)", tau0);
   requirePositiveFinite("massesFromChirpTimes", "tau3 (s)", tau3);
-  requirePositiveFinite("massesFromChirpTimes", "fLowHz", fLowHz);
-  const mSeconds = (5 * tau3) / (32 * Math.PI * Math.PI * fLowHz * tau0);
-  const eta = (5 / (256 * Math.PI * fLowHz * tau0)) * Math.pow(Math.PI * mSeconds * fLowHz, -5 / 3);
+  requirePositiveFinite("massesFromChirpTimes", "fMinHz", fMinHz);
+  const mSeconds = (5 * tau3) / (32 * Math.PI * Math.PI * fMinHz * tau0);
+  const eta = (5 / (256 * Math.PI * fMinHz * tau0)) * Math.pow(Math.PI * mSeconds * fMinHz, -5 / 3);
   if (!(eta <= 0.25 * (1 + 1e-12))) return null;
   const e = Math.min(eta, 0.25);
   const root = Math.sqrt(1 - 4 * e);

@@ -19,27 +19,27 @@ export interface GwCycleCounts {
 }
 
 /**
- * GW cycles from fLowHz to fHighHz (default: the ISCO GW frequency c³/(6^{3/2} π G M)):
+ * GW cycles from fMinHz to fMaxHz (default: the ISCO GW frequency c³/(6^{3/2} π G M)):
  *   N = (φ_orb(f2) − φ_orb(f1)) / π,   φ_orb(v) = φ_0 − (1/(32η v⁵)) Σ_k (a_k + b_k ln v) v^k,
  * v = (π G M f / c³)^{1/3}, with the 3.5PN orbital phase of circular orbits of Blanchet,
  * Living Rev. Relativ. 17, 2 (2014) ({@link orbitalPhaseCoefficients}); f_GW = 2 f_orb, so one GW
  * cycle is π of orbital phase. The per-order split is the term-by-term difference, as in that
  * review's table of cycle counts from 10 Hz to the ISCO.
  */
-export function gwCycleCounts(m1Solar: number, m2Solar: number, fLowHz: number, fHighHz?: number): GwCycleCounts {
+export function gwCycleCounts(m1Solar: number, m2Solar: number, fMinHz: number, fMaxHz?: number): GwCycleCounts {
   const where = "gwCycleCounts";
   requireMasses(where, m1Solar, m2Solar);
-  requirePositiveFinite(where, "fLowHz", fLowHz);
+  requirePositiveFinite(where, "fMinHz", fMinHz);
   const mTotal = m1Solar + m2Solar;
-  const f2 = fHighHz ?? iscoGwFrequency(mTotal * M_SUN);
-  requirePositiveFinite(where, "fHighHz", f2);
-  if (!(f2 > fLowHz)) {
-    throw new InputError(`${where}: fHighHz (${f2}) must exceed fLowHz (${fLowHz})`);
+  const f2 = fMaxHz ?? iscoGwFrequency(mTotal * M_SUN);
+  requirePositiveFinite(where, "fMaxHz", f2);
+  if (!(f2 > fMinHz)) {
+    throw new InputError(`${where}: fMaxHz (${f2}) must exceed fMinHz (${fMinHz})`);
   }
   const eta = (m1Solar * m2Solar) / (mTotal * mTotal);
   const { a, b } = orbitalPhaseCoefficients(Math.min(eta, 0.25));
   const piM = Math.PI * mTotal * T_SUN;
-  const v1 = Math.cbrt(piM * fLowHz);
+  const v1 = Math.cbrt(piM * fMinHz);
   const v2 = Math.cbrt(piM * f2);
   const l1 = Math.log(v1);
   const l2 = Math.log(v2);
@@ -56,7 +56,7 @@ export function gwCycleCounts(m1Solar: number, m2Solar: number, fLowHz: number, 
 }
 
 /**
- * GW cycles from fLowHz to fHighHz (default: the Schwarzschild ISCO of the total mass) of the
+ * GW cycles from fMinHz to fMaxHz (default: the Schwarzschild ISCO of the total mass) of the
  * TaylorF2 phasing with aligned spins chi1, chi2 ∈ (−1, 1): the GW phase at the stationary point is
  * φ(f) = 2π f t(f) − Ψ(f) − π/4 with 2π t(f) = dΨ/df (Cutler & Flanagan, Phys. Rev. D 49, 2658 (1994)),
  * so with Ψ = 3/(128 η v⁵) Σ (a_k + b_k ln v) v^k and f d/df = (v/3) d/dv,
@@ -67,19 +67,19 @@ export function gwCycleCounts(m1Solar: number, m2Solar: number, fLowHz: number, 
 export function stationaryPhaseCycles(
   m1Solar: number,
   m2Solar: number,
-  fLowHz: number,
-  fHighHz?: number,
+  fMinHz: number,
+  fMaxHz?: number,
   chi1 = 0,
   chi2 = 0,
 ): number {
   const where = "stationaryPhaseCycles";
   requireMasses(where, m1Solar, m2Solar);
-  requirePositiveFinite(where, "fLowHz", fLowHz);
+  requirePositiveFinite(where, "fMinHz", fMinHz);
   requireAlignedSpins(where, chi1, chi2);
   const mTotal = m1Solar + m2Solar;
-  const f2 = fHighHz ?? iscoGwFrequency(mTotal * M_SUN);
-  requirePositiveFinite(where, "fHighHz", f2);
-  if (!(f2 > fLowHz)) throw new InputError(`${where}: fHighHz (${f2}) must exceed fLowHz (${fLowHz})`);
+  const f2 = fMaxHz ?? iscoGwFrequency(mTotal * M_SUN);
+  requirePositiveFinite(where, "fMaxHz", f2);
+  if (!(f2 > fMinHz)) throw new InputError(`${where}: fMaxHz (${f2}) must exceed fMinHz (${fMinHz})`);
   const eta = Math.min((m1Solar * m2Solar) / (mTotal * mTotal), 0.25);
   const { a, b } = taylorF2PhaseCoefficients(eta, 7);
   if (chi1 !== 0 || chi2 !== 0) addAlignedSpinPhaseTermsInto(m1Solar, m2Solar, chi1, chi2, 7, a, b);
@@ -90,5 +90,5 @@ export function stationaryPhaseCycles(
     for (let k = 0; k < 8; k++) s += (((k - 8) / 3) * (a[k] + b[k] * lv) + b[k] / 3) * Math.pow(v, k - 5);
     return (3 / (128 * eta)) * s;
   };
-  return (phase(Math.cbrt(piM * f2)) - phase(Math.cbrt(piM * fLowHz))) / (2 * Math.PI);
+  return (phase(Math.cbrt(piM * f2)) - phase(Math.cbrt(piM * fMinHz))) / (2 * Math.PI);
 }

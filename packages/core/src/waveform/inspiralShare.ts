@@ -41,7 +41,7 @@ function weightedIntegral(psd: PsdModel, fa: number, fb: number): number {
  * signal continues with the inspiral's amplitude law |h̃| ∝ f^{−7/6} up to the dominant ringdown
  * frequency of the remnant:
  *   share = √( ∫_{fLow}^{f_isco} f^{−7/3}/S df / ∫_{fLow}^{f_ring} f^{−7/3}/S df ),
- * both limits capped at fHighHz (default: none). The remnant comes from {@link remnantOfMerger}
+ * both limits capped at fMaxHz (default: none). The remnant comes from {@link remnantOfMerger}
  * (Barausse, Morozova & Rezzolla 2012; Rezzolla et al. 2008), f_ring from {@link ringdownFrequencyHz}
  * (Berti, Cardoso & Will 2006). The extension is a rough stand-in for merger and ringdown (it ignores
  * their different amplitude law), good for finding where an inspiral-only search stops being
@@ -52,19 +52,19 @@ export function inspiralSnrShare(
   m1Solar: number,
   m2Solar: number,
   psd: PsdModel,
-  fLowHz: number,
-  options: { chi1?: number; chi2?: number; fHighHz?: number } = {},
+  fMinHz: number,
+  options: { chi1?: number; chi2?: number; fMaxHz?: number } = {},
 ): InspiralShare {
   const where = "inspiralSnrShare";
-  if (!(fLowHz > 0) || !Number.isFinite(fLowHz)) throw new InputError(`${where}: fLowHz must be a positive finite number (got ${fLowHz})`);
-  const fHigh = options.fHighHz ?? Infinity;
-  if (!(fHigh > 0)) throw new InputError(`${where}: fHighHz must be a positive number or Infinity (got ${fHigh})`);
+  if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw new InputError(`${where}: fMinHz must be a positive finite number (got ${fMinHz})`);
+  const fHigh = options.fMaxHz ?? Infinity;
+  if (!(fHigh > 0)) throw new InputError(`${where}: fMaxHz must be a positive number or Infinity (got ${fHigh})`);
   const remnant = remnantOfMerger(m1Solar, m2Solar, options.chi1 ?? 0, options.chi2 ?? 0);
   const mTotal = m1Solar + m2Solar;
   const fIscoHz = iscoGwFrequency(mTotal * M_SUN);
   const fRingdownHz = ringdownFrequencyHz(remnant.massFraction * mTotal, remnant.spin);
   const top = Math.min(fIscoHz, fHigh);
-  const inspiral = weightedIntegral(psd, fLowHz, top);
+  const inspiral = weightedIntegral(psd, fMinHz, top);
   const total = inspiral + weightedIntegral(psd, top, Math.min(Math.max(fRingdownHz, top), fHigh));
   const share = total > 0 ? Math.sqrt(inspiral / total) : 0;
   return { share, fIscoHz, fRingdownHz };
@@ -99,7 +99,7 @@ const TABLE_PER_EFOLD = 400;
 
 /**
  * {@link inspiralSnrShare} for every template of a bank at once: ∫ f^{−7/3}/S df is tabulated once
- * from fLowHz on a logarithmic grid (trapezoids in ln f, linear interpolation between nodes), then
+ * from fMinHz on a logarithmic grid (trapezoids in ln f, linear interpolation between nodes), then
  * each template's share is √(C(f_isco)/C(f_ring)) from the table, with f_isco, f_ring as there
  * (remnant fits of Barausse, Morozova & Rezzolla 2012 and Rezzolla et al. 2008; ringdown of Berti,
  * Cardoso & Will 2006). Reports how many fall below `threshold` (default 0.9) and their total-mass range.
@@ -107,23 +107,23 @@ const TABLE_PER_EFOLD = 400;
 export function inspiralEdgeOfBank(
   templates: readonly ShareTemplate[],
   psd: PsdModel,
-  fLowHz: number,
-  options: { threshold?: number; fHighHz?: number } = {},
+  fMinHz: number,
+  options: { threshold?: number; fMaxHz?: number } = {},
 ): InspiralEdge {
   const where = "inspiralEdgeOfBank";
   const threshold = options.threshold ?? 0.9;
   if (!(threshold > 0 && threshold <= 1)) throw new InputError(`${where}: threshold must be in (0, 1] (got ${threshold})`);
-  if (!(fLowHz > 0) || !Number.isFinite(fLowHz)) throw new InputError(`${where}: fLowHz must be a positive finite number (got ${fLowHz})`);
-  const fHigh = options.fHighHz ?? Infinity;
+  if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw new InputError(`${where}: fMinHz must be a positive finite number (got ${fMinHz})`);
+  const fHigh = options.fMaxHz ?? Infinity;
   const bounds = templates.map((t) => {
     const m = t.primaryMass + t.secondaryMass;
     const r = remnantOfMerger(t.primaryMass, t.secondaryMass, t.primarySpin ?? 0, t.secondarySpin ?? 0);
     const fIsco = Math.min(iscoGwFrequency(m * M_SUN), fHigh);
     return { m, fIsco, fRing: Math.min(Math.max(ringdownFrequencyHz(r.massFraction * m, r.spin), fIsco), fHigh) };
   });
-  let fTop = fLowHz;
+  let fTop = fMinHz;
   for (const b of bounds) fTop = Math.max(fTop, b.fRing);
-  const lnLow = Math.log(fLowHz);
+  const lnLow = Math.log(fMinHz);
   const nodes = Math.max(2, Math.ceil((Math.log(fTop) - lnLow) * TABLE_PER_EFOLD) + 1);
   const step = nodes > 1 ? (Math.log(fTop) - lnLow) / (nodes - 1) : 0;
   const cumulative = new Float64Array(nodes);
@@ -136,7 +136,7 @@ export function inspiralEdgeOfBank(
     previous = value;
   }
   const at = (f: number): number => {
-    if (!(f > fLowHz) || step === 0) return 0;
+    if (!(f > fMinHz) || step === 0) return 0;
     const x = (Math.log(f) - lnLow) / step;
     const i = Math.min(nodes - 2, Math.floor(x));
     const w = x - i;

@@ -118,39 +118,39 @@ function frequencySeries(
 }
 
 /**
- * The bins k with fLowHz ≤ k·dfHz ≤ min(f_isco(M), fHighHz), k ≥ 1, clipped to 0..nBins−1:
+ * The bins k with fMinHz ≤ k·dfHz ≤ min(f_isco(M), fMaxHz), k ≥ 1, clipped to 0..nBins−1:
  * returns {kStart, kEnd} (kEnd one past the last); {0, 0} when the band holds no bin.
  * f_isco = c³ / (6^{3/2} π G M) (Schwarzschild ISCO of the total mass; physics/isco.ts).
  */
 export function taylorF2BinRange(
   nBins: number,
   dfHz: number,
-  fLowHz: number,
+  fMinHz: number,
   m1Solar: number,
   m2Solar: number,
-  fHighHz = Infinity,
+  fMaxHz = Infinity,
 ): { kStart: number; kEnd: number } {
   const where = "taylorF2BinRange";
   requireBinCount(where, nBins);
   requirePositiveFinite(where, "dfHz", dfHz);
-  requirePositiveFinite(where, "fLowHz", fLowHz);
+  requirePositiveFinite(where, "fMinHz", fMinHz);
   requireMasses(where, m1Solar, m2Solar);
-  requirePositiveOrInfinity(where, "fHighHz", fHighHz);
-  return binRange(nBins, dfHz, fLowHz, m1Solar, m2Solar, fHighHz);
+  requirePositiveOrInfinity(where, "fMaxHz", fMaxHz);
+  return binRange(nBins, dfHz, fMinHz, m1Solar, m2Solar, fMaxHz);
 }
 
 function binRange(
   nBins: number,
   dfHz: number,
-  fLowHz: number,
+  fMinHz: number,
   m1Solar: number,
   m2Solar: number,
-  fHighHz: number,
+  fMaxHz: number,
 ): { kStart: number; kEnd: number } {
-  const fMax = Math.min(iscoGwFrequency((m1Solar + m2Solar) * M_SUN), fHighHz);
-  let kStart = Math.max(1, Math.ceil(fLowHz / dfHz));
-  while (kStart > 1 && (kStart - 1) * dfHz >= fLowHz) kStart--;
-  while (kStart * dfHz < fLowHz) kStart++;
+  const fMax = Math.min(iscoGwFrequency((m1Solar + m2Solar) * M_SUN), fMaxHz);
+  let kStart = Math.max(1, Math.ceil(fMinHz / dfHz));
+  while (kStart > 1 && (kStart - 1) * dfHz >= fMinHz) kStart--;
+  while (kStart * dfHz < fMinHz) kStart++;
   let kEnd = Math.min(nBins, Math.floor(fMax / dfHz) + 1);
   while (kEnd > 0 && (kEnd - 1) * dfHz > fMax) kEnd--;
   while (kEnd < nBins && kEnd * dfHz <= fMax) kEnd++;
@@ -192,11 +192,11 @@ function checkCommon(
   out: Float64Array,
   nBins: number,
   dfHz: number,
-  fLowHz: number,
+  fMinHz: number,
   m1Solar: number,
   m2Solar: number,
   distanceMpc: number,
-  fHighHz: number,
+  fMaxHz: number,
 ): void {
   requireBinCount(where, nBins);
   if (!(out instanceof Float64Array) || out.length < 2 * nBins) {
@@ -205,15 +205,15 @@ function checkCommon(
     );
   }
   requirePositiveFinite(where, "dfHz", dfHz);
-  requirePositiveFinite(where, "fLowHz", fLowHz);
+  requirePositiveFinite(where, "fMinHz", fMinHz);
   requireMasses(where, m1Solar, m2Solar);
   requirePositiveFinite(where, "distanceMpc", distanceMpc);
-  requirePositiveOrInfinity(where, "fHighHz", fHighHz);
+  requirePositiveOrInfinity(where, "fMaxHz", fMaxHz);
 }
 
 /**
  * Writes the TaylorF2 template h̃(f_k), f_k = k·dfHz, k = 0..nBins−1, interleaved (re, im) into
- * out[0..2·nBins): h̃(f) = A f^{−7/6} e^{−iΨ(f)} on fLowHz ≤ f ≤ min(f_isco, fHighHz), zero elsewhere,
+ * out[0..2·nBins): h̃(f) = A f^{−7/6} e^{−iΨ(f)} on fMinHz ≤ f ≤ min(f_isco, fMaxHz), zero elsewhere,
  * with Ψ from {@link taylorF2Phase} (t_c = 0, φ_c = 0; coalescence at t = 0; a signal coalescing at
  * t_c is this × e^{−2πi f t_c}) and A the optimally oriented (face-on, overhead) amplitude at
  * `distanceMpc` (default 1 Mpc): |h̃(f)| = sqrt(5/24) π^{−2/3} (c/D) (G Mc/c³)^{5/6} f^{−7/6}
@@ -226,20 +226,20 @@ export function taylorF2Into(
   out: Float64Array,
   nBins: number,
   dfHz: number,
-  fLowHz: number,
+  fMinHz: number,
   m1Solar: number,
   m2Solar: number,
   distanceMpc = 1,
-  fHighHz = Infinity,
+  fMaxHz = Infinity,
   pnOrder = 7,
   chi1 = 0,
   chi2 = 0,
 ): number {
   const where = "taylorF2Into";
-  checkCommon(where, out, nBins, dfHz, fLowHz, m1Solar, m2Solar, distanceMpc, fHighHz);
+  checkCommon(where, out, nBins, dfHz, fMinHz, m1Solar, m2Solar, distanceMpc, fMaxHz);
   checkPnOrder(where, pnOrder);
   requireAlignedSpins(where, chi1, chi2);
-  const { kStart, kEnd } = binRange(nBins, dfHz, fLowHz, m1Solar, m2Solar, fHighHz);
+  const { kStart, kEnd } = binRange(nBins, dfHz, fMinHz, m1Solar, m2Solar, fMaxHz);
   out.fill(0, 0, 2 * kStart);
   out.fill(0, 2 * kEnd, 2 * nBins);
   if (kEnd === 0) return 0;
@@ -270,11 +270,11 @@ export interface TaylorF2Generator {
    */
   generate(
     out: Float64Array,
-    fLowHz: number,
+    fMinHz: number,
     m1Solar: number,
     m2Solar: number,
     distanceMpc?: number,
-    fHighHz?: number,
+    fMaxHz?: number,
     chi1?: number,
     chi2?: number,
   ): number;
@@ -318,10 +318,10 @@ export function createTaylorF2Generator(
     nBins,
     dfHz,
     pnOrder,
-    generate(out, fLowHz, m1Solar, m2Solar, distanceMpc = 1, fHighHz = Infinity, chi1 = 0, chi2 = 0) {
-      checkCommon("TaylorF2Generator.generate", out, nBins, dfHz, fLowHz, m1Solar, m2Solar, distanceMpc, fHighHz);
+    generate(out, fMinHz, m1Solar, m2Solar, distanceMpc = 1, fMaxHz = Infinity, chi1 = 0, chi2 = 0) {
+      checkCommon("TaylorF2Generator.generate", out, nBins, dfHz, fMinHz, m1Solar, m2Solar, distanceMpc, fMaxHz);
       requireAlignedSpins("TaylorF2Generator.generate", chi1, chi2);
-      const { kStart, kEnd } = binRange(nBins, dfHz, fLowHz, m1Solar, m2Solar, fHighHz);
+      const { kStart, kEnd } = binRange(nBins, dfHz, fMinHz, m1Solar, m2Solar, fMaxHz);
       out.fill(0, 0, 2 * kStart);
       out.fill(0, 2 * kEnd, 2 * nBins);
       if (kEnd === 0) return 0;

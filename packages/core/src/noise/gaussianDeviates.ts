@@ -1,7 +1,7 @@
 import seedrandom from "seedrandom";
 
 /** A seeded stream of independent standard normal deviates (mean 0, variance 1). */
-export interface GaussianSource {
+export interface GaussianDeviates {
   /** Fills `out` with the next `out.length` deviates of the stream. */
   fill(out: Float64Array): void;
 }
@@ -13,7 +13,7 @@ export interface GaussianSource {
  * xor4096 generator (53-bit doubles), seeded with `seed`, so the same seed gives the same stream
  * however it is split into `fill` calls.
  */
-export function createGaussianSource(seed: string | number): GaussianSource {
+export function createGaussianDeviates(seed: string | number): GaussianDeviates {
   const rng = seedrandom.xor4096(String(seed));
   let spare = 0;
   let haveSpare = false;
