@@ -4,7 +4,7 @@ import type { Trigger } from "../filter/peaks.js";
 import { taylorF2Amplitude, taylorF2BinRange } from "../waveform/taylorf2.js";
 import type { SegmentWeights } from "./segmentWeights.js";
 import { findWindowPeaks } from "../filter/peaks.js";
-import { createTaylorF2Phasor, type TaylorF2Phasor } from "./taylorF2Phasor.js";
+import { createTaylorF2Phasor, type TaylorF2Phasor } from "../waveform/taylorF2Phasor.js";
 
 /** What a {@link BankFilter} needs to know about the segments it filters. */
 export interface BankFilterConfig {

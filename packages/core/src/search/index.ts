@@ -12,7 +12,6 @@ export * from "./joinedInput.js";
 export * from "./arraySource.js";
 export * from "./snrAround.js";
 export * from "./segmentWeights.js";
-export * from "./taylorF2Phasor.js";
 export * from "./bankFilter.js";
 export * from "./workerPool.js";
 export * from "./shardWork.js";

@@ -2,6 +2,7 @@ export * from "./pnCoefficients.js";
 export * from "./alignedSpinPhase.js";
 export * from "./alignedSpinEnergyFlux.js";
 export * from "./taylorf2.js";
+export * from "./taylorF2Phasor.js";
 export * from "./chirpTimes.js";
 export * from "./cycles.js";
 export * from "./inspiralShare.js";
