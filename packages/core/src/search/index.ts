@@ -13,6 +13,7 @@ export * from "./arraySource.js";
 export * from "./snrAround.js";
 export * from "./segmentWeights.js";
 export * from "./bankFilter.js";
+export * from "./outputRate.js";
 export * from "./workerPool.js";
 export * from "./shardWork.js";
 export * from "./shardHook.js";
