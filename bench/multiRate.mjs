@@ -8,7 +8,7 @@
 // Measured side by side, each run preceded by its floor (the full-length inverse FFT of the
 // same backend): the whole search per template-segment ÷ the floor, one thread, per-template rate
 // on and off (the speed-up of one over the other); the same with 2 threads (1 → 2 scaling, whole
-// run); the mean inverse-FFT length as a fraction of the full one; peak RSS (VmHWM) of a whole
+// run, both paths); the mean inverse-FFT length as a fraction of the full one; peak RSS (VmHWM) of a whole
 // scan with the default thread count, per-template rate on and off, each in its own child process.
 import { spawnSync } from "node:child_process";
 import { readFileSync } from "node:fs";
@@ -171,6 +171,7 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         { key: "multi1", label: "per-template rate, 1 thread", extra: { threads: 1 } },
         { key: "single1", label: "full rate, 1 thread", extra: { threads: 1, perTemplateRate: false } },
         { key: "multi2", label: "per-template rate, 2 threads", extra: { threads: 2 } },
+        { key: "single2", label: "full rate, 2 threads", extra: { threads: 2, perTemplateRate: false } },
       ];
       const samples = configs.map(() => ({ walls: [], ratios: [], floors: [] }));
       let segments = 0;
@@ -219,6 +220,7 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         fullRateRatioToFloor: runs.single1.ratioToFloor,
         speedupOverFullRate: runs.single1.wallSeconds / runs.multi1.wallSeconds,
         oneToTwoThreads: runs.multi1.wallSeconds / runs.multi2.wallSeconds,
+        fullRateOneToTwoThreads: runs.single1.wallSeconds / runs.single2.wallSeconds,
         peakRssMb: { perTemplateRate: rss.multi.peakRssMb, fullRate: rss.single.peakRssMb, threads: rss.multi.threads },
         target: key === "wide" ? 0.5 : 0.8,
       };
@@ -235,7 +237,7 @@ export function rateLines(results) {
   for (const r of Object.values(results)) {
     lines.push(
       `   ${r.label}: ${r.ratioToFloor.toFixed(3)} × (target ≤ ${r.target}); full rate ${r.fullRateRatioToFloor.toFixed(3)} ×; speed-up ${r.speedupOverFullRate.toFixed(2)}×; ` +
-        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× (target ≥ 1.85×); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
+        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
         `peak RSS ${r.peakRssMb.perTemplateRate.toFixed(0)} MB (full rate ${r.peakRssMb.fullRate.toFixed(0)} MB)`,
     );
   }

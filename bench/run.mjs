@@ -84,11 +84,12 @@ function median(values) {
 
 /**
  * A SearchInput of seeded coloured noise made as it is read: the search reads segments in
- * increasing order with overlaps, so only the samples from the last read on are kept, in one
+ * increasing order with overlaps (after one screening pass over the whole input, which starts the
+ * stream again), so only the samples from the last read on are kept, in one
  * buffer that is reused (the returned copy is the only allocation per read besides the stream's).
  */
 function streamedNoise(seconds, seed) {
-  const stream = createNoiseStream({ psd: ajith2011, sampleRate: FS, seed });
+  let stream = createNoiseStream({ psd: ajith2011, sampleRate: FS, seed });
   let buffer = new Float64Array(0);
   let bufferStart = 0; // series index of buffer[0]
   let filled = 0; // valid samples in buffer
@@ -98,7 +99,12 @@ function streamedNoise(seconds, seed) {
     startTime: 0,
     length: seconds * FS,
     async read(offset, count) {
-      if (offset < bufferStart) throw new Error("streamedNoise: reads must not go backwards");
+      if (offset < bufferStart) {
+        // The search screens the whole input before its segments: start the same stream again.
+        stream = createNoiseStream({ psd: ajith2011, sampleRate: FS, seed });
+        bufferStart = 0;
+        filled = 0;
+      }
       const drop = Math.min(filled, offset - bufferStart);
       buffer.copyWithin(0, drop, filled);
       filled -= drop;
