@@ -15,6 +15,7 @@ import { readFileSync } from "node:fs";
 import { availableParallelism } from "node:os";
 import { performance } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
 import {
   ajith2011,
   arraySource,
@@ -134,6 +135,20 @@ if (process.argv[1] === self && process.argv[2] === "--rss-child") {
   process.exit(0);
 }
 
+/**
+ * Cores this process can get right now: two worker threads spin for `seconds` and the process's
+ * CPU time is divided by the wall time (2 on an idle 2-core machine; near 1 when others load it,
+ * and then no 1 → 2 thread scaling can show).
+ */
+export async function coresAvailable(seconds = 1) {
+  const code = `const t = Date.now(); let x = 0; while (Date.now() - t < ${1000 * seconds}) x += Math.sqrt(x + 1); require("node:worker_threads").parentPort.postMessage(x);`;
+  const c0 = process.cpuUsage();
+  const t0 = performance.now();
+  await Promise.all([0, 1].map(() => new Promise((resolve, reject) => new Worker(code, { eval: true }).on("message", resolve).on("error", reject))));
+  const c = process.cpuUsage(c0);
+  return (c.user + c.system) / 1e6 / ((performance.now() - t0) / 1000);
+}
+
 /** Runs both workloads; `log` prints progress lines. Returns the figures. */
 export async function rateWorkloads(log, { rounds = 2 } = {}) {
   await loadFftBackends();
@@ -175,7 +190,9 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
       ];
       const samples = configs.map(() => ({ walls: [], ratios: [], floors: [] }));
       let segments = 0;
+      const cores = [];
       for (let r = 0; r < rounds; r++) {
+        cores.push(await coresAvailable());
         for (const [c, cfg] of configs.entries()) {
           const floor = floorMs();
           const t0 = performance.now();
@@ -187,7 +204,9 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
           samples[c].ratios.push((1000 * wall) / (templates.length * segments) / floor);
         }
       }
+      cores.push(await coresAvailable());
       floorPlan.dispose();
+      log(`  cores available to two spinning threads before, between and after the rounds: ${cores.map((c) => c.toFixed(2)).join(", ")}`);
       const runs = {};
       configs.forEach((cfg, c) => {
         runs[cfg.key] = {
@@ -221,6 +240,7 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         speedupOverFullRate: runs.single1.wallSeconds / runs.multi1.wallSeconds,
         oneToTwoThreads: runs.multi1.wallSeconds / runs.multi2.wallSeconds,
         fullRateOneToTwoThreads: runs.single1.wallSeconds / runs.single2.wallSeconds,
+        coresAvailable: cores,
         peakRssMb: { perTemplateRate: rss.multi.peakRssMb, fullRate: rss.single.peakRssMb, threads: rss.multi.threads },
         target: key === "wide" ? 0.5 : 0.8,
       };
@@ -237,7 +257,7 @@ export function rateLines(results) {
   for (const r of Object.values(results)) {
     lines.push(
       `   ${r.label}: ${r.ratioToFloor.toFixed(3)} × (target ≤ ${r.target}); full rate ${r.fullRateRatioToFloor.toFixed(3)} ×; speed-up ${r.speedupOverFullRate.toFixed(2)}×; ` +
-        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
+        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
         `peak RSS ${r.peakRssMb.perTemplateRate.toFixed(0)} MB (full rate ${r.peakRssMb.fullRate.toFixed(0)} MB)`,
     );
   }

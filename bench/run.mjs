@@ -46,7 +46,7 @@ import {
   searchSource,
   verifyBank,
 } from "../packages/core/dist/index.js";
-import { rateLines, rateWorkloads } from "./multiRate.mjs";
+import { coresAvailable, rateLines, rateWorkloads } from "./multiRate.mjs";
 
 const FS = 4096;
 const SECONDS = 1024;
@@ -290,6 +290,7 @@ const configs = [
   { key: "fftjs1", label: "fftjs, 1 thread", extra: { fftBackend: "fftjs", threads: 1 }, rounds: 1 },
 ];
 if (cores > 2) configs.push({ key: "pffftCores", label: `pffft, ${cores} threads`, extra: { fftBackend: "pffft", threads: cores } });
+const coresBefore = await coresAvailable();
 (await timeSearches(configs, 3)).forEach((row, i) => {
   runs[configs[i].key] = row;
 });
@@ -397,6 +398,7 @@ const figures = {
     oneToCores: runs.pffft1.wallSeconds / runs.default.wallSeconds,
     oneToTwoAfterFirstSegment: runs.pffft1.steadySeconds / runs.pffft2.steadySeconds,
     cores,
+    coresAvailableBefore: coresBefore,
     target: 1.8,
   },
   peakRss: {
@@ -432,7 +434,8 @@ if (json) {
     `3. default (${f.speedupDefaultOverFftjs1.default}) over fftjs with 1 thread: ${f.speedupDefaultOverFftjs1.value.toFixed(2)}× (target ≥ 5×)`,
     `4. threads: 1 → 2 ${f.threadScaling.oneToTwo.toFixed(2)}× (target ≥ 1.8×), ${f.threadScaling.oneToTwoAfterFirstSegment.toFixed(2)}× after the first segment;` +
       ` 1 → ${cores} cores ${f.threadScaling.oneToCores.toFixed(2)}×` +
-      `; cores busy: 1 thread ${runs.pffft1.cpuCoresBusy.toFixed(2)}, ${runs.default.threads} threads ${runs.default.cpuCoresBusy.toFixed(2)}`,
+      `; cores busy: 1 thread ${runs.pffft1.cpuCoresBusy.toFixed(2)}, ${runs.default.threads} threads ${runs.default.cpuCoresBusy.toFixed(2)}` +
+      ` (two spinning threads got ${coresBefore.toFixed(2)} cores just before)`,
     `5. peak RSS: ${rssShort.seconds} s ${rssShort.peakRssMb.toFixed(0)} MB, ${rssLong.seconds} s ${rssLong.peakRssMb.toFixed(0)} MB, ratio ${f.peakRss.ratio.toFixed(2)} (target ≤ 1.2)`,
     `6. data searched per wall second: ${f.dataSecondsPerWallSecond.bank.toFixed(1)} s for the ${templates.length}-template bank` +
       ` = ${f.dataSecondsPerWallSecond.perTemplate.toFixed(0)} s per template (default); ${f.dataSecondsPerWallSecond.onePffftThreadPerTemplate.toFixed(0)} s per template on one pffft thread`,
