@@ -4,8 +4,12 @@ import seedrandom from "seedrandom";
 import {
   ajith2011,
   arraySource,
+  chooseOutputRate,
   createBankFilter,
+  createComplexFft,
   createSegmentFilter,
+  MIN_RATE_LENGTH,
+  RATE_GUARD,
   loadFftBackends,
   parabolicPeak,
   searchSource,
@@ -32,6 +36,55 @@ function seededTemplates(count: number, seed: string): { m1: number; m2: number 
   }
   return out;
 }
+
+describe("choice of the reduced rate", () => {
+  it("the M-point inverse DFT of bins below M is every (N/M)-th sample of the N-point one (DFT identity; common practice, no source)", () => {
+    const n = 1024;
+    const m = 128;
+    const rng = seedrandom("dft");
+    const full = new Float64Array(2 * n);
+    const short = new Float64Array(2 * m);
+    for (let k = 3; k < 100; k++) {
+      full[2 * k] = short[2 * k] = rng() - 0.5;
+      full[2 * k + 1] = short[2 * k + 1] = rng() - 0.5;
+    }
+    const zf = new Float64Array(2 * n);
+    const zs = new Float64Array(2 * m);
+    createComplexFft(n, "fftjs").inverse(full, zf);
+    createComplexFft(m, "fftjs").inverse(short, zs);
+    let worst = 0;
+    for (let j = 0; j < m; j++) {
+      worst = Math.max(worst, Math.hypot(zs[2 * j] - zf[2 * j * (n / m)], zs[2 * j + 1] - zf[2 * j * (n / m) + 1]));
+    }
+    expect(worst).toBeLessThan(1e-12);
+  });
+
+  it("keeps at least 1 − ε of the band's power below the cut, within the guard fraction of a power-of-two length", () => {
+    const rng = seedrandom("cut");
+    const size = 2 ** 16;
+    const cum = new Float64Array(size / 2 + 2);
+    for (let k = 1; k < cum.length; k++) cum[k] = cum[k - 1] + (k > 40 ? rng() * (k / 1000) ** -2.3 : 0);
+    const out = { kUse: 0, length: 0 };
+    for (let trial = 0; trial < 200; trial++) {
+      const kFrom = 41 + Math.floor(rng() * 200);
+      const kTo = kFrom + 10 + Math.floor(rng() * (size / 2 - kFrom - 10));
+      const eps = [1e-2, 1e-3, 1e-4][trial % 3];
+      chooseOutputRate(cum, kFrom, kTo, eps, size, out);
+      expect(Number.isInteger(Math.log2(out.length))).toBe(true);
+      expect(out.kUse).toBeLessThanOrEqual(kTo);
+      expect(cum[out.kUse] - cum[kFrom]).toBeGreaterThanOrEqual((1 - eps) * (cum[kTo] - cum[kFrom]) * (1 - 1e-12));
+      // The smallest cut keeping 1 − ε, found by a plain scan; no shorter length holds it.
+      let cut = kFrom + 1;
+      while (cum[cut] - cum[kFrom] < (1 - eps) * (cum[kTo] - cum[kFrom])) cut++;
+      if (out.length > MIN_RATE_LENGTH) expect(cut).toBeGreaterThan(RATE_GUARD * (out.length / 2));
+      if (out.length < size) {
+        expect(out.kUse).toBeLessThanOrEqual(RATE_GUARD * out.length);
+      } else {
+        expect(out.kUse).toBe(kTo);
+      }
+    }
+  });
+});
 
 describe("per-template output rate (reduced-rate inverse FFT, peaks refined to full-rate samples)", () => {
   it("gives the full-rate peaks of 96 templates in noise with loud signals: SNR within 0.1%, time within 0.05 ms, phase within 0.01 rad", () => {
