@@ -16,6 +16,7 @@ import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
 import { createSegmentFilter } from "./segmentFilter.js";
+import { DEFAULT_BAND_POWER_LOSS } from "./outputRate.js";
 import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
 import type { Candidate, GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
@@ -43,6 +44,9 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
   if (!(o.loudestWithinSeconds > 0)) throw new InputError(`the span kept to its loudest peak must be positive (got ${o.loudestWithinSeconds})`);
   if (o.chi2Allowance !== undefined && !(o.chi2Allowance >= 0 && Number.isFinite(o.chi2Allowance))) {
     throw new InputError(`the chi-squared allowance must be a number ≥ 0 (got ${o.chi2Allowance})`);
+  }
+  if (o.bandPowerLoss !== undefined && !(o.bandPowerLoss > 0 && o.bandPowerLoss <= 0.1)) {
+    throw new InputError(`the fraction of SNR² a template may lose to its output rate must be in (0, 0.1] (got ${o.bandPowerLoss})`);
   }
   if (o.threads !== undefined && !(Number.isInteger(o.threads) && o.threads >= 1)) {
     throw new InputError(`threads must be a positive integer (got ${o.threads})`);
@@ -262,7 +266,14 @@ export async function searchStrain(
     backend,
     shared: threads > 1,
   });
-  const config: BankFilterConfig = { size: n, sampleRate: fs, fMinHz: options.fMinHz, fMaxHz: fMax, backend };
+  const config: BankFilterConfig = {
+    size: n,
+    sampleRate: fs,
+    fMinHz: options.fMinHz,
+    fMaxHz: fMax,
+    backend,
+    ...(options.perTemplateRate === false ? {} : { bandPowerLoss: options.bandPowerLoss ?? DEFAULT_BAND_POWER_LOSS }),
+  };
   const masses = new Float64Array(2 * templates.length);
   templates.forEach((t, i) => {
     masses[2 * i] = t.primaryMass;

@@ -5,7 +5,7 @@ import { taylorF2Amplitude, taylorF2BinRange } from "../waveform/taylorf2.js";
 import { createBankFilter, type BankFilter } from "./bankFilter.js";
 import { segmentPsd } from "./segmentPsd.js";
 import { allocateSegmentWeights, amplitudeLaw, fillSegmentWeights, type SegmentWeights } from "./segmentWeights.js";
-import { createTaylorF2Phasor } from "./taylorF2Phasor.js";
+import { createTaylorF2Phasor } from "../waveform/taylorF2Phasor.js";
 import type { PsdMethod, SearchTemplate } from "./types.js";
 
 /**

@@ -54,6 +54,18 @@ export interface SearchOptions {
   readonly truncationSeconds?: number;
   /** Segment length (s), rounded up to a power of two samples; default chosen from the longest template. */
   readonly segmentSeconds?: number;
+  /**
+   * Filter each template at the output rate its band needs (default true; search/outputRate.ts):
+   * its band is cut where it keeps 1 − `bandPowerLoss` of its SNR², it costs an inverse FFT of the
+   * smallest power-of-two length holding that band, and its peaks are refined to full-rate
+   * samples (filter/bandLimitedPeaks.ts). false: one full-length inverse FFT per template.
+   */
+  readonly perTemplateRate?: boolean;
+  /**
+   * ε of the per-template rate: the fraction of its SNR² a template may lose to the band cut,
+   * in (0, 0.1]; default DEFAULT_BAND_POWER_LOSS = 1e-3 (an SNR loss of at most 0.05%).
+   */
+  readonly bandPowerLoss?: number;
   /** FFT backend: "auto" (default: pffft once loadFftBackends() has loaded it in this thread, else fft.js), "pffft" or "fftjs". */
   readonly fftBackend?: FftBackendChoice;
   /**

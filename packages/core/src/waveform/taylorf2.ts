@@ -284,7 +284,7 @@ export interface TaylorF2Generator {
  * Precomputes, once per grid, f^{1/3}, f^{−5/3}, ln f and f^{−7/6} per bin, so a template costs a
  * Horner sum, a cos and a sin per bin, with the phase written as the series in f of
  * {@link taylorF2FrequencySeriesInto} (Blanchet 2014; Buonanno et al. 2009, Sec. III). Exact to
- * rounding; the search's faster, approximate phase path is search/taylorF2Phasor.ts.
+ * rounding; the search's faster, approximate phase path is waveform/taylorF2Phasor.ts.
  * Memory: 4 Float64Arrays of nBins.
  */
 export function createTaylorF2Generator(

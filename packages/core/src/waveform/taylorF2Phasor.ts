@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import { taylorF2FrequencySeriesInto } from "../waveform/taylorf2.js";
+import { taylorF2FrequencySeriesInto } from "./taylorf2.js";
 
 /**
  * Multiplies a complex frequency series by the conjugate TaylorF2 phase factor e^{+iΨ(f)} of one
