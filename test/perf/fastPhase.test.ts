@@ -7,7 +7,7 @@ import { computeSegmentSpectrum } from "../../packages/core/src/filter/segmentSp
 import { snrSeries } from "../../packages/core/src/filter/snrSeries.js";
 import { interpolatePsd } from "../../packages/core/src/noise/interpolatePsd.js";
 import { allocateSegmentWeights, amplitudeLaw, fillSegmentWeights } from "../../packages/core/src/search/segmentWeights.js";
-import { createTaylorF2Phasor, DEFAULT_PHASOR_PHASE_ERROR } from "../../packages/core/src/search/taylorF2Phasor.js";
+import { createTaylorF2Phasor, DEFAULT_PHASOR_PHASE_ERROR } from "../../packages/core/src/waveform/taylorF2Phasor.js";
 import { taylorF2BinRange, taylorF2Into } from "../../packages/core/src/waveform/taylorf2.js";
 import { taylorF2Chirp } from "../search/fixtures.js";
 

@@ -1,7 +1,7 @@
 // Aligned-spin TaylorF2: non-spinning output unchanged bit for bit, spins reach every path, bad spins rejected.
 import { describe, expect, it } from "vitest";
 import { InputError } from "@chirpsieve/core";
-import { createTaylorF2Phasor } from "../../packages/core/src/search/taylorF2Phasor.js";
+import { createTaylorF2Phasor } from "../../packages/core/src/waveform/taylorF2Phasor.js";
 import { pnTimeToCoalescence } from "../../packages/core/src/waveform/chirpTimes.js";
 import { taylorT4 } from "../../packages/core/src/waveform/taylorT4.js";
 import { taylorT4Cycles } from "../../packages/core/src/waveform/taylorT4Evolution.js";
