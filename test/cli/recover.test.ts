@@ -47,7 +47,7 @@ describe("chirpsieve recover: a small campaign", () => {
     expect(a.code, a.stderr).toBe(0);
     const doc = JSON.parse(a.stdout);
     expect(JSON.parse(readFileSync(out1, "utf8"))).toEqual(doc);
-    expect(Object.keys(doc)).toEqual(["format", "version", "arguments", "population", "layout", "summary", "injections", "falseCandidates", "requirements", "caution", "run"]);
+    expect(Object.keys(doc)).toEqual(["format", "version", "arguments", "population", "layout", "summary", "injections", "falseCandidates", "requirements", "caution", "run", "inspiralEdge"]);
     expect(Object.keys(doc.summary).slice(0, 8)).toEqual(["injections", "found", "missed", "efficiency", "efficiencyLower", "efficiencyUpper", "interval", "efficiencyBySnr"]);
     expect(Object.keys(doc.injections[0])).toEqual([
       "index", "batch", "primaryMass", "secondaryMass", "chirpMass", "coalescenceTime", "arrivalTime", "distanceMpc", "inclination",
@@ -99,5 +99,19 @@ describe("chirpsieve recover --spin-range", () => {
     expect(r.code).toBe(2);
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
     expect(r.stderr).toMatch(/--spin-range: MIN must not exceed MAX/);
+  });
+});
+
+describe("chirpsieve recover: the edge of the inspiral", () => {
+  it("warns once, naming the total-mass range, when the bank's templates carry under 90% of their signals' SNR, and records it", () => {
+    // 20–25 M_sun components: total masses 40–50 M_sun, past the edge (about 21 M_sun in ajith2011; measured here).
+    const args = ["recover", "--noise-curve", "ajith2011", "--count", "2", "--mass-range", "20:25", "--snr-range", "10:12", "--seed", "3", "--fmin", "30", "--rate", "1024", "--match-floor", "0.9", "--json"];
+    const r = runCli(args);
+    expect(r.stderr).toMatch(/warning: \d+ of \d+ templates \(total mass [\d.]+–[\d.]+ M_sun\) carry less than 90% of their signal's SNR/);
+    expect(r.stderr.match(/warning:/g)).toHaveLength(1);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.inspiralEdge.below).toBeGreaterThan(0);
+    expect(doc.inspiralEdge.threshold).toBe(0.9);
+    expect(runCli([...args, "--quiet"]).stderr).not.toMatch(/warning/);
   });
 });

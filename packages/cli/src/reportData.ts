@@ -44,6 +44,8 @@ export interface CampaignDocument {
   caution: string;
   /** Not diffable: wall time and how the run went. */
   run: { wallSeconds: number; resumedBatches: number; stateFile: string | null };
+  /** The bank's templates whose inspiral carries less than the floor of their signal's SNR (inspiralEdge.ts). */
+  inspiralEdge?: unknown;
 }
 
 function r(x: number | null, digits: number): number | null {
@@ -78,6 +80,7 @@ export function campaignDocument(input: {
   falseCandidates: readonly FalseCandidate[];
   requirements: readonly RequirementResult[];
   run: CampaignDocument["run"];
+  inspiralEdge?: unknown;
 }): CampaignDocument {
   const s = input.summary;
   const e6 = (x: number | null) => r(x, 6);
@@ -161,6 +164,7 @@ export function campaignDocument(input: {
     requirements: input.requirements.map((q) => ({ rule: q.rule, met: q.met, value: sig(q.value, 6), threshold: q.threshold, detail: q.detail })),
     caution: CAMPAIGN_CAUTION,
     run: { wallSeconds: r(input.run.wallSeconds, 2)!, resumedBatches: input.run.resumedBatches, stateFile: input.run.stateFile },
+    ...(input.inspiralEdge !== undefined ? { inspiralEdge: input.inspiralEdge } : {}),
   };
 }
 

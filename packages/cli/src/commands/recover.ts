@@ -36,6 +36,7 @@ import { createProgress } from "../progress.js";
 import { openStrainInput } from "../strainInputs.js";
 import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
 import { campaignDocument, formatCampaignText, type CampaignDocument } from "../reportData.js";
+import { checkInspiralEdge, warnInspiralEdge } from "../inspiralEdge.js";
 import { VERSION } from "../version.js";
 
 interface RecoverFlags extends SearchFlags {
@@ -157,6 +158,8 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
   const psd: PsdMethod = useModel ? { kind: "model", model: noiseModel! } : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
 
   const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli");
+  // Where the bank's inspiral templates stop carrying their signals (merger and ringdown not modelled).
+  const inspiralEdge = checkInspiralEdge(templates, psd.kind === "model" ? psd.model : undefined, fMinHz);
 
   await loadFftBackends();
   const fftBackend = resolveFftBackend(fftChoice);
@@ -239,7 +242,9 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
       falseCandidates,
       requirements: checks,
       run: { wallSeconds: (performance.now() - wallStart) / 1000, resumedBatches: completed.length, stateFile: statePath ?? null },
+      inspiralEdge,
     });
+    if (!flags.quiet) warnInspiralEdge(inspiralEdge);
 
     const json = `${JSON.stringify(doc, null, 2)}\n`;
     // --out and --report are one set: a kill leaves both old or both new.
