@@ -3,6 +3,7 @@ import { InputError } from "../errors.js";
 import { createMassRegion } from "./massRegion.js";
 import { chirpMassFromMassEta, chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
 import {
+  bankRecord,
   DEFAULT_TEMPLATE_CAP,
   TemplateLimitError,
   checkBankOptions,
@@ -139,18 +140,7 @@ export function buildSpinBankWithReport(options: BuildSpinBankOptions): { bank: 
   if (templates.length === 0) {
     throw new InputError(`the placement found no template for ${options.massRangeSolar.join("–")} M_sun from ${options.fMinHz} Hz; widen the band or the ranges`);
   }
-  const [mMin, mMax] = options.massRangeSolar;
-  const bank: TemplateBank = {
-    fMinHz: options.fMinHz,
-    matchFloor: options.matchFloor,
-    noiseCurve: options.noiseCurve ?? options.psd.name,
-    massRangeSolar: [mMin, mMax],
-    spinRange: [options.spinRange[0], options.spinRange[1]],
-    ...(options.totalMassCapSolar !== undefined ? { totalMassCapSolar: options.totalMassCapSolar } : {}),
-    ...(options.massRatioCap !== undefined ? { massRatioCap: options.massRatioCap } : {}),
-    ...(options.fMaxHz !== undefined ? { fMaxHz: options.fMaxHz } : {}),
-    templates,
-  };
+  const bank = bankRecord(options, templates, options.spinRange);
   return {
     bank,
     report: {

@@ -8,7 +8,7 @@
 // Sathyaprakash, Phys. Rev. D 60, 022002 (1999), Sec. III).
 import { T_SUN } from "../physics/constants.js";
 import type { PsdModel } from "../noise/psdModel.js";
-import { EULER_GAMMA, V_LSO } from "../waveform/pnCoefficients.js";
+import { taylorF2PhaseCoefficientsInto, V_LSO } from "../waveform/pnCoefficients.js";
 import { chirpTimesFromMassEta, iscoFrequencyHz, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
 import { spinOrbitBeta } from "../waveform/alignedSpinPhase.js";
 
@@ -40,6 +40,10 @@ export function massEtaSpinFromCoordinates(tau0: number, tau3: number, tauS: num
   return { totalMassSolar, eta, spin: equalSpinFromBeta(beta, eta) };
 }
 
+/** Scratch for the non-spinning coefficients (equalSpinPhaseInto allocates nothing per call). */
+const COEFF_A = new Float64Array(8);
+const COEFF_B = new Float64Array(8);
+
 /**
  * The TaylorF2 phase Ψ(f) (t_c = φ_c = 0) of total mass M, symmetric mass ratio η and equal aligned
  * spins χ1 = χ2 = χ, written in η alone so that it can be differentiated across η = 1/4. Non-spinning
@@ -55,25 +59,17 @@ export function equalSpinPhaseInto(totalMassSolar: number, eta: number, spin: nu
   const pi = Math.PI;
   const e2 = eta * eta;
   const x = spin;
-  const a2 = 3715 / 756 + (55 / 9) * eta;
-  const a3 = -16 * pi + (113 / 3 - (76 / 3) * eta) * x;
-  const a4 = 15293365 / 508032 + (27145 / 504) * eta + (3085 / 72) * e2 - 10 * x * x * ((79 / 8) * eta + (81 / 16) * (1 - 2 * eta));
-  const p5 = pi * (38645 / 756 - (65 / 9) * eta) - (732985 / 2268 - (24260 / 81) * eta - (340 / 9) * e2) * x;
-  const a5 = p5 * (1 - 3 * Math.log(V_LSO));
-  const b5 = 3 * p5;
-  const a6 =
-    11583231236531 / 4694215680 -
-    (640 / 3) * pi * pi -
-    (6848 / 21) * EULER_GAMMA -
-    (6848 / 21) * Math.log(4) +
-    (-15737765635 / 3048192 + (2255 / 12) * pi * pi) * eta +
-    (76055 / 1728) * e2 -
-    (127825 / 1296) * e2 * eta +
-    pi * (2270 / 3 - 520 * eta) * x;
-  const b6 = -6848 / 21;
-  const a7 =
-    pi * (77096675 / 254016 + (378515 / 1512) * eta - (74045 / 756) * e2) +
-    (-25150083775 / 3048192 + (10566655595 / 762048) * eta - (1042165 / 3024) * e2 + (5345 / 36) * e2 * eta) * x;
+  // The non-spinning coefficients (η may exceed 1/4 here: no clamp), then the equal-spin terms.
+  taylorF2PhaseCoefficientsInto(eta, 7, COEFF_A, COEFF_B);
+  const a2 = COEFF_A[2];
+  const a3 = COEFF_A[3] + (113 / 3 - (76 / 3) * eta) * x;
+  const a4 = COEFF_A[4] - 10 * x * x * ((79 / 8) * eta + (81 / 16) * (1 - 2 * eta));
+  const gamma = (732985 / 2268 - (24260 / 81) * eta - (340 / 9) * e2) * x;
+  const a5 = COEFF_A[5] - gamma * (1 - 3 * Math.log(V_LSO));
+  const b5 = COEFF_B[5] - 3 * gamma;
+  const a6 = COEFF_A[6] + pi * (2270 / 3 - 520 * eta) * x;
+  const b6 = COEFF_B[6];
+  const a7 = COEFF_A[7] + (-25150083775 / 3048192 + (10566655595 / 762048) * eta - (1042165 / 3024) * e2 + (5345 / 36) * e2 * eta) * x;
   const pre = 3 / (128 * eta);
   const mT = pi * totalMassSolar * T_SUN;
   for (let i = 0; i < fHz.length; i++) {

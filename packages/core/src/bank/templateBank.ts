@@ -222,16 +222,7 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
   if (templates.length === 0) {
     throw new InputError(`the placement found no template for ${mMin}–${mMax} M_sun from ${fMinHz} Hz; widen the band or the mass range`);
   }
-  const bank: TemplateBank = {
-    fMinHz,
-    matchFloor,
-    noiseCurve: options.noiseCurve ?? psd.name,
-    massRangeSolar: [mMin, mMax],
-    ...(options.totalMassCapSolar !== undefined ? { totalMassCapSolar: options.totalMassCapSolar } : {}),
-    ...(options.massRatioCap !== undefined ? { massRatioCap: options.massRatioCap } : {}),
-    ...(options.fMaxHz !== undefined ? { fMaxHz: options.fMaxHz } : {}),
-    templates,
-  };
+  const bank = bankRecord(options, templates);
   return {
     bank,
     report: {
@@ -317,4 +308,20 @@ function regionOf(options: BuildBankOptions): MassRegion {
 /** Builds a bank (see {@link buildBankWithReport}). */
 export function buildBank(options: BuildBankOptions): TemplateBank {
   return buildBankWithReport(options).bank;
+}
+
+/** The bank a placement returns: its settings as built (region, caps, band, noise curve) and its templates. */
+export function bankRecord(options: BuildBankOptions, templates: Template[], spinRange?: [number, number]): TemplateBank {
+  const [mMin, mMax] = options.massRangeSolar;
+  return {
+    fMinHz: options.fMinHz,
+    matchFloor: options.matchFloor,
+    noiseCurve: options.noiseCurve ?? options.psd.name,
+    massRangeSolar: [mMin, mMax],
+    ...(spinRange ? { spinRange: [spinRange[0], spinRange[1]] as [number, number] } : {}),
+    ...(options.totalMassCapSolar !== undefined ? { totalMassCapSolar: options.totalMassCapSolar } : {}),
+    ...(options.massRatioCap !== undefined ? { massRatioCap: options.massRatioCap } : {}),
+    ...(options.fMaxHz !== undefined ? { fMaxHz: options.fMaxHz } : {}),
+    templates,
+  };
 }
