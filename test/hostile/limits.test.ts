@@ -1,6 +1,6 @@
 // Hostile inputs that once crashed, ran away or blamed the wrong thing: each must be refused up front
 // with exit 2 and one stderr line naming the flag or file in the user's terms, writing nothing; or,
-// where the issue asks for it, work in bounded memory.
+// where that is asked for, work in bounded memory.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";

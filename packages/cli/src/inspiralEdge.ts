@@ -1,6 +1,6 @@
 import { ajith2011, inspiralEdgeOfBank, type InspiralEdge, type PsdModel, type ShareTemplate } from "@chirpsieve/core";
 
-/** Share of a template's SNR the inspiral to the ISCO must carry before we warn (the 0.9). */
+/** Share of a template's SNR the inspiral to the ISCO must carry before we warn (ours: a template missing more than a tenth of its signal's SNR is no longer a faithful model of it). */
 export const INSPIRAL_SHARE_FLOOR = 0.9;
 
 /** What a summary records about the edge of the inspiral. */
