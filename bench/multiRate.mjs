@@ -29,6 +29,7 @@ import {
   loadFftBackends,
   resolveFftBackend,
   searchStrain,
+  estimateSearchCost,
   taylorF2BinRange,
 } from "../packages/core/dist/index.js";
 
@@ -227,8 +228,13 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         rss[mode] = JSON.parse(r.stdout.trim().split("\n").pop());
       }
       log(`  peak RSS, ${rss.multi.threads} threads: per-template rate ${rss.multi.peakRssMb.toFixed(0)} MB, full rate ${rss.single.peakRssMb.toFixed(0)} MB`);
+      // The cost model bank sweep uses (search/searchCost.ts), against the timed one-thread search of the same templates.
+      const estimate = estimateSearchCost({ templates, fMinHz: w.fMinHz, sampleRate: FS, psd: ajith2011, backend, dataSeconds: SECONDS });
+      const estimatedSeconds = segments * (estimate.perSegmentSeconds + templates.length * estimate.perTemplateSegmentSeconds);
+      log(`  cost model: ${estimatedSeconds.toFixed(2)} s estimated for this search, ${runs.multi1.wallSeconds.toFixed(2)} s measured (ratio ${(estimatedSeconds / runs.multi1.wallSeconds).toFixed(2)})`);
       results[key] = {
         label: w.label,
+        costModel: { estimatedSeconds, measuredSeconds: runs.multi1.wallSeconds, ratio: estimatedSeconds / runs.multi1.wallSeconds, cpuSecondsPerHour: estimate.cpuSecondsPerHour },
         bankTemplates: placed,
         searchedTemplates: templates.length,
         segments,
@@ -258,7 +264,8 @@ export function rateLines(results) {
     lines.push(
       `   ${r.label}: ${r.ratioToFloor.toFixed(3)} × (target ≤ ${r.target}); full rate ${r.fullRateRatioToFloor.toFixed(3)} ×; speed-up ${r.speedupOverFullRate.toFixed(2)}×; ` +
         `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
-        `peak RSS ${r.peakRssMb.perTemplateRate.toFixed(0)} MB (full rate ${r.peakRssMb.fullRate.toFixed(0)} MB)`,
+        `peak RSS ${r.peakRssMb.perTemplateRate.toFixed(0)} MB (full rate ${r.peakRssMb.fullRate.toFixed(0)} MB); ` +
+        `cost model (bank sweep's estimate) ÷ the timed search ${r.costModel.ratio.toFixed(2)} (target within 1/1.5–1.5)`,
     );
   }
   return lines;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ajith2011, parseMatchFloorRange, sweepMatchFloors } from "@chirpsieve/core";
-import { measureTemplateCost, scanCpuSecondsPerHour } from "../../packages/core/src/bank/scanCost.js";
+import { estimateSearchCost } from "../../packages/core/src/search/searchCost.js";
+import { chooseSegmentLayout } from "../../packages/core/src/search/scan.js";
 
 describe("match-floor sweep", () => {
   it("parses MIN:MAX:STEP ranges inclusively, without rounding drift", () => {
@@ -24,14 +25,24 @@ describe("match-floor sweep", () => {
       expect(row.rateLoss).toBeLessThanOrEqual(1 - row.matchFloor ** 3);
       expect(row.cpuSecondsPerHour).toBeGreaterThan(0);
     }
-    expect(r.cost?.method).toMatch(/timed runs on this machine/);
+    expect(r.cost?.method).toMatch(/the search's own kernel timed on this machine/);
+    const c = r.cost!;
+    expect(r.rows[0].cpuSecondsPerHour).toBeCloseTo(c.segmentsPerHour * (c.perSegmentSeconds + r.rows[0].templateCount * c.perTemplateSegmentSeconds), 9);
   });
 
-  it("scales the measured per-template cost by templates × segments per hour", () => {
-    const cost = measureTemplateCost({ longestTemplateSeconds: 3, highestFrequencyHz: 400, fMinHz: 20, repeats: 3 });
-    expect(cost.segmentSeconds).toBe(8);
-    expect(cost.sampleRate).toBe(1024);
-    expect(cost.segmentsPerHour).toBe(900);
-    expect(scanCpuSecondsPerHour(100, cost)).toBeCloseTo(100 * 900 * cost.secondsPerTemplateSegment, 12);
+  it("uses the search's own segment layout and scales the timed work by templates and segments per hour", () => {
+    const templates = [
+      { primaryMass: 10, secondaryMass: 9 },
+      { primaryMass: 12, secondaryMass: 8 },
+      { primaryMass: 14, secondaryMass: 10 },
+    ];
+    const cost = estimateSearchCost({ templates, fMinHz: 30, sampleRate: 1024, psd: ajith2011, backend: "fftjs" });
+    const layout = chooseSegmentLayout({ templates, fMinHz: 30, snrThreshold: 6, chi2Bands: 0, loudestWithinSeconds: 1, psd: { kind: "estimate", segmentSeconds: 4, average: "median" } }, 1024, 3600 * 1024);
+    expect(cost.segmentSamples).toBe(layout.size);
+    expect(cost.segmentsPerHour).toBeCloseTo((3600 * 1024) / (layout.size - layout.invalidStart - layout.invalidEnd), 9);
+    expect(cost.templatesTimed).toBe(3);
+    expect(cost.perSegmentSeconds).toBeGreaterThan(0);
+    expect(cost.perTemplateSegmentSeconds).toBeGreaterThan(0);
+    expect(cost.cpuSecondsPerHour).toBeCloseTo(cost.segmentsPerHour * (cost.perSegmentSeconds + 3 * cost.perTemplateSegmentSeconds), 9);
   });
 });

@@ -46,6 +46,7 @@ export { DEFAULT_BAND_POWER_LOSS, chooseOutputRate } from "./search/outputRate.j
 export { psdLabel } from "./search/psdLabel.js";
 export { runSummaryRecord } from "./search/runSummary.js";
 export { chooseSegmentPlan, planSearch, searchStrain } from "./search/scan.js";
+export { estimateSearchCost } from "./search/searchCost.js";
 export { createSegmentFilter } from "./search/segmentFilter.js";
 export { amplitudeLaw } from "./search/segmentWeights.js";
 export { snrAroundTime } from "./search/snrAround.js";

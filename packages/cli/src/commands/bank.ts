@@ -367,8 +367,8 @@ async function runSweep(flags: SweepFlags): Promise<void> {
   }
   if (result.cost) {
     lines.push(
-      `scan cost is an estimate: ${result.cost.method}; ${fmt(result.cost.secondsPerTemplateSegment * 1000, 3)} ms per template per segment, ` +
-        `${fmt(result.cost.segmentsPerHour, 3)} segments per hour`,
+      `scan cost is an estimate: ${result.cost.method}; ${fmt(result.cost.perTemplateSegmentSeconds * 1000, 3)} ms per template per segment ` +
+        `and ${fmt(result.cost.perSegmentSeconds * 1000, 3)} ms per segment, ${fmt(result.cost.segmentsPerHour, 3)} segments per hour`,
     );
   }
   if (flags.plot) lines.push(`plot written to ${flags.plot}`);

@@ -2,7 +2,7 @@
 import { InputError, parameterError } from "../errors.js";
 import { MAX_MATCH_FLOOR, MIN_MATCH_FLOOR, buildBankWithReport, checkBankOptions, checkTemplateLimit, type BuildBankOptions } from "./templateBank.js";
 import { MAX_VERIFY_DRAWS, verifyBank, type VerifyDrawSpace, type VerifySignal } from "./verify.js";
-import { measureTemplateCost, scanCpuSecondsPerHour, type TemplateCostMeasurement } from "./scanCost.js";
+import { estimateSearchCost, type SearchCostEstimate } from "../search/searchCost.js";
 import { iscoFrequencyHz } from "./chirpTimeCoordinates.js";
 import { buildSpinBankWithReport, checkSpinRange, estimateSpinTemplateCount } from "./spinBank.js";
 import type { SpinPlacementKind } from "./spinPlacement.js";
@@ -48,7 +48,7 @@ export interface SweepRow {
 
 export interface SweepResult {
   rows: SweepRow[];
-  cost?: TemplateCostMeasurement;
+  cost?: SearchCostEstimate;
   draws: number;
   signal: VerifySignal;
   /** The spin range of spinning banks (absent for non-spinning ones). */
@@ -82,8 +82,9 @@ export function parseMatchFloorRange(spec: string): number[] {
 
 /**
  * For each minimal match: builds the bank (templateBank.ts), verifies it with seeded fitting-factor
- * draws (verify.ts) and scales a once-measured per-template cost (scanCost.ts) to CPU seconds per hour
- * of data. The rate loss 1 − ⟨FF³⟩ is the expected fraction of detectable sources lost to the
+ * draws (verify.ts) and estimates the CPU seconds to search an hour of data with it: the search's own
+ * per-segment and per-template work timed once on this machine (search/searchCost.ts), scaled by the
+ * bank's template count and the search's segments per hour. The rate loss 1 − ⟨FF³⟩ is the expected fraction of detectable sources lost to the
  * bank's discreteness, for sources uniform in volume (Owen, Phys. Rev. D 53, 6749 (1996)).
  */
 export function sweepMatchFloors(options: SweepOptions): SweepResult {
@@ -105,7 +106,7 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
   }
   const signal = options.signal ?? "taylorf2";
   const rows: SweepRow[] = [];
-  let cost: TemplateCostMeasurement | undefined;
+  let cost: SearchCostEstimate | undefined;
   options.matchFloors.forEach((mm, k) => {
     const spinRange = options.spinRange;
     const { bank, report } = spinRange
@@ -115,9 +116,10 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
       ? verifyBankWithSpins(bank, { draws, seed: options.seed, signal, psd: options.psd, spinRange })
       : verifyBank(bank, { draws, seed: options.seed, signal, drawSpace: options.drawSpace, psd: options.psd });
     if (options.measureCost !== false && !cost) {
-      const longest = bank.templates.reduce((m, t) => Math.max(m, t.tau0), 0);
+      // The rate a scan of such data needs: a power of two at least twice the highest template frequency.
       const top = Math.min(options.fMaxHz ?? Infinity, iscoFrequencyHz(2 * options.massRangeSolar[0]));
-      cost = measureTemplateCost({ longestTemplateSeconds: longest, highestFrequencyHz: top, fMinHz: options.fMinHz });
+      const sampleRate = Math.min(16384, 2 ** Math.ceil(Math.log2(2 * top)));
+      cost = estimateSearchCost({ templates: bank.templates, fMinHz: options.fMinHz, sampleRate, psd: options.psd });
     }
     rows.push({
       matchFloor: mm,
@@ -128,7 +130,7 @@ export function sweepMatchFloors(options: SweepOptions): SweepResult {
       meanFittingFactor: v.mean,
       meanCube: v.meanCube,
       rateLoss: 1 - v.meanCube,
-      cpuSecondsPerHour: cost ? scanCpuSecondsPerHour(report.templateCount, cost) : undefined,
+      cpuSecondsPerHour: cost ? cost.segmentsPerHour * (cost.perSegmentSeconds + report.templateCount * cost.perTemplateSegmentSeconds) : undefined,
     });
     options.onProgress?.(k + 1, options.matchFloors.length);
   });
