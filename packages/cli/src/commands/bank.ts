@@ -211,33 +211,28 @@ async function runBuild(flags: BuildFlags, argv: string[]): Promise<void> {
     inputs: noiseCurveInput("--noise-curve", flags.noiseCurve),
     outputs: [{ flag: "--out", path: flags.out }, ...(flags.plot ? [{ flag: "--plot", path: flags.plot }] : [])],
   });
-  if (region.spinRange) {
-    const spinRange = region.spinRange;
-    const { bank, report } = withBankFlagErrors(() => buildSpinBankWithReport({ ...region, spinRange, matchFloor }), LIMIT_REMEDY);
-    bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
-    writeBankFile(flags.out, bank);
-    const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fMinHz);
-    warnInspiralEdge(inspiralEdge);
-    if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
-    if (flags.json) {
-      process.stdout.write(JSON.stringify({ file: flags.out, spinRange, ...report, inspiralEdge }) + "\n");
-      return;
-    }
-    process.stdout.write(spinBuildSummary(flags.out, bank, report) + "\n");
-    if (flags.plot) process.stdout.write(`plot written to ${flags.plot}\n`);
-    return;
-  }
-  const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
+  // A spinning or a plain bank; either is written, plotted and reported the same way.
+  const built = region.spinRange
+    ? (() => {
+        const spinRange = region.spinRange;
+        const { bank, report } = withBankFlagErrors(() => buildSpinBankWithReport({ ...region, spinRange, matchFloor }), LIMIT_REMEDY);
+        return { bank, json: { spinRange, ...report }, text: () => spinBuildSummary(flags.out!, bank, report) };
+      })()
+    : (() => {
+        const { bank, report } = withBankFlagErrors(() => buildBankWithReport({ ...region, matchFloor }), LIMIT_REMEDY);
+        return { bank, json: { ...report, countOverVolumeEstimate: report.templateCount / report.volumeEstimate }, text: () => buildSummary(flags.out!, bank, report) };
+      })();
+  const bank = built.bank;
   bank.generator = { tool: "chirpsieve", version: VERSION, arguments: argv };
   writeBankFile(flags.out, bank);
   const inspiralEdge = checkInspiralEdge(bank.templates, region.psd, bank.fMinHz);
   warnInspiralEdge(inspiralEdge);
   if (flags.plot) writeFileAtomic(flags.plot, (await import("../bankPlots.js")).renderBankPlot(bank));
   if (flags.json) {
-    process.stdout.write(JSON.stringify({ file: flags.out, ...report, countOverVolumeEstimate: report.templateCount / report.volumeEstimate, inspiralEdge }) + "\n");
+    process.stdout.write(JSON.stringify({ file: flags.out, ...built.json, inspiralEdge }) + "\n");
     return;
   }
-  process.stdout.write(buildSummary(flags.out, bank, report) + "\n");
+  process.stdout.write(built.text() + "\n");
   if (flags.plot) process.stdout.write(`plot written to ${flags.plot}\n`);
 }
 

@@ -22,7 +22,6 @@ import {
   startScanRun,
   joinContiguousInputs,
   readIntervalFile,
-  InputError,
   runSummaryRecord,
   psdLabel,
   type SearchInput,
@@ -172,11 +171,11 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     badData: flags.skipBadData ? ("exclude" as const) : ("reject" as const), analysisIntervals, excludedIntervals, gating,
   };
   const run = shard || flags.resume
-    ? await withBadDataHint(() => startScanRun({
+    ? await startScanRun({
         version: VERSION, inputs: streams, options: searchOptions, shard,
         journalPath: flags.resume ? journalPathFor(flags.out!) : undefined,
         arguments: { bank: bankDescription, rate, start, dataset: flags.dataset },
-      }))
+      })
     : undefined;
   const progress = createProgress(!flags.quiet, "scan", { lines: true });
   const candidates: Candidate[] = [];
@@ -184,12 +183,12 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
   const wallStart = performance.now();
   try {
     for (const [i, stream] of streams.entries()) {
-      const r = await withBadDataHint(() => searchStrain(stream, {
+      const r = await searchStrain(stream, {
         ...searchOptions,
         threads, // not part of the run id: results do not depend on it
         onProgress: (done, total) => progress.update(i, streams.length, done, total),
         segmentHook: run?.hook(i),
-      }));
+      });
       if (r.summary.unsearchable) {
         const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --welch-segment" : "raise --fmin, use heavier masses or longer data";
         // Too short by itself is the user's to fix; left with nothing by the exclusions they asked for is reported.
@@ -329,18 +328,6 @@ function checkSitesFromOneRun(network: NetworkSite[], sources: StrainReader[]): 
       );
     }
   });
-}
-
-/** Runs a search step, adding the flag that lets bad data be left out to core's refusal of it. */
-async function withBadDataHint<T>(work: () => Promise<T>): Promise<T> {
-  try {
-    return await work();
-  } catch (err) {
-    if (err instanceof InputError && err.parameter === "badData") {
-      throw new UsageError(`${err.message}; pass --skip-bad-data to leave such stretches out and search the rest`);
-    }
-    throw err;
-  }
 }
 
 interface NetworkSite {

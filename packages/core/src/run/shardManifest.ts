@@ -57,6 +57,9 @@ export interface SearchDescription {
   analysisIntervals: readonly TimeInterval[] | null;
   excludedIntervals: readonly TimeInterval[] | null;
   gating: GateSettings | "default" | null;
+  /** Each template filtered at its own output rate (search/outputRate.ts), and that rate's ε (null: the default). */
+  perTemplateRate: boolean;
+  bandPowerLoss: number | null;
 }
 
 /** The JSON file beside a shard's candidate file (see shardRun.ts, mergeShards.ts). */
@@ -183,6 +186,8 @@ export function describeSearch(options: SearchOptions): SearchDescription {
     analysisIntervals: options.analysisIntervals ?? null,
     excludedIntervals: options.excludedIntervals ?? null,
     gating: options.gating === undefined ? "default" : options.gating,
+    perTemplateRate: options.perTemplateRate !== false,
+    bandPowerLoss: options.bandPowerLoss ?? null,
   };
 }
 

@@ -28,21 +28,3 @@ export function medianMagnitude(samples: Float64Array): number {
   }
   return selectInPlace(mags, mags.length >> 1);
 }
-
-/**
- * Index of the first sample of `samples` whose magnitude exceeds CORRUPT_OVER_MEDIAN times the
- * median magnitude (medianMagnitude), or −1 (also when that median is 0: a mostly zero-filled
- * stretch has no noise level to compare with).
- */
-export function firstCorruptSample(samples: Float64Array): number {
-  const median = medianMagnitude(samples);
-  if (!(median > 0) || !Number.isFinite(median)) return -1;
-  const limit = CORRUPT_OVER_MEDIAN * median;
-  for (let i = 0; i < samples.length; i++) if (Math.abs(samples[i]) > limit) return i;
-  return -1;
-}
-
-/** What is wrong with a bad sample's value: "non-finite", or how far above the median it lies. */
-export function describeBadSample(value: number): string {
-  return Number.isFinite(value) ? `${value.toExponential(2)}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the segment's median magnitude` : "non-finite";
-}
