@@ -15,7 +15,8 @@ import { describeBadStretch, screenInput } from "./dataQuality.js";
 import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
-import { createSegmentFilter } from "./segmentFilter.js";
+import { createSegmentFilter, type SegmentFilter } from "./segmentFilter.js";
+import type { SegmentSpectrum } from "../filter/segmentSpectrum.js";
 import { DEFAULT_BAND_POWER_LOSS } from "./outputRate.js";
 import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
@@ -225,31 +226,8 @@ export async function searchStrain(
   const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "auto");
   const plan = await planSearch(source, options);
   const n = plan.size;
-  const skipped: SkippedStretch[] = plan.excluded.map((r) => ({
-    startTime: source.startTime + r.start / fs,
-    endTime: source.startTime + r.end / fs,
-    reason: r.reason,
-  }));
-  const summaryOf = (analysedSamples: number, gates: GateRecord[], threads: number): SearchSummary => ({
-    file: source.file,
-    templates: options.templates.length,
-    segments: plan.segments.length,
-    segmentSamples: n,
-    sampleRate: fs,
-    analysedSeconds: analysedSamples / fs,
-    dataSeconds: source.length / fs,
-    leadInSeconds: plan.invalidStart / fs,
-    tailSeconds: plan.invalidEnd / fs,
-    skippedSeconds: plan.excludedSamples / fs,
-    skipped,
-    lostToEdgesSeconds: plan.edgeSamples / fs,
-    intervals: plan.intervals.length,
-    gates,
-    ...(plan.unsearchable ? { unsearchable: plan.unsearchable, unsearchableLimitedBy: plan.limitedBy } : {}),
-    fftBackend: backend,
-    threads,
-    wallSeconds: (performance.now() - wallStart) / 1000,
-  });
+  const summaryOf = (analysedSamples: number, gates: GateRecord[], threads: number): SearchSummary =>
+    searchSummary(source, options, plan, { analysedSamples, gates, threads, backend, wallSeconds: (performance.now() - wallStart) / 1000 });
   if (plan.segments.length === 0) return { candidates: [], summary: summaryOf(0, [], 1) };
   const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);
   const templates = options.templates;
@@ -362,29 +340,7 @@ export async function searchStrain(
       });
       const first = all.length;
       const kept = clusterByTime(timed, options.loudestWithinSeconds);
-      for (const tr of kept) {
-        const t = templates[tr.templateIndex];
-        const kEnd = filter.generate(t);
-        const { chi2, dof } = options.chi2Bands >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bands) : { chi2: 0, dof: 0 };
-        const peak = parabolicPeak(tr.before, tr.snr, tr.after);
-        all.push({
-          coalescenceTime: tr.time,
-          snr: peak.value,
-          phase: Math.atan2(tr.im, tr.re),
-          chi2,
-          chi2Dof: dof,
-          reweightedSnr: reweightedSnr(peak.value, chi2, dof, options.chi2Allowance ?? 0),
-          primaryMass: t.primaryMass,
-          secondaryMass: t.secondaryMass,
-          chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
-          primarySpin: t.primarySpin ?? 0,
-          secondarySpin: t.secondarySpin ?? 0,
-          effectiveSpin: effectiveSpin(t),
-          effectiveDistanceMpc: tr.sigma / peak.value,
-          templateIndex: tr.templateIndex,
-          file: source.fileAt ? source.fileAt(tr.time) : source.file,
-        });
-      }
+      for (const c of survivorCandidates(kept, source, options, filter, spec)) all.push(c);
       hook?.done(segIndex, { searchSamples, gates: cur.gates, triggers: timed, survivors: kept, candidates: all.slice(first) });
       options.onProgress?.(++done, total);
       if (hasNext && next === undefined) next = prepare(step + 1);
@@ -399,4 +355,73 @@ export async function searchStrain(
     options.loudestWithinSeconds,
   ).map(({ time: _t, ...c }) => c as Candidate);
   return { candidates, summary: summaryOf(analysed, gates, threads) };
+}
+
+/** What a search of one input covered: its plan's bookkeeping and what the run measured. */
+function searchSummary(
+  source: SearchInput,
+  options: SearchOptions,
+  plan: SearchPlan,
+  run: { analysedSamples: number; gates: GateRecord[]; threads: number; backend: FftBackendName; wallSeconds: number },
+): SearchSummary {
+  const fs = source.sampleRate;
+  return {
+    file: source.file,
+    templates: options.templates.length,
+    segments: plan.segments.length,
+    segmentSamples: plan.size,
+    sampleRate: fs,
+    analysedSeconds: run.analysedSamples / fs,
+    dataSeconds: source.length / fs,
+    leadInSeconds: plan.invalidStart / fs,
+    tailSeconds: plan.invalidEnd / fs,
+    skippedSeconds: plan.excludedSamples / fs,
+    skipped: plan.excluded.map((r): SkippedStretch => ({ startTime: source.startTime + r.start / fs, endTime: source.startTime + r.end / fs, reason: r.reason })),
+    lostToEdgesSeconds: plan.edgeSamples / fs,
+    intervals: plan.intervals.length,
+    gates: run.gates,
+    ...(plan.unsearchable ? { unsearchable: plan.unsearchable, unsearchableLimitedBy: plan.limitedBy } : {}),
+    fftBackend: run.backend,
+    threads: run.threads,
+    wallSeconds: run.wallSeconds,
+  };
+}
+
+/**
+ * The candidates of one segment's survivors of clustering: the chi-squared discriminator (on the
+ * segment's loaded spectrum, at the full-rate peak sample) and reweighted SNR, the template's
+ * masses and spins, and the effective distance from σ.
+ */
+function survivorCandidates(
+  kept: readonly RawTrigger[],
+  source: SearchInput,
+  options: SearchOptions,
+  filter: SegmentFilter,
+  spec: SegmentSpectrum,
+): Candidate[] {
+  const out: Candidate[] = [];
+  for (const tr of kept) {
+    const t = options.templates[tr.templateIndex];
+    const kEnd = filter.generate(t);
+    const { chi2, dof } = options.chi2Bands >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bands) : { chi2: 0, dof: 0 };
+    const peak = parabolicPeak(tr.before, tr.snr, tr.after);
+    out.push({
+      coalescenceTime: tr.time,
+      snr: peak.value,
+      phase: Math.atan2(tr.im, tr.re),
+      chi2,
+      chi2Dof: dof,
+      reweightedSnr: reweightedSnr(peak.value, chi2, dof, options.chi2Allowance ?? 0),
+      primaryMass: t.primaryMass,
+      secondaryMass: t.secondaryMass,
+      chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
+      primarySpin: t.primarySpin ?? 0,
+      secondarySpin: t.secondarySpin ?? 0,
+      effectiveSpin: effectiveSpin(t),
+      effectiveDistanceMpc: tr.sigma / peak.value,
+      templateIndex: tr.templateIndex,
+      file: source.fileAt ? source.fileAt(tr.time) : source.file,
+    });
+  }
+  return out;
 }
