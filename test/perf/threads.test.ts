@@ -64,32 +64,39 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
     });
   }
 
-  it("filters a template range [from, to) in the workers exactly as one thread does (same peaks, same σ)", async () => {
+  it("filters a template range [from, to) in the workers exactly as one thread does (same peaks, same σ), in either slot of the double buffer", async () => {
     const n = 1 << 17;
-    const data = simulatedData({ psd: ajith2011, fs: FS, seconds: n / FS, seed: "threads-range", fMin: FMIN });
+    const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 2 * n / FS, seed: "threads-range", fMin: FMIN });
     const filter = createSegmentFilter({
       size: n, sampleRate: FS, fMinHz: FMIN, fMaxHz: 0.95 * (FS / 2),
       psd: { kind: "model", model: ajith2011 }, truncationSamples: 2 * FS, backend: "pffft", shared: true,
     });
-    filter.load(data, n);
+    const twin = filter.twin();
+    filter.load(data.slice(0, n), n);
+    twin.load(data.slice(n), n);
     const bank = chirpMassGrid(2, 6, 0.06, [1, 0.6]);
     const masses = new Float64Array(bank.flatMap((t) => [t.primaryMass, t.secondaryMass]));
     const config = { size: n, sampleRate: FS, fMinHz: FMIN, fMaxHz: 0.95 * (FS / 2), backend: "pffft" as const };
     const peaks = { start: 8 * FS, end: n - 2 * FS, threshold: 3.5, window: FS / 4 };
     const from = 5, to = bank.length - 3;
-    const one: Trigger[] = [];
-    const sigmas = new Float64Array(bank.length);
-    createBankFilter(config).scan(filter.weights, masses, from, to, peaks, sigmas, one);
-    const pool = await createSearchPool(2, config, filter.weights, masses);
+    const pool = await createSearchPool(2, config, [filter.weights, twin.weights], masses);
     try {
-      const many = await pool.run(0, filter.weights, peaks, from, to);
-      expect(one.length).toBeGreaterThan(20);
-      expect(many).toEqual(one);
-      expect(Array.from(pool.sigmas.subarray(from, to))).toEqual(Array.from(sigmas.subarray(from, to)));
-      expect(pool.sigmas[from - 1]).toBe(0);
-      expect(pool.sigmas[to]).toBe(0);
+      for (const [slot, f] of [filter, twin].entries()) {
+        const one: Trigger[] = [];
+        const sigmas = new Float64Array(bank.length);
+        createBankFilter(config).scan(f.weights, masses, from, to, peaks, sigmas, one);
+        const many = await pool.run(slot, slot, peaks, from, to);
+        expect(one.length).toBeGreaterThan(20);
+        expect(many).toEqual(one);
+        expect(Array.from(pool.sigmas[slot].subarray(from, to))).toEqual(Array.from(sigmas.subarray(from, to)));
+        expect(pool.sigmas[slot][from - 1]).toBe(0);
+        expect(pool.sigmas[slot][to]).toBe(0);
+      }
+      // The two slots hold different segments: their peaks differ.
+      expect(await pool.run(0, 0, peaks, from, to)).not.toEqual(await pool.run(1, 1, peaks, from, to));
     } finally {
       await pool.close();
+      filter.dispose();
     }
   });
 

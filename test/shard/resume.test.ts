@@ -1,7 +1,7 @@
 import { appendFileSync, existsSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { InputError, loadFftBackends, mergeShards, searchStrain, startScanRun, type Candidate, type SearchOptions, type ShardSpec } from "@chirpsieve/core";
+import { InputError, loadFftBackends, mergeShards, searchStrain, startScanRun, type Candidate, type SearchInput, type SearchOptions, type ShardSpec } from "@chirpsieve/core";
 import { readScanJournal } from "../../packages/core/src/run/scanJournal.js";
 import { expectHookWired, RUN_ARGUMENTS, runOptions, runShard, syntheticInputs, tempDir, unshardedCandidates, VERSION } from "./fixtures.js";
 
@@ -104,5 +104,36 @@ describe("--resume: a killed scan continues from its journal and ends with the s
     await runShard(shardDir, syntheticInputs(), runOptions(), { ...spec, index: 0 });
     await runShard(shardDir, syntheticInputs(), runOptions(), { ...spec, index: 2 });
     expect(mergeShards([shardDir]).candidates).toEqual(reference);
+  });
+});
+
+describe("a sharded or resumable run screens each input once", () => {
+  /** An input that counts the samples read from it. */
+  function counting(source: SearchInput): { input: SearchInput; read: () => number } {
+    let samples = 0;
+    const input: SearchInput = {
+      ...source,
+      read: async (start, length) => {
+        samples += length;
+        return source.read(start, length);
+      },
+    };
+    return { input, read: () => samples };
+  }
+
+  it("reads the input once to screen it, not again in searchStrain (the run's plan goes to searchStrain with the hook)", async () => {
+    const options = { ...runOptions(), badData: "reject" as const };
+    const plain = counting(syntheticInputs()[0]);
+    await searchStrain(plain.input, options);
+    const hooked = counting(syntheticInputs()[0]);
+    const run = await startScanRun({ version: VERSION, inputs: [hooked.input], options, arguments: RUN_ARGUMENTS });
+    const result = await searchStrain(hooked.input, { ...options, segmentHook: run.hook(0) });
+    run.close();
+    expect(result.summary.segments).toBeGreaterThan(1);
+    // Screening reads the whole input once (80 s at 1024 Hz). The run also checksums the samples
+    // (an in-memory input has no file to hash): one more whole read; a second screen would add another.
+    const whole = 80 * 1024;
+    expect(plain.read()).toBeGreaterThan(whole);
+    expect(hooked.read()).toBe(plain.read() + whole);
   });
 });

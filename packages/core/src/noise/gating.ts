@@ -77,7 +77,7 @@ export function createGater(size: number, sampleRate: number, backend: FftBacken
     size,
     apply(data, dataLength, psd, fMinHz, fMaxHz, settings) {
       forward ??= createRealFft(n, backend);
-      inverse ??= createRealInverseFft(n);
+      inverse ??= createRealInverseFft(n, backend);
       spec ??= new Float64Array(n + 2);
       time ??= new Float64Array(n);
       gain ??= new Float64Array(nBins);

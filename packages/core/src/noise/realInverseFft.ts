@@ -1,5 +1,5 @@
 import { createComplexFft } from "../fft/create.js";
-import type { ComplexFft } from "../fft/types.js";
+import type { ComplexFft, FftBackendName } from "../fft/types.js";
 
 /**
  * Inverse of a real-input FFT of (even, power-of-two) size N, unnormalised like the complex
@@ -17,9 +17,10 @@ export interface RealInverseFft {
   inverse(input: Float64Array, output: Float64Array): void;
 }
 
-export function createRealInverseFft(size: number): RealInverseFft {
+/** `backend`: the complex FFT under it (default fft.js, double precision; pffft is single). */
+export function createRealInverseFft(size: number, backend: FftBackendName = "fftjs"): RealInverseFft {
   const m = size / 2;
-  const fft: ComplexFft = createComplexFft(m);
+  const fft: ComplexFft = createComplexFft(m, backend);
   const z = new Float64Array(2 * m);
   const cosT = new Float64Array(m);
   const sinT = new Float64Array(m);

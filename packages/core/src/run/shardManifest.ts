@@ -3,7 +3,7 @@ import { closeSync, openSync, readSync, statSync } from "node:fs";
 import { basename, dirname, extname, join } from "node:path";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
-import { planSearch, truncationSeconds } from "../search/scan.js";
+import { planSearch, truncationSeconds, type SearchPlan } from "../search/scan.js";
 import { psdLabel } from "../search/psdLabel.js";
 import type { TimeInterval } from "../search/streamPlan.js";
 import type { SkippedStretch } from "../search/types.js";
@@ -124,14 +124,18 @@ function isFile(path: string): boolean {
 
 /**
  * Describes the inputs of a run: checksum (of the file at `path`, default `source.file`, or of the
- * samples when there is no such file), size and this run's segment plan for each.
+ * samples when there is no such file), size and this run's segment plan for each (`plan` when the
+ * caller has made it with planSearch and these options, else planned here).
  */
-export async function describeInputs(inputs: readonly { source: SearchInput; path?: string }[], options: SearchOptions): Promise<RunInput[]> {
+export async function describeInputs(
+  inputs: readonly { source: SearchInput; path?: string; plan?: SearchPlan }[],
+  options: SearchOptions,
+): Promise<RunInput[]> {
   const out: RunInput[] = [];
-  for (const { source, path } of inputs) {
+  for (const { source, path, plan: given } of inputs) {
     const p = path ?? source.file;
     const byFile = isFile(p);
-    const plan = await planSearch(source, options);
+    const plan = given ?? (await planSearch(source, options));
     out.push({
       file: source.file,
       sha256: byFile ? fileSha256(p) : await samplesSha256(source),

@@ -6,6 +6,7 @@ import { writeFileAtomic } from "../io/atomicWrite.js";
 import { openScanJournal, type ScanJournal } from "./scanJournal.js";
 import { mergeSegmentRecords, type MergedScan, type RunLayout } from "./mergeSegments.js";
 import type { SegmentHook } from "../search/segmentHook.js";
+import { planSearch, type SearchPlan } from "../search/scan.js";
 import {
   describeInputs,
   describeSearch,
@@ -70,8 +71,11 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
   const shard: ShardSpec = setup.shard ?? { index: 0, count: 1, by: "time" };
   checkShardSpec(shard);
   const options = setup.options;
+  // Each input is screened and planned once: the plans are handed to searchStrain through the hooks.
+  const plans: SearchPlan[] = [];
+  for (const source of setup.inputs) plans.push(await planSearch(source, options));
   const inputs = await describeInputs(
-    setup.inputs.map((source) => ({ source })),
+    setup.inputs.map((source, i) => ({ source, plan: plans[i] })),
     options,
   );
   const search = describeSearch(options);
@@ -115,6 +119,7 @@ export async function startScanRun(setup: ScanRunSetup): Promise<ScanRun> {
     hook(input) {
       if (!(input >= 0 && input < inputs.length)) throw new Error(`scan run: no input ${input}`);
       return {
+        plan: plans[input],
         segments(total) {
           if (total !== inputs[input].segments) {
             throw new Error(`scan run: ${inputs[input].file} has ${total} segments in the search but ${inputs[input].segments} in the run plan (different options?)`);

@@ -190,15 +190,20 @@ function searchThreads(o: SearchOptions, plan: { segments: readonly Segment[]; s
   return Math.min(defaultSearchThreads(), count);
 }
 
-interface PreparedSegment {
+/** One step of a run, loaded into a filter slot and ready for the templates. */
+interface LoadedStep {
+  /** Index of the segment in the plan. */
+  segIndex: number;
   seg: Segment;
-  /** The segment's samples, zero-padded to the segment length. */
-  data: Float64Array;
-  dataLength: number;
-  /** The segment's PSD (estimated ahead, while workers filter the previous segment). */
-  psd: Float64Array;
-  /** Gates applied to `data`. */
+  /** The filter (and, with workers, the pool slot) holding its weights. */
+  slot: number;
+  /** Its weighted spectrum, for the survivors' chi-squared test. */
+  spec: SegmentSpectrum;
+  /** Gates applied to its data. */
   gates: GateRecord[];
+  peaks: PeakWindow;
+  /** The templates [from, to) of the bank to filter in it. */
+  part: { from: number; to: number };
 }
 
 interface RawTrigger extends Trigger {
@@ -224,7 +229,7 @@ export async function searchStrain(
   const fs = source.sampleRate;
   validateSearchOptions(options, fs);
   const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "auto");
-  const plan = await planSearch(source, options);
+  const plan = options.segmentHook?.plan ?? (await planSearch(source, options));
   const n = plan.size;
   const summaryOf = (analysedSamples: number, gates: GateRecord[], threads: number): SearchSummary =>
     searchSummary(source, options, plan, { analysedSamples, gates, threads, backend, wallSeconds: (performance.now() - wallStart) / 1000 });
@@ -258,9 +263,13 @@ export async function searchStrain(
     masses[2 * i + 1] = t.secondaryMass;
   });
   const spins = templateSpins(templates);
+  // With workers, a double buffer: segment k + 1 is loaded into one filter while the workers filter
+  // segment k against the other's weights.
+  const filters: SegmentFilter[] = threads > 1 ? [filter, filter.twin()] : [filter];
   // One thread filters on this thread; more start workers now, while the first segment is read.
   const inline = threads === 1 ? createBankFilter(config) : undefined;
-  const poolStart: Promise<SearchPool> | undefined = threads > 1 ? createSearchPool(threads, config, filter.weights, masses, spins) : undefined;
+  const poolStart: Promise<SearchPool> | undefined =
+    threads > 1 ? createSearchPool(threads, config, filters.map((f) => f.weights), masses, spins) : undefined;
   poolStart?.catch(() => {}); // awaited below; this only keeps an early failure from going unhandled
   let pool: SearchPool | undefined;
   const inlineSigmas = new Float64Array(templates.length);
@@ -274,24 +283,33 @@ export async function searchStrain(
   // A model PSD is the same for every segment: evaluated once.
   let modelPsd: Float64Array | undefined;
 
-  /** Reads segment i into buffers[i % 2], estimates its PSD and gates loud transients (done while workers filter the previous one). */
-  const prepare = async (i: number): Promise<PreparedSegment> => {
-    const seg = plan.segments[todo[i]];
-    const data = buffers[i % 2];
+  /**
+   * Step `step` of the run made ready to filter: its segment read into buffers[step % 2], its PSD
+   * estimated, loud transients gated, and the data transformed and weighted into filter slot
+   * step % (number of filters). With workers this runs while they filter the previous step.
+   */
+  const load = async (step: number): Promise<LoadedStep> => {
+    const segIndex = todo[step];
+    const seg = plan.segments[segIndex];
+    const data = buffers[step % 2];
     const raw = await source.read(seg.start, seg.dataLength);
     data.fill(0);
     data.set(raw);
     const psd =
       options.psd.kind === "model"
-        ? (modelPsd ??= segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples))
-        : segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples);
+        ? (modelPsd ??= segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples, backend))
+        : segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples, backend);
     const gates: GateRecord[] = [];
     if (gater && gating) {
       for (const g of gater.apply(data, raw.length, psd, options.fMinHz, fMax, gating)) {
         gates.push({ time: source.startTime + (seg.start + g.peakSample) / fs, zeroedSeconds: (g.zeroEnd - g.zeroStart) / fs, peakSigma: g.peakSigma });
       }
     }
-    return { seg, data, dataLength: raw.length, psd, gates };
+    const slot = step % filters.length;
+    const spec = filters[slot].load(data, raw.length, psd);
+    const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
+    const part = hook ? hook.templates(segIndex) : { from: 0, to: templates.length };
+    return { segIndex, seg, slot, spec, gates, peaks, part };
   };
 
   const all: Candidate[] = [];
@@ -299,51 +317,48 @@ export async function searchStrain(
   let analysed = 0;
   let done = 0;
   const total = todo.length;
+  /** A filtered step's peaks to candidates: timing, clustering, the survivors' χ², the hook and progress. */
+  const finish = (step: LoadedStep, triggers: Trigger[], sigmas: Float64Array): void => {
+    const seg = step.seg;
+    const searchSamples = seg.searchEnd - seg.searchStart;
+    analysed += searchSamples;
+    // Segments overlap: a transient in the overlap is gated in both, and recorded once.
+    for (const g of step.gates) addGate(gates, g);
+    const segStartTime = source.startTime + seg.start / fs;
+    const timed: RawTrigger[] = triggers.map((tr) => {
+      const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
+      return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
+    });
+    const first = all.length;
+    const kept = clusterByTime(timed, options.loudestWithinSeconds);
+    for (const c of survivorCandidates(kept, source, options, filters[step.slot], step.spec)) all.push(c);
+    hook?.done(step.segIndex, { searchSamples, gates: step.gates, triggers: timed, survivors: kept, candidates: all.slice(first) });
+    options.onProgress?.(++done, total);
+  };
   try {
-    let next: Promise<PreparedSegment> | undefined = total > 0 ? prepare(0) : undefined;
-    for (let step = 0; step < total; step++) {
-      const segIndex = todo[step];
-      const cur = await next!;
-      next = undefined;
-      const seg = cur.seg;
-      const searchSamples = seg.searchEnd - seg.searchStart;
-      const hasNext = step + 1 < total;
-      // Segments overlap: a transient in the overlap is gated in both, and recorded once.
-      for (const g of cur.gates) addGate(gates, g);
-      const spec = filter.load(cur.data, cur.dataLength, cur.psd);
-      const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
-      const part = hook ? hook.templates(segIndex) : { from: 0, to: templates.length };
-      let triggers: Trigger[];
-      let sigmas: Float64Array;
-      if (inline) {
-        triggers = [];
-        inline.scan(filter.weights, masses, part.from, part.to, peaks, inlineSigmas, triggers, spins);
-        sigmas = inlineSigmas;
-      } else {
-        pool ??= await poolStart!;
-        // The workers filter this segment while this thread reads the next one and estimates its
-        // PSD (into the other buffer); the loaded spectrum and weights stay untouched until then.
-        const running = pool.run(segIndex, filter.weights, peaks, part.from, part.to);
-        running.catch(() => {}); // awaited just below
-        if (hasNext) {
-          next = prepare(step + 1);
-          next.catch(() => {}); // awaited at the top of the next iteration
-        }
-        triggers = await running;
-        sigmas = pool.sigmas;
+    if (inline) {
+      for (let step = 0; step < total; step++) {
+        const cur = await load(step);
+        const triggers: Trigger[] = [];
+        inline.scan(filter.weights, masses, cur.part.from, cur.part.to, cur.peaks, inlineSigmas, triggers, spins);
+        finish(cur, triggers, inlineSigmas);
       }
-      analysed += searchSamples;
-      const segStartTime = source.startTime + seg.start / fs;
-      const timed: RawTrigger[] = triggers.map((tr) => {
-        const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
-        return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
-      });
-      const first = all.length;
-      const kept = clusterByTime(timed, options.loudestWithinSeconds);
-      for (const c of survivorCandidates(kept, source, options, filter, spec)) all.push(c);
-      hook?.done(segIndex, { searchSamples, gates: cur.gates, triggers: timed, survivors: kept, candidates: all.slice(first) });
-      options.onProgress?.(++done, total);
-      if (hasNext && next === undefined) next = prepare(step + 1);
+    } else if (total > 0) {
+      // The first step is loaded while the workers start; then each step's successor is loaded
+      // while the workers filter it, and its survivors are tested while they filter the successor.
+      let cur = await load(0);
+      pool = await poolStart!;
+      let running = pool.run(cur.segIndex, cur.slot, cur.peaks, cur.part.from, cur.part.to);
+      for (let step = 0; step < total; step++) {
+        running.catch(() => {}); // awaited just below
+        const ahead = step + 1 < total ? load(step + 1) : undefined;
+        ahead?.catch(() => {}); // awaited just below
+        const triggers = await running;
+        const next = ahead ? await ahead : undefined;
+        if (next) running = pool.run(next.segIndex, next.slot, next.peaks, next.part.from, next.part.to);
+        finish(cur, triggers, pool.sigmas[cur.slot]);
+        if (next) cur = next;
+      }
     }
   } finally {
     inline?.dispose();

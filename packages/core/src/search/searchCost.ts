@@ -74,7 +74,7 @@ export function estimateSearchCost(o: SearchCostOptions): SearchCostEstimate {
   const filter = createSegmentFilter({ size: n, sampleRate: fs, fMinHz: o.fMinHz, fMaxHz: fMax, psd: psdMethod, truncationSamples: trunc, backend });
   const gater = createGater(n, fs, backend);
   const t0 = performance.now();
-  const psd = segmentPsd(psdMethod, data, n, fs, n, o.fMinHz, trunc);
+  const psd = segmentPsd(psdMethod, data, n, fs, n, o.fMinHz, trunc, backend);
   gater.apply(data, n, psd, o.fMinHz, fMax, DEFAULT_GATE_SETTINGS);
   filter.load(data, n, psd);
   const perSegmentSeconds = (performance.now() - t0) / 1000;

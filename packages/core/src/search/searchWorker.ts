@@ -23,21 +23,23 @@ try {
   // Pays the first touch of the plan's buffers now, while the main thread prepares the first segment.
   bank.warmUp();
   const nBins = init.config.size / 2 + 1;
-  const weights: SegmentWeights = {
+  const slots: SegmentWeights[] = init.u.map((u, i) => ({
     size: init.config.size,
     df: init.config.sampleRate / init.config.size,
-    u: new Float32Array(init.u, 0, 2 * nBins),
-    cumulative: new Float64Array(init.cumulative, 0, nBins + 1),
+    u: new Float32Array(u, 0, 2 * nBins),
+    cumulative: new Float64Array(init.cumulative[i], 0, nBins + 1),
     kLow: 0,
     kHigh: 0,
     scale: 0,
-  };
+  }));
   const masses = init.masses;
   const count = masses.length / 2;
-  const sigmas = new Float64Array(init.sigmas);
+  const sigmaSlots = init.sigmas.map((b) => new Float64Array(b));
   const counter = new Int32Array(init.counter);
   port.on("message", (job: WorkerJob) => {
     try {
+      const weights = slots[job.slot];
+      const sigmas = sigmaSlots[job.slot];
       weights.kLow = job.kLow;
       weights.kHigh = job.kHigh;
       weights.scale = job.scale;

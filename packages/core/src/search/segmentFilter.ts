@@ -42,6 +42,14 @@ export interface SegmentFilter {
    * `template`); returns σ at 1 Mpc (0: no band) and kEnd.
    */
   filter(t: SearchTemplate): { sigma: number; kEnd: number };
+  /**
+   * A second filter for the same segment length sharing this one's plans, template generator and
+   * scratch spectrum, with its own weighted spectrum, PSD and weights: one segment can be loaded
+   * into it while workers still read the other's weights (the search's double buffer). Loads of
+   * the two must not run at the same time (they share the scratch spectrum).
+   */
+  twin(): SegmentFilter;
+  /** Frees the plans (a twin's dispose does nothing: dispose the filter it came from). */
   dispose(): void;
 }
 
@@ -63,15 +71,6 @@ export function createSegmentFilter(o: SegmentFilterOptions): SegmentFilter {
   const n = o.size;
   const nBins = n / 2 + 1;
   const df = o.sampleRate / n;
-  const realFft: RealFft = createRealFft(n, o.backend);
-  // The template buffer serves only the chi-squared test of the few clustered peaks: made on first use.
-  let template: Float64Array | undefined;
-  const phasor = createTaylorF2Phasor(df, { maxPhaseError: o.maxPhaseError });
-  // A model PSD is the same for every segment: evaluated once.
-  let modelPsd: Float64Array | undefined;
-  const buffers = { weighted: new Float64Array(n + 2), inversePsd: new Float64Array(nBins), spectrum: new Float64Array(n + 2) };
-  const law = amplitudeLaw(nBins, df);
-  const weights = allocateSegmentWeights(n, o.sampleRate, o.shared ?? false);
   // The complex plan is made on first use: with worker threads the main thread never needs it.
   const bank: BankFilter = createBankFilter({
     size: n,
@@ -81,6 +80,38 @@ export function createSegmentFilter(o: SegmentFilterOptions): SegmentFilter {
     backend: o.backend,
     maxPhaseError: o.maxPhaseError,
   });
+  const common: SharedMachinery = {
+    realFft: createRealFft(n, o.backend),
+    phasor: createTaylorF2Phasor(df, { maxPhaseError: o.maxPhaseError }),
+    law: amplitudeLaw(nBins, df),
+    spectrum: new Float64Array(n + 2),
+    bank,
+  };
+  return segmentFilterOn(o, common, true);
+}
+
+/** What the two filters of a double buffer share (see SegmentFilter.twin). */
+interface SharedMachinery {
+  realFft: RealFft;
+  phasor: ReturnType<typeof createTaylorF2Phasor>;
+  law: Float64Array;
+  /** Scratch for the forward FFT of a load. */
+  spectrum: Float64Array;
+  bank: BankFilter;
+  /** The template buffer serves only the chi-squared test of the few clustered peaks: made on first use. */
+  template?: Float64Array;
+  /** A model PSD is the same for every segment: evaluated once. */
+  modelPsd?: Float64Array;
+}
+
+/** `owner`: this filter frees the shared machinery on dispose (a twin's dispose does nothing). */
+function segmentFilterOn(o: SegmentFilterOptions, common: SharedMachinery, owner: boolean): SegmentFilter {
+  const n = o.size;
+  const nBins = n / 2 + 1;
+  const df = o.sampleRate / n;
+  const { realFft, phasor, law, bank } = common;
+  const buffers = { weighted: new Float64Array(n + 2), inversePsd: new Float64Array(nBins), spectrum: common.spectrum };
+  const weights = allocateSegmentWeights(n, o.sampleRate, o.shared ?? false);
   let spec: SegmentSpectrum | null = null;
   let psd: Float64Array = new Float64Array(nBins);
   return {
@@ -91,7 +122,7 @@ export function createSegmentFilter(o: SegmentFilterOptions): SegmentFilter {
       return bank.snr;
     },
     get template() {
-      return (template ??= new Float64Array(2 * nBins));
+      return (common.template ??= new Float64Array(2 * nBins));
     },
     get psd() {
       return psd;
@@ -99,14 +130,14 @@ export function createSegmentFilter(o: SegmentFilterOptions): SegmentFilter {
     weights,
     load(data, dataLength, given) {
       if (given) psd = given;
-      else if (o.psd.kind === "model") psd = modelPsd ??= segmentPsd(o.psd, data, dataLength, o.sampleRate, n, o.fMinHz, o.truncationSamples);
-      else psd = segmentPsd(o.psd, data, dataLength, o.sampleRate, n, o.fMinHz, o.truncationSamples);
+      else if (o.psd.kind === "model") psd = common.modelPsd ??= segmentPsd(o.psd, data, dataLength, o.sampleRate, n, o.fMinHz, o.truncationSamples, o.backend);
+      else psd = segmentPsd(o.psd, data, dataLength, o.sampleRate, n, o.fMinHz, o.truncationSamples, o.backend);
       spec = computeSegmentSpectrum(data, psd, o.sampleRate, o.fMinHz, o.fMaxHz, realFft, buffers);
       fillSegmentWeights(spec, law, weights);
       return spec;
     },
     generate(t) {
-      const out = (template ??= new Float64Array(2 * nBins));
+      const out = (common.template ??= new Float64Array(2 * nBins));
       const { kStart, kEnd } = taylorF2BinRange(nBins, df, o.fMinHz, t.primaryMass, t.secondaryMass, o.fMaxHz);
       out.fill(0, 0, 2 * kStart);
       out.fill(0, 2 * kEnd);
@@ -118,8 +149,11 @@ export function createSegmentFilter(o: SegmentFilterOptions): SegmentFilter {
       const { sigma, kEnd } = bank.filter(weights, t.primaryMass, t.secondaryMass, t.primarySpin ?? 0, t.secondarySpin ?? 0);
       return { sigma, kEnd };
     },
+    twin() {
+      return segmentFilterOn(o, common, false);
+    },
     dispose() {
-      bank.dispose();
+      if (owner) bank.dispose();
     },
   };
 }

@@ -1,3 +1,4 @@
+import type { SearchPlan } from "./scan.js";
 import type { Candidate, GateRecord, SkippedStretch } from "./types.js";
 
 /** A window peak of one template in one segment, as the per-segment clustering sees it. */
@@ -33,6 +34,11 @@ export interface SegmentOutcome {
  * and reports every searched segment's outcome before it moves on.
  */
 export interface SegmentHook {
+  /**
+   * The plan the caller already made of this input with these options (planSearch): searchStrain
+   * uses it instead of screening the input a second time.
+   */
+  readonly plan?: SearchPlan;
   /** Indices (ascending) of the segments to search, out of the plan's `total`. */
   segments(total: number): number[];
   /** Templates [from, to) of the bank to filter in segment `segment`. */

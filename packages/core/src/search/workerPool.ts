@@ -11,15 +11,18 @@ import type { SegmentWeights } from "./segmentWeights.js";
 /** What each worker receives once (structured-cloned; the SharedArrayBuffers are shared, not copied). */
 export interface WorkerInit {
   config: BankFilterConfig;
-  /** The segment's filter weights u and C (see SegmentWeights). */
-  u: SharedArrayBuffer;
-  cumulative: SharedArrayBuffer;
+  /**
+   * The filter weights u and C (see SegmentWeights) of each slot: the search loads the next
+   * segment into one slot while the workers filter the other.
+   */
+  u: SharedArrayBuffer[];
+  cumulative: SharedArrayBuffer[];
   /** Template masses (m1, m2 pairs, solar masses). */
   masses: Float64Array;
   /** Template aligned spins (χ1, χ2 pairs), absent for a non-spinning bank. */
   spins?: Float64Array;
-  /** σ per template, written by whichever worker filters it. */
-  sigmas: SharedArrayBuffer;
+  /** σ per template of each slot, written by whichever worker filters it. */
+  sigmas: SharedArrayBuffer[];
   /** Next unclaimed template index (Int32), advanced with Atomics.add. */
   counter: SharedArrayBuffer;
 }
@@ -27,6 +30,8 @@ export interface WorkerInit {
 /** One segment's job: the band of the weights just loaded, and where to look for peaks. */
 export interface WorkerJob {
   segment: number;
+  /** Which slot's weights to filter against and σ to write. */
+  slot: number;
   kLow: number;
   kHigh: number;
   scale: number;
@@ -78,19 +83,21 @@ export function maxSearchThreads(): number {
 export interface SearchPool {
   readonly threads: number;
   readonly backend: FftBackendName;
-  /** σ (at 1 Mpc) per template of the last segment run. */
-  readonly sigmas: Float64Array;
+  /** σ (at 1 Mpc) per template of the last segment run in each slot. */
+  readonly sigmas: readonly Float64Array[];
   /**
-   * Filters templates [from, to) (default the whole bank) against `weights` (already loaded by
-   * the caller, who must not touch them until this resolves), writes their σ into `sigmas` and
-   * returns the peaks, ordered by template then sample index: the order one thread produces.
+   * Filters templates [from, to) (default the whole bank) against slot `slot`'s weights (already
+   * loaded by the caller, who must not touch them until this resolves), writes their σ into
+   * `sigmas[slot]` and returns the peaks, ordered by template then sample index: the order one
+   * thread produces. One run at a time; the other slot may be loaded meanwhile.
    */
-  run(segment: number, weights: SegmentWeights, peaks: PeakWindow, from?: number, to?: number): Promise<Trigger[]>;
+  run(segment: number, slot: number, peaks: PeakWindow, from?: number, to?: number): Promise<Trigger[]>;
   close(): Promise<void>;
 }
 
 /**
- * Starts `threads` workers sharing `weights` (whose arrays must live in SharedArrayBuffers) and
+ * Starts `threads` workers sharing the weights of each slot (whose arrays must live in
+ * SharedArrayBuffers; one slot, or two for a double buffer) and
  * resolves when each has loaded its FFT backend and made its plan. Templates are handed out in
  * chunks through a shared atomic counter, so the load balances itself; memory per worker is one
  * complex plan of the segment length.
@@ -98,7 +105,7 @@ export interface SearchPool {
 export async function createSearchPool(
   threads: number,
   config: BankFilterConfig,
-  weights: SegmentWeights,
+  slots: readonly SegmentWeights[],
   masses: Float64Array,
   spins?: Float64Array,
 ): Promise<SearchPool> {
@@ -107,20 +114,22 @@ export async function createSearchPool(
   if (!existsSync(path)) {
     throw new InputError(`threads: the compiled search worker ${path} is missing; build it with \`npx tsc -b packages/core\` or use threads = 1`);
   }
-  if (!(weights.u.buffer instanceof SharedArrayBuffer) || !(weights.cumulative.buffer instanceof SharedArrayBuffer)) {
-    throw new Error("createSearchPool: the segment weights must live in SharedArrayBuffers");
+  for (const weights of slots) {
+    if (!(weights.u.buffer instanceof SharedArrayBuffer) || !(weights.cumulative.buffer instanceof SharedArrayBuffer)) {
+      throw new Error("createSearchPool: the segment weights must live in SharedArrayBuffers");
+    }
   }
   const count = masses.length / 2;
-  const sigmaBuffer = new SharedArrayBuffer(8 * count);
+  const sigmaBuffers = slots.map(() => new SharedArrayBuffer(8 * count));
   const counterBuffer = new SharedArrayBuffer(4);
   const counter = new Int32Array(counterBuffer);
   const init: WorkerInit = {
     config,
-    u: weights.u.buffer,
-    cumulative: weights.cumulative.buffer,
+    u: slots.map((w) => w.u.buffer as SharedArrayBuffer),
+    cumulative: slots.map((w) => w.cumulative.buffer as SharedArrayBuffer),
     masses,
     ...(spins ? { spins } : {}),
-    sigmas: sigmaBuffer,
+    sigmas: sigmaBuffers,
     counter: counterBuffer,
   };
   const workers: Worker[] = [];
@@ -161,16 +170,17 @@ export async function createSearchPool(
     await close();
     throw error;
   }
-  const sigmas = new Float64Array(sigmaBuffer);
+  const sigmas = sigmaBuffers.map((b) => new Float64Array(b));
   // Small enough chunks that the threads finish a segment together, large enough to be few.
   const chunk = Math.max(1, Math.floor(count / (16 * threads)));
   return {
     threads,
     backend,
     sigmas,
-    async run(segment, w, peaks, from = 0, to = count) {
+    async run(segment, slot, peaks, from = 0, to = count) {
+      const w = slots[slot];
       Atomics.store(counter, 0, from);
-      const job: WorkerJob = { segment, kLow: w.kLow, kHigh: w.kHigh, scale: w.scale, chunk, from, to, peaks };
+      const job: WorkerJob = { segment, slot, kLow: w.kLow, kHigh: w.kHigh, scale: w.scale, chunk, from, to, peaks };
       const done: Promise<WorkerReply>[] = [];
       for (let i = 0; i < threads; i++) {
         done.push(nextReply(i));
