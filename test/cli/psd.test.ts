@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { ajith2011, colouredNoise, horizonDistance, writeStrain } from "@chirpsieve/core";
@@ -10,9 +10,19 @@ import { runCli } from "./helpers.js";
 const fs = 2048;
 const dir = mkdtempSync(join(tmpdir(), "chirpsieve-psd-cli-"));
 const strainFile = join(dir, "synthetic-noise.f64");
+const zerosFile = join(dir, "zero-stretch.f64");
+const nanFile = join(dir, "nan.f64");
 
 beforeAll(async () => {
-  await writeStrain(strainFile, { data: colouredNoise(ajith2011, 32 * fs, fs, "psd-cli"), sampleRate: fs, startTime: 100 });
+  const noise = colouredNoise(ajith2011, 32 * fs, fs, "psd-cli");
+  await writeStrain(strainFile, { data: noise, sampleRate: fs, startTime: 100 });
+  // The same noise with 6–10 s zero-filled, and with one NaN at 20 s.
+  const zeros = noise.slice();
+  zeros.fill(0, 6 * fs, 10 * fs);
+  await writeStrain(zerosFile, { data: zeros, sampleRate: fs, startTime: 100 });
+  const nan = noise.slice();
+  nan[20 * fs] = Number.NaN;
+  await writeStrain(nanFile, { data: nan, sampleRate: fs, startTime: 100 }, { nonFinite: "allow" });
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -68,6 +78,38 @@ describe("chirpsieve psd", () => {
     expect(plot).toContain('xmlns="http://www.w3.org/2000/svg"');
     expect(plot).toContain("frequency (Hz)");
     expect(plot).toContain("amplitude spectral density");
+  });
+
+  it("refuses a zero-filled stretch or a NaN as scan does: exit 2, one line naming the file, time and kind, nothing written", () => {
+    const csv = join(dir, "refused.csv");
+    const z = runCli(["psd", zerosFile, "--out", csv]);
+    expect(z.code).toBe(2);
+    expect(z.stdout).toBe("");
+    expect(z.stderr.trim().split("\n")).toHaveLength(1);
+    expect(z.stderr).toContain(`chirpsieve: ${zerosFile}: zero-filled samples at t = 106.0000 s (samples 12288–20479, 4.00 s)`);
+    expect(z.stderr).toContain("--skip-bad-data");
+    const n = runCli(["psd", nanFile, "--out", csv]);
+    expect(n.code).toBe(2);
+    expect(n.stderr.trim().split("\n")).toHaveLength(1);
+    expect(n.stderr).toContain(`chirpsieve: ${nanFile}: non-finite samples (NaN or infinite) at t = 120.0000 s`);
+    expect(existsSync(csv)).toBe(false);
+  });
+
+  it("--skip-bad-data estimates from the data around the zero-filled stretch and reports it", () => {
+    const r = runCli(["psd", zerosFile, "--json", "--average", "mean", "--segment", "2", "--skip-bad-data"]);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(j.skipped).toEqual([{ startTime: 106, endTime: 110, reason: "zero-filled samples" }]);
+    expect(j.skippedSeconds).toBe(4);
+    // 2 s segments every 1 s: ⌊(6 − 2)/1⌋ + 1 = 5 before the stretch and ⌊(22 − 2)/1⌋ + 1 = 21 after it.
+    expect(j.segments).toBe(26);
+    let ratio = 0;
+    for (let k = 50; k < 900; k++) ratio += j.psd[k] / ajith2011.evaluate(j.frequency[k]);
+    expect(Math.abs(ratio / 850 - 1)).toBeLessThan(0.03);
+    const text = runCli(["psd", zerosFile, "--skip-bad-data"]);
+    expect(text.code).toBe(0);
+    expect(text.stdout).toContain("left out 1 bad stretch (4.000 s), the first zero-filled samples at t = 106.0000–110.0000 s; estimated from the rest");
   });
 
   it("rejects bad flags with one line naming the flag and exit code 2", () => {

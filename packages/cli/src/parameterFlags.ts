@@ -32,7 +32,7 @@ const FLAG_OF_PARAMETER: Readonly<Record<string, string>> = {
  * core's message (which already names the file and what was wrong).
  */
 const HINT_OF_PARAMETER: Readonly<Record<string, string>> = {
-  badData: "pass --skip-bad-data to leave such stretches out and search the rest",
+  badData: "pass --skip-bad-data to leave such stretches out and use the rest",
 };
 
 /** The flag for a core parameter, or undefined when the CLI has none. */

@@ -1,8 +1,5 @@
-// What the CLI says about the strain files it reads: warnings, constant files, units.
+// What the CLI says about the strain files it reads: warnings and units.
 import {
-  describeConstantSeries,
-  findConstantSeries,
-  InputError,
   isDimensionlessStrain,
   openStrain,
   type StrainOpenOptions,
@@ -19,17 +16,6 @@ export async function openStrainInput(path: string, options: StrainOpenOptions):
   const source = await openStrain(path, options);
   printStrainWarnings(source.warnings);
   return source;
-}
-
-/**
- * Why a source cannot be searched at all (every finite sample has one value), or undefined.
- * Without `skip` that is an InputError naming the file; with it the reason is returned.
- */
-export async function constantInputReason(source: StrainReader, skip: boolean): Promise<string | undefined> {
-  const c = await findConstantSeries(source);
-  if (!c) return undefined;
-  if (!skip) throw new InputError(describeConstantSeries(c));
-  return describeConstantSeries(c).slice(source.file.length + 2);
 }
 
 /** Files whose stated units are not dimensionless strain, with their units. */

@@ -1,19 +1,15 @@
 import type { Command } from "commander";
 import {
-  describeConstantSeries,
-  findConstantSeries,
   isDimensionlessStrain,
-  strainReaderFromSeries,
   formatPsdTable,
   horizonDistance,
   InputError,
   readStrain,
-  welchPsd,
+  validDataPsd,
   writeFileAtomic,
   type HorizonResult,
   type StrainSeries,
   type WelchPsd,
-  MIN_WELCH_SEGMENT_SAMPLES,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { checkFilePlan, strainInputs } from "../outputPath.js";
@@ -30,6 +26,14 @@ interface PsdFlags {
   rate?: string;
   start?: string;
   dataset?: string;
+  skipBadData?: boolean;
+}
+
+/** A bad stretch left out of the estimate, in the file's time base (s). */
+interface SkippedStretch {
+  startTime: number;
+  endTime: number;
+  reason: string;
 }
 
 /** Component masses (M_sun) of the reference binary whose horizon is reported. */
@@ -55,6 +59,7 @@ export function registerPsd(program: Command): void {
     .option("--rate <Hz>", "sample rate for one-column text files or HDF5 files without one")
     .option("--start <s>", "start time for one-column text files or HDF5 files without one")
     .option("--dataset <path>", "HDF5 dataset holding the strain")
+    .option("--skip-bad-data", "leave out (and report) stretches of non-finite, zero-filled or constant, or corrupt (over 1e8 times the median) samples and estimate from the rest, instead of stopping")
     .action(async (file: string, flags: PsdFlags) => {
       await runPsd(file, flags);
     });
@@ -71,31 +76,20 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
     outputs: [...(flags.out ? [{ flag: "--out", path: flags.out }] : []), ...(flags.plot ? [{ flag: "--plot", path: flags.plot }] : [])],
   });
 
-  const strain = await readStrain(file, { rate, start, dataset: flags.dataset });
+  const strain = await readStrain(file, { rate, start, dataset: flags.dataset, nonFinite: "allow" });
   printStrainWarnings(strain.warnings);
-  const constant = await findConstantSeries(strainReaderFromSeries(strain));
-  if (constant) throw new InputError(describeConstantSeries(constant));
-  // A horizon in Mpc assumes dimensionless strain; for other units (e.g. counts) it is not given.
-  const physical = isDimensionlessStrain(strain.units);
-  if (!physical) nonStrainInputs([strain], "the horizon and range are unavailable (null in JSON)");
-  const fs = strain.sampleRate;
-  const wanted = Math.round(segmentSeconds * fs);
-  if (wanted < MIN_WELCH_SEGMENT_SAMPLES) {
-    throw new UsageError(`--segment: ${segmentSeconds} s is ${wanted} samples at ${fs} Hz; a PSD estimate needs segments of at least ${MIN_WELCH_SEGMENT_SAMPLES} samples`);
-  }
-  let segmentLength = 4;
-  while (segmentLength < wanted) segmentLength *= 2;
-  if (segmentLength > strain.data.length) {
-    throw new UsageError(
-      `--segment: ${segmentSeconds} s (${segmentLength} samples as a power of two) is longer than the data ` +
-        `(${strain.data.length} samples, ${(strain.data.length / fs).toPrecision(4)} s at ${fs} Hz)`,
-    );
-  }
-  const nyquist = fs / 2;
+  const nyquist = strain.sampleRate / 2;
   if (fminFlag !== undefined && fminFlag >= nyquist) {
     throw new UsageError(`--fmin: must be below the Nyquist frequency ${nyquist} Hz (got ${flags.fmin})`);
   }
-  const estimate = welchPsd(strain.data, fs, { segmentLength, average });
+  // Screened as a scan screens its input: bad stretches are refused, or left out with --skip-bad-data.
+  const { estimate, segmentLength, excluded, excludedSamples } = await validDataPsd(strain, { segmentSeconds, average, badData: flags.skipBadData ? "exclude" : "reject" });
+  const fs = strain.sampleRate;
+  const skipped: SkippedStretch[] = excluded.map((e) => ({ startTime: strain.startTime + e.start / fs, endTime: strain.startTime + e.end / fs, reason: e.reason }));
+  const skippedSeconds = excludedSamples / fs;
+  // A horizon in Mpc assumes dimensionless strain; for other units (e.g. counts) it is not given.
+  const physical = isDimensionlessStrain(strain.units);
+  if (!physical) nonStrainInputs([strain], "the horizon and range are unavailable (null in JSON)");
   const fMinHz = fminFlag ?? Math.max(DEFAULT_FMIN_HZ, estimate.df);
   let horizon: HorizonResult | null = null;
   if (physical) try {
@@ -106,7 +100,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
       fMinHz: fMinHz,
     });
   } catch (err) {
-    // E.g. an all-zero series: no meaningful horizon. Anything else is a bug and propagates.
+    // E.g. a PSD that is zero in the band: no meaningful horizon. Anything else is a bug and propagates.
     if (!(err instanceof InputError)) throw err;
   }
   const segmentUsed = segmentLength / fs;
@@ -115,6 +109,7 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
     const comments = [
       `noise PSD of ${strain.file} (one-sided, 1/Hz): Welch ${average} of ${estimate.segments} Hann-windowed segment${estimate.segments === 1 ? "" : "s"} ` +
         `of ${segmentUsed} s, 50% overlap, df = ${estimate.df} Hz`,
+      ...(skipped.length > 0 ? [skippedLine(skipped, skippedSeconds)] : []),
     ];
     writeFileAtomic(flags.out, formatPsdTable(estimate.frequencies, estimate.psd, comments));
   }
@@ -131,13 +126,24 @@ async function runPsd(file: string, flags: PsdFlags): Promise<void> {
       fMinHz: fMinHz,
       horizonMpc1p4: horizon?.horizonMpc ?? null,
       rangeMpc1p4: horizon?.rangeMpc ?? null,
+      skipped,
+      skippedSeconds,
       frequency: Array.from(estimate.frequencies),
       psd: Array.from(estimate.psd),
     };
     process.stdout.write(JSON.stringify(record) + "\n");
   } else {
-    process.stdout.write(summaryText(strain, estimate, segmentUsed, fMinHz, horizon, flags));
+    process.stdout.write(summaryText(strain, estimate, segmentUsed, fMinHz, horizon, flags, skipped, skippedSeconds));
   }
+}
+
+/** One line saying which bad stretches were left out of the estimate. */
+function skippedLine(skipped: readonly SkippedStretch[], seconds: number): string {
+  const first = skipped[0];
+  return (
+    `left out ${skipped.length} bad stretch${skipped.length === 1 ? "" : "es"} (${fmt(seconds)} s), the first ${first.reason} ` +
+    `at t = ${first.startTime.toFixed(4)}–${first.endTime.toFixed(4)} s; estimated from the rest`
+  );
 }
 
 function fmt(x: number, digits = 4): string {
@@ -152,6 +158,8 @@ function summaryText(
   fMinHz: number,
   horizon: HorizonResult | null,
   flags: PsdFlags,
+  skipped: readonly SkippedStretch[],
+  skippedSeconds: number,
 ): string {
   const fs = strain.sampleRate;
   const lines: string[] = [];
@@ -159,6 +167,7 @@ function summaryText(
   lines.push(
     `PSD: Welch ${estimate.average} of ${estimate.segments} segment${estimate.segments === 1 ? "" : "s"} of ${segmentSeconds} s (Hann window, 50% overlap), df = ${fmt(estimate.df)} Hz`,
   );
+  if (skipped.length > 0) lines.push(skippedLine(skipped, skippedSeconds));
   if (horizon) {
     lines.push(
       `1.4+1.4 M_sun at SNR 8, ${fmt(horizon.fMinHz)}–${fmt(horizon.fMaxHz)} Hz: horizon ${horizon.horizonMpc.toFixed(1)} Mpc ` +

@@ -25,15 +25,18 @@ import {
   runSummaryRecord,
   psdLabel,
   type SearchInput,
+  type SearchOptions,
+  type ShardSpec,
+  type TimeInterval,
 } from "@chirpsieve/core";
 import { UsageError } from "../errors.js";
 import { parseShardSpec } from "../shardFlag.js";
 import { checkFilePlan, noiseCurveInput, strainInputs, type FilePlan } from "../outputPath.js";
 import { parseNumberFlag, parseRateFlag, parseRangeFlag } from "../options.js";
 import { createProgress } from "../progress.js";
-import { nonStrainInputs, openStrainInput } from "../strainInputs.js";
+import { nonStrainInputs, openStrainInput, type NonStrainInput } from "../strainInputs.js";
 import { BANK_SPIN_RANGE_HELP, parseSpinRangeFlag } from "../spinRange.js";
-import { addSearchOptions, parseSearchFlags, resolveTemplates, type SearchFlags } from "../searchFlags.js";
+import { addSearchOptions, parseSearchFlags, resolveTemplates, type ParsedSearchFlags, type SearchFlags } from "../searchFlags.js";
 import {
   CANDIDATE_CAUTION,
   candidateRecord,
@@ -44,7 +47,10 @@ import {
   formatCoincidencesTable,
 } from "../candidateFormat.js";
 import { VERSION } from "../version.js";
-import { checkInspiralEdge, warnInspiralEdge } from "../inspiralEdge.js";
+import { checkInspiralEdge, warnInspiralEdge, type InspiralEdgeRecord } from "../inspiralEdge.js";
+
+type FftBackendName = ReturnType<typeof resolveFftBackend>;
+type ScanRun = Awaited<ReturnType<typeof startScanRun>>;
 
 interface ScanFlags extends SearchFlags {
   shard?: string;
@@ -112,7 +118,68 @@ export function registerScan(program: Command): void {
     });
 }
 
+/**
+ * `scan` in stages: resolve the flags, files and bank; open the inputs; build the search options
+ * (and the run, when sharded or resumed); search each stream; then write a shard, or complete the
+ * result, summarise, render and write it, and the plots.
+ */
 async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Promise<void> {
+  const setup = resolveScanSetup(positional, flags, cmd);
+  await loadFftBackends();
+  const fftBackend = resolveFftBackend(setup.search.fftChoice);
+  const inputs = await openScanInputs(setup, flags);
+  const searchOptions = scanSearchOptions(setup, fftBackend, flags);
+  const run = setup.shard || flags.resume
+    ? await startScanRun({
+        version: VERSION, inputs: inputs.streams, options: searchOptions, shard: setup.shard,
+        journalPath: flags.resume ? journalPathFor(flags.out!) : undefined,
+        arguments: { bank: setup.bankDescription, rate: setup.rate, start: setup.start, dataset: flags.dataset },
+      })
+    : undefined;
+  const wallStart = performance.now();
+  let found: { candidates: Candidate[]; summaries: SearchSummary[] };
+  try {
+    found = await searchStreams(inputs.streams, searchOptions, setup.search.threads, run, flags.quiet);
+  } finally {
+    for (const s of inputs.sources) await s.close();
+    run?.close();
+  }
+  const { candidates, summaries } = found;
+  if (run && setup.shard) {
+    finishShard(run, setup, summaries, flags);
+    return;
+  }
+  completeResult(run, inputs, candidates, summaries);
+  const summary = scanSummaryRecord(setup, inputs, candidates, summaries, fftBackend, (performance.now() - wallStart) / 1000);
+  const text = renderScanResult(setup, inputs.sources, candidates, summaries, summary);
+  if (flags.out) writeFileAtomic(flags.out, text);
+  else process.stdout.write(text);
+  run?.finish(); // the journal goes once the output is safely written
+  printScanNotes(candidates.length, setup, flags);
+  if (flags.plot) await writePlots(flags.plot, setup, inputs.sources, candidates, fftBackend, flags);
+}
+
+/** What a scan's flags resolve to before any strain file is opened: inputs, sites, search settings, bank. */
+interface ScanSetup {
+  files: string[];
+  network: NetworkSite[];
+  coincidenceOptions?: { timingToleranceSeconds: number; slideStepSeconds: number; slidesPerSide: number };
+  search: ParsedSearchFlags;
+  analysisIntervals?: TimeInterval[];
+  excludedIntervals?: TimeInterval[];
+  format: CandidateFormat;
+  rate?: number;
+  start?: number;
+  shard?: ShardSpec;
+  psd: PsdMethod;
+  templates: ReturnType<typeof resolveTemplates>["templates"];
+  bankDescription: string;
+  fMinHz: number;
+  inspiralEdge: InspiralEdgeRecord;
+}
+
+/** Parses and checks every flag, checks the files to read and write, and resolves the bank (built or read). */
+function resolveScanSetup(positional: string[], flags: ScanFlags, cmd: Command): ScanSetup {
   const network = parseSiteFlags(flags);
   if (network.length > 0 && positional.length > 0) {
     throw new UsageError("give strain files either as arguments or with --site NAME=FILE, not both");
@@ -124,7 +191,7 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     slideStepSeconds: parseNumberFlag("--slide-step", flags.slideStep, { min: 0, minExclusive: true }),
     slidesPerSide: parseNumberFlag("--slides", flags.slides, { min: 0, integer: true }),
   } : undefined;
-  const { fMinHz: fMinFlag, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, welchSegmentSeconds, welchAverage, segmentSeconds, fftChoice, threads, gating } = parseSearchFlags(flags);
+  const search = parseSearchFlags(flags);
   const analysisIntervals = flags.keepTimes === undefined ? undefined : readIntervalFile(flags.keepTimes);
   const excludedIntervals = flags.dropTimes === undefined ? undefined : readIntervalFile(flags.dropTimes);
   const format = chooseCandidateFormat(flags);
@@ -139,48 +206,73 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
 
   const psd: PsdMethod = flags.noiseCurve
     ? { kind: "model", model: psdModelFromSpec(flags.noiseCurve) }
-    : { kind: "estimate", segmentSeconds: welchSegmentSeconds, average: welchAverage };
+    : { kind: "estimate", segmentSeconds: search.welchSegmentSeconds, average: search.welchAverage };
 
   const massRangeSolar = flags.massRange === undefined ? undefined : parseRangeFlag("--mass-range", flags.massRange);
   const spinRange = flags.spinRange === undefined ? undefined : parseSpinRangeFlag("--spin-range", flags.spinRange);
   if (spinRange && flags.bank) throw new UsageError("--spin-range: only for a bank built on the fly over --mass-range (a bank file carries its own spins)");
   if (spinRange && !(spinRange[0] < spinRange[1])) throw new UsageError(`--spin-range: a bank needs MIN below MAX (got "${flags.spinRange}")`);
-  const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, fMinFlag, cmd.getOptionValueSource("fmin") === "cli", spinRange);
+  const { templates, description: bankDescription, fMinHz } = resolveTemplates(flags, massRangeSolar, search.fMinHz, cmd.getOptionValueSource("fmin") === "cli", spinRange);
   const inspiralEdge = checkInspiralEdge(templates, psd.kind === "model" ? psd.model : undefined, fMinHz);
+  return {
+    files, network, coincidenceOptions, search, analysisIntervals, excludedIntervals, format, rate, start, shard, psd,
+    templates, bankDescription, fMinHz, inspiralEdge,
+  };
+}
 
-  await loadFftBackends();
-  const fftBackend = resolveFftBackend(fftChoice);
+/** The opened strain files, the streams searched (contiguous files joined) and the files not in strain units. */
+interface ScanInputs {
+  sources: StrainReader[];
+  streams: SearchInput[];
+  nonStrain: NonStrainInput[];
+}
+
+/** Opens every strain file (closing those opened if one fails), notes non-strain units, and joins contiguous files. */
+async function openScanInputs(setup: ScanSetup, flags: ScanFlags): Promise<ScanInputs> {
   const sources: StrainReader[] = [];
   try {
-    for (const f of files) {
+    for (const f of setup.files) {
       // Bad samples (non-finite, zero-filled or constant, corrupt) are found by the search's
       // screening, which rejects them or reports them as left-out stretches.
-      sources.push(await openStrainInput(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }));
+      sources.push(await openStrainInput(f, { rate: setup.rate, start: setup.start, dataset: flags.dataset, nonFinite: "allow" }));
     }
   } catch (err) {
     for (const s of sources) await s.close();
     throw err;
   }
   const nonStrain = nonStrainInputs(sources);
-  if (network.length > 0) checkSitesFromOneRun(network, sources);
+  if (setup.network.length > 0) checkSitesFromOneRun(setup.network, sources);
   // Files of one site whose samples continue each other are searched as one stream (no lead-in
   // lost at their boundaries); --site files are one per site.
-  const streams: SearchInput[] = network.length > 0 ? sources : joinContiguousInputs(sources);
-  const searchOptions = {
+  const streams: SearchInput[] = setup.network.length > 0 ? sources : joinContiguousInputs(sources);
+  return { sources, streams, nonStrain };
+}
+
+/** The core search options of a scan (those that shape its result; threads and callbacks are added per run). */
+function scanSearchOptions(setup: ScanSetup, fftBackend: FftBackendName, flags: ScanFlags) {
+  const { fMinHz, templates, psd, analysisIntervals, excludedIntervals } = setup;
+  const { snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, segmentSeconds, gating } = setup.search;
+  return {
     templates, fMinHz, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
     badData: flags.skipBadData ? ("exclude" as const) : ("reject" as const), analysisIntervals, excludedIntervals, gating,
   };
-  const run = shard || flags.resume
-    ? await startScanRun({
-        version: VERSION, inputs: streams, options: searchOptions, shard,
-        journalPath: flags.resume ? journalPathFor(flags.out!) : undefined,
-        arguments: { bank: bankDescription, rate, start, dataset: flags.dataset },
-      })
-    : undefined;
-  const progress = createProgress(!flags.quiet, "scan", { lines: true });
+}
+
+/**
+ * Searches each stream in turn with a progress display, through the run's hook when sharded or
+ * resumed. A single stream too short to search is the user's to fix (an error); a stream left with
+ * nothing by the exclusions asked for, or one of several, is a warning.
+ */
+async function searchStreams(
+  streams: SearchInput[],
+  searchOptions: SearchOptions,
+  threads: number | undefined,
+  run: ScanRun | undefined,
+  quiet: boolean | undefined,
+): Promise<{ candidates: Candidate[]; summaries: SearchSummary[] }> {
+  const progress = createProgress(!quiet, "scan", { lines: true });
   const candidates: Candidate[] = [];
   const summaries: SearchSummary[] = [];
-  const wallStart = performance.now();
   try {
     for (const [i, stream] of streams.entries()) {
       const r = await searchStrain(stream, {
@@ -200,85 +292,115 @@ async function runScan(positional: string[], flags: ScanFlags, cmd: Command): Pr
     }
   } finally {
     progress.stop();
-    for (const s of sources) await s.close();
-    run?.close();
   }
-  if (run && shard) {
-    run.writeShard(flags.out!, Math.max(1, ...summaries.map((sm) => sm.threads)));
-    run.finish();
-    if (!flags.quiet) warnInspiralEdge(inspiralEdge);
-    if (!flags.quiet) process.stderr.write(`chirpsieve: shard ${shard.index}/${shard.count} written to ${flags.out}; merge the ${shard.count} shards with \`chirpsieve merge\`\n`);
-    return;
-  }
-  // A resumed run: its result and seconds come from every segment's record, journaled or new.
+  return { candidates, summaries };
+}
+
+/** Writes a shard's records and manifest for `merge`, and says so. */
+function finishShard(run: ScanRun, setup: ScanSetup, summaries: SearchSummary[], flags: ScanFlags): void {
+  const shard = setup.shard!;
+  run.writeShard(flags.out!, Math.max(1, ...summaries.map((sm) => sm.threads)));
+  run.finish();
+  if (!flags.quiet) warnInspiralEdge(setup.inspiralEdge);
+  if (!flags.quiet) process.stderr.write(`chirpsieve: shard ${shard.index}/${shard.count} written to ${flags.out}; merge the ${shard.count} shards with \`chirpsieve merge\`\n`);
+}
+
+/**
+ * Completes the candidates and summaries in place: a resumed run's come from every segment's record,
+ * journaled or new; effective distances of files not in strain units are not given (NaN).
+ */
+function completeResult(run: ScanRun | undefined, inputs: ScanInputs, candidates: Candidate[], summaries: SearchSummary[]): void {
   const merged = run?.result();
   if (merged) {
     candidates.splice(0, candidates.length, ...merged.candidates);
     merged.perInput.forEach((p, i) => Object.assign(summaries[i], { analysedSeconds: p.analysedSeconds, skippedSeconds: p.skippedSeconds, skipped: p.skipped, gates: p.gates }));
   }
   // Effective distances assume dimensionless strain: for other units they are not given.
-  const noDistance = new Set(nonStrain.map((n) => n.file));
+  const noDistance = new Set(inputs.nonStrain.map((n) => n.file));
   if (noDistance.size > 0) {
     for (const c of candidates) if (noDistance.has(c.file)) c.effectiveDistanceMpc = Number.NaN;
   }
-  const summary = runSummaryRecord(
+}
+
+/** The summary record of the whole scan (the last line of its output). */
+function scanSummaryRecord(
+  setup: ScanSetup,
+  inputs: ScanInputs,
+  candidates: Candidate[],
+  summaries: SearchSummary[],
+  fftBackend: FftBackendName,
+  wallSeconds: number,
+): Record<string, unknown> {
+  const { nonStrain } = inputs;
+  return runSummaryRecord(
     {
       inputs: summaries,
-      templates: templates.length,
-      bank: bankDescription,
+      templates: setup.templates.length,
+      bank: setup.bankDescription,
       candidates: candidates.length,
-      minSnr: snrThreshold,
-      chi2Allowance,
-      fMinHz,
-      psd: psdLabel(psd),
+      minSnr: setup.search.snrThreshold,
+      chi2Allowance: setup.search.chi2Allowance,
+      fMinHz: setup.fMinHz,
+      psd: psdLabel(setup.psd),
       fftBackend,
-      wallSeconds: (performance.now() - wallStart) / 1000,
+      wallSeconds,
       caution: CANDIDATE_CAUTION,
     },
     {
       ...(nonStrain.length > 0 ? { distancesUnavailable: nonStrain.map((n) => ({ file: n.file, units: n.units, why: "units are not dimensionless strain" })) } : {}),
-      inspiralEdge,
+      inspiralEdge: setup.inspiralEdge,
     },
   );
+}
 
-  let text: string;
-  if (network.length > 0) {
-    const byFile = new Map(summaries.map((sm) => [sm.file, sm]));
-    const result = analyseCoincidences(
-      network.map((site, i) => {
-        const src = sources[i];
-        return {
-          detector: site.detector,
-          candidates: candidates.filter((c) => c.file === site.file),
-          analysedSeconds: byFile.get(site.file)?.analysedSeconds ?? 0,
-          startTime: src.startTime,
-          endTime: src.startTime + src.length / src.sampleRate,
-        };
-      }),
-      { ...coincidenceOptions, loudestWithinSeconds },
-    );
-    summary.sites = network.map((s) => ({ name: s.name, file: s.file }));
-    summary.coincidences = result.coincidences.length;
-    summary.background = result.summary;
-    text = renderNetwork(format, result.coincidences, result.singles, summary);
-  } else {
-    text = renderCandidates(format, candidates, summary);
-  }
-  if (flags.out) writeFileAtomic(flags.out, text);
-  else process.stdout.write(text);
-  run?.finish();
-  if (!flags.quiet) warnInspiralEdge(inspiralEdge);
+/** The scan's output text: candidates and summary, or for several sites coincidences, singles with false-alarm rates and summary. */
+function renderScanResult(
+  setup: ScanSetup,
+  sources: StrainReader[],
+  candidates: Candidate[],
+  summaries: SearchSummary[],
+  summary: Record<string, unknown>,
+): string {
+  const { network, format } = setup;
+  if (network.length === 0) return renderCandidates(format, candidates, summary);
+  const byFile = new Map(summaries.map((sm) => [sm.file, sm]));
+  const result = analyseCoincidences(
+    network.map((site, i) => {
+      const src = sources[i];
+      return {
+        detector: site.detector,
+        candidates: candidates.filter((c) => c.file === site.file),
+        analysedSeconds: byFile.get(site.file)?.analysedSeconds ?? 0,
+        startTime: src.startTime,
+        endTime: src.startTime + src.length / src.sampleRate,
+      };
+    }),
+    { ...setup.coincidenceOptions, loudestWithinSeconds: setup.search.loudestWithinSeconds },
+  );
+  summary.sites = network.map((s) => ({ name: s.name, file: s.file }));
+  summary.coincidences = result.coincidences.length;
+  summary.background = result.summary;
+  return renderNetwork(format, result.coincidences, result.singles, summary);
+}
+
+/** The advisory lines on stderr after the output is written (none with --quiet). */
+function printScanNotes(candidateCount: number, setup: ScanSetup, flags: ScanFlags): void {
+  if (!flags.quiet) warnInspiralEdge(setup.inspiralEdge);
   if (flags.out && !flags.quiet) {
-    process.stderr.write(`chirpsieve: ${candidates.length} candidate(s) written to ${flags.out}\n`);
+    process.stderr.write(`chirpsieve: ${candidateCount} candidate(s) written to ${flags.out}\n`);
   }
-  if (flags.plot) {
-    mkdirSync(flags.plot, { recursive: true });
-    const { writeScanPlots } = await import("../scanPlots.js");
-    await writeScanPlots(flags.plot, sources.map((x) => x.file), candidates, {
-      templates, fMinHz, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
-      open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }),
-    });
-  }
+}
+
+/** --plot: SVG plots of the SNR around the loudest candidates and of the PSD, into `dir`. */
+async function writePlots(dir: string, setup: ScanSetup, sources: StrainReader[], candidates: Candidate[], fftBackend: FftBackendName, flags: ScanFlags): Promise<void> {
+  const { templates, fMinHz, psd, rate, start } = setup;
+  const { snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, segmentSeconds } = setup.search;
+  mkdirSync(dir, { recursive: true });
+  const { writeScanPlots } = await import("../scanPlots.js");
+  await writeScanPlots(dir, sources.map((x) => x.file), candidates, {
+    templates, fMinHz, snrThreshold, chi2Bands, chi2Allowance, loudestWithinSeconds, psd, segmentSeconds, fftBackend,
+    open: (f) => openStrain(f, { rate, start, dataset: flags.dataset, nonFinite: "allow" }),
+  });
 }
 
 /**

@@ -14,6 +14,12 @@ export interface WelchOptions {
   overlap?: number;
   /** "mean" (default) or "median" (bias-corrected; robust to glitches). */
   average?: WelchAverage;
+  /**
+   * Sample ranges [start, end) of `data` to estimate from (default: all of it). Segments are laid
+   * in each range from its start and never cross its end, so samples outside every range (gaps,
+   * bad data) are never used.
+   */
+  intervals?: readonly { readonly start: number; readonly end: number }[];
 }
 
 /**
@@ -62,8 +68,8 @@ export function medianBiasFactor(k: number): number {
  *   P[k] = 2 |X[k]|² / (fs Σ w²)   (0 < k < N/2; the DC and Nyquist bins without the factor 2)
  * are averaged by the mean, or by the median divided by {@link medianBiasFactor}. This window-power
  * normalisation makes white noise of variance σ² at rate fs come out at 2σ²/fs (common practice,
- * no source). Segments start at 0, step, 2·step… and samples after the last whole segment are not
- * used. The mean of each segment is not removed (the DC bin of a Hann window leaks only into bins
+ * no source). Segments start at 0, step, 2·step… (in each of `intervals`, from its start) and
+ * samples after the last whole segment are not used. The mean of each segment is not removed (the DC bin of a Hann window leaks only into bins
  * 0 and 1).
  */
 export function welchPsd(data: Float64Array, sampleRate: number, options: WelchOptions): WelchPsd {
@@ -81,7 +87,8 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
     throw new InputError(`welchPsd: the series (${data.length} samples) is shorter than one segment (${n} samples)`);
   }
   const step = Math.max(1, Math.round(n * (1 - overlap)));
-  const segments = Math.floor((data.length - n) / step) + 1;
+  const starts = segmentStarts(options.intervals ?? [{ start: 0, end: data.length }], data.length, n, step);
+  const segments = starts.length;
   const bins = n / 2 + 1;
 
   const window = new Float64Array(n);
@@ -104,7 +111,7 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
   const rowStride = periodograms ? periodograms.stride[0] : 0;
 
   for (let s = 0; s < segments; s++) {
-    const start = s * step;
+    const start = starts[s];
     for (let i = 0; i < n; i++) seg[i] = data[start + i] * window[i];
     fft.forward(seg, spec);
     const column = periodograms ? periodograms.index(0, s) : 0; // where segment s's column starts
@@ -141,6 +148,19 @@ export function welchPsd(data: Float64Array, sampleRate: number, options: WelchO
   const frequencies = new Float64Array(bins);
   for (let k = 0; k < bins; k++) frequencies[k] = k * df;
   return { frequencies, psd, df, segments, segmentLength: n, average };
+}
+
+/** First sample of every whole segment of n samples, `step` apart, inside each interval (checked here). */
+function segmentStarts(intervals: readonly { readonly start: number; readonly end: number }[], length: number, n: number, step: number): number[] {
+  const starts: number[] = [];
+  for (const iv of intervals) {
+    if (!(Number.isInteger(iv.start) && Number.isInteger(iv.end) && 0 <= iv.start && iv.start <= iv.end && iv.end <= length)) {
+      throw new InputError(`welchPsd: an interval must be whole samples with 0 ≤ start ≤ end ≤ ${length} (got [${iv.start}, ${iv.end}))`);
+    }
+    for (let a = iv.start; a + n <= iv.end; a += step) starts.push(a);
+  }
+  if (starts.length === 0) throw new InputError(`welchPsd: no interval holds one segment (${n} samples)`);
+  return starts;
 }
 
 /**

@@ -1,3 +1,4 @@
+import { InputError } from "../errors.js";
 import { CORRUPT_OVER_MEDIAN, medianMagnitude } from "./corruptSample.js";
 import type { SearchInput } from "./types.js";
 
@@ -89,4 +90,19 @@ export function describeBadStretch(s: BadStretch): string {
     case "corrupt":
       return `corrupt samples (up to ${s.value.toExponential(2)}, over ${CORRUPT_OVER_MEDIAN.toExponential(0)} times the median magnitude)`;
   }
+}
+
+/**
+ * The error for an input with bad stretches that were not to be left out: one line naming the input,
+ * the first stretch's kind, time and length, and how many more there are. Its parameter is
+ * `badData` (the option that would leave them out); `user` says what rejects them.
+ */
+export function badDataError(input: Pick<SearchInput, "file" | "sampleRate" | "startTime">, bad: readonly BadStretch[], user = "the search"): InputError {
+  const fs = input.sampleRate;
+  const b = bad[0];
+  const t0 = input.startTime + b.start / fs;
+  const message =
+    `${input.file}: ${describeBadStretch(b)} at t = ${t0.toFixed(4)} s (samples ${b.start}–${b.end - 1}, ${((b.end - b.start) / fs).toPrecision(3)} s)` +
+    `${bad.length > 1 ? ` and ${bad.length - 1} more bad stretch(es)` : ""}; bad data are rejected unless ${user} is told to leave them out`;
+  return new InputError(message, { parameter: "badData", detail: message });
 }

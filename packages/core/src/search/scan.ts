@@ -11,7 +11,7 @@ import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo, planSegments, type Segment, type S
 import { segmentPsd } from "./segmentPsd.js";
 import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
 import { MIN_WELCH_SEGMENT_SAMPLES } from "../noise/welch.js";
-import { describeBadStretch, screenInput } from "./dataQuality.js";
+import { badDataError, describeBadStretch, screenInput } from "./dataQuality.js";
 import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
 import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
@@ -151,14 +151,7 @@ export async function planSearch(source: SearchInput, o: SearchOptions): Promise
   const fs = source.sampleRate;
   const policy = o.badData ?? "reject";
   const bad = policy === "ignore" ? [] : await screenInput(source);
-  if (bad.length > 0 && policy === "reject") {
-    const b = bad[0];
-    const t0 = source.startTime + b.start / fs;
-    const message =
-      `${source.file}: ${describeBadStretch(b)} at t = ${t0.toFixed(4)} s (samples ${b.start}–${b.end - 1}, ${((b.end - b.start) / fs).toPrecision(3)} s)` +
-      `${bad.length > 1 ? ` and ${bad.length - 1} more bad stretch(es)` : ""}; bad data are rejected unless the search is told to leave them out`;
-    throw new InputError(message, { parameter: "badData", detail: message });
-  }
+  if (bad.length > 0 && policy === "reject") throw badDataError(source, bad);
   const badData: ExcludedRange[] = bad.map((b) => ({ start: b.start, end: b.end, reason: describeBadStretch(b) }));
   const exclusions = { analysisIntervals: o.analysisIntervals, excludedIntervals: o.excludedIntervals, badData };
   // The segment length follows the longest valid interval: plan once to find the intervals.
