@@ -8,8 +8,10 @@
 // Measured side by side, each run preceded by its floor (the full-length inverse FFT of the
 // same backend): the whole search per template-segment ÷ the floor, one thread, per-template rate
 // on and off (the speed-up of one over the other); the same with 2 threads (1 → 2 scaling, whole
-// run, both paths); the mean inverse-FFT length as a fraction of the full one; peak RSS (VmHWM) of a whole
-// scan with the default thread count, per-template rate on and off, each in its own child process.
+// run, both paths); the same 1 → 2 scaling over 4096 s (several segments, so that the pipeline
+// shows: segment k + 1 prepared while the workers filter segment k); the mean inverse-FFT length as
+// a fraction of the full one; peak RSS (VmHWM) of a whole scan with the default thread count,
+// per-template rate on and off, each in its own child process.
 import { spawnSync } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { availableParallelism } from "node:os";
@@ -36,6 +38,8 @@ import {
 const FS = 4096;
 const SECONDS = 1024;
 const SUBSET = 256;
+/** Data (s) of the whole-run thread-scaling measurement: several segments, so the pipeline shows. */
+const LONG_SECONDS = 4096;
 
 export const WORKLOADS = {
   wide: { label: "wide bank, 1–30 M_sun from 20 Hz", massRangeSolar: [1, 30], fMinHz: 20, seed: "bench-wide" },
@@ -227,6 +231,22 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         if (r.status !== 0) throw new Error(`rss child (${key}, ${mode}) failed: ${r.stderr}`);
         rss[mode] = JSON.parse(r.stdout.trim().split("\n").pop());
       }
+      // Whole-run 1 → 2 thread scaling over several segments (the pipeline: segment k + 1 prepared
+      // while the workers filter segment k), per-template rate on, alternating 1 and 2 threads.
+      const long = colouredNoise(ajith2011, LONG_SECONDS * FS, FS, `${w.seed}-long`);
+      const longWalls = { 1: [], 2: [] };
+      let longSegments = 0;
+      for (let r = 0; r < rounds; r++) {
+        for (const threads of [1, 2]) {
+          const t0 = performance.now();
+          const res = await searchStrain(arrayInput(long, FS), searchOptions(templates, w.fMinHz, { fftBackend: backend, threads }));
+          longWalls[threads].push((performance.now() - t0) / 1000);
+          longSegments = res.summary.segments;
+        }
+      }
+      const longScaling = { seconds: LONG_SECONDS, segments: longSegments, oneThreadSeconds: median(longWalls[1]), twoThreadSeconds: median(longWalls[2]) };
+      longScaling.oneToTwoThreads = longScaling.oneThreadSeconds / longScaling.twoThreadSeconds;
+      log(`  ${LONG_SECONDS} s (${longSegments} segments): 1 thread ${longScaling.oneThreadSeconds.toFixed(2)} s, 2 threads ${longScaling.twoThreadSeconds.toFixed(2)} s = ${longScaling.oneToTwoThreads.toFixed(2)}×`);
       log(`  peak RSS, ${rss.multi.threads} threads: per-template rate ${rss.multi.peakRssMb.toFixed(0)} MB, full rate ${rss.single.peakRssMb.toFixed(0)} MB`);
       // The cost model bank sweep uses (search/searchCost.ts), against the timed one-thread search of the same templates.
       const estimate = estimateSearchCost({ templates, fMinHz: w.fMinHz, sampleRate: FS, psd: ajith2011, backend, dataSeconds: SECONDS });
@@ -245,6 +265,7 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         fullRateRatioToFloor: runs.single1.ratioToFloor,
         speedupOverFullRate: runs.single1.wallSeconds / runs.multi1.wallSeconds,
         oneToTwoThreads: runs.multi1.wallSeconds / runs.multi2.wallSeconds,
+        longScaling,
         fullRateOneToTwoThreads: runs.single1.wallSeconds / runs.single2.wallSeconds,
         coresAvailable: cores,
         peakRssMb: { perTemplateRate: rss.multi.peakRssMb, fullRate: rss.single.peakRssMb, threads: rss.multi.threads },
@@ -263,7 +284,7 @@ export function rateLines(results) {
   for (const r of Object.values(results)) {
     lines.push(
       `   ${r.label}: ${r.ratioToFloor.toFixed(3)} × (target ≤ ${r.target}); full rate ${r.fullRateRatioToFloor.toFixed(3)} ×; speed-up ${r.speedupOverFullRate.toFixed(2)}×; ` +
-        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
+        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× over ${r.segments} segment(s), ${r.longScaling.oneToTwoThreads.toFixed(2)}× over ${r.longScaling.segments} segments of ${r.longScaling.seconds} s (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
         `peak RSS ${r.peakRssMb.perTemplateRate.toFixed(0)} MB (full rate ${r.peakRssMb.fullRate.toFixed(0)} MB); ` +
         `cost model (bank sweep's estimate) ÷ the timed search ${r.costModel.ratio.toFixed(2)} (target within 1/1.5–1.5)`,
     );
