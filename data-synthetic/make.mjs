@@ -23,8 +23,8 @@ const scenario = [
   {
     targetSnr: 16,
     injection: {
-      primaryMass: 1.4,
-      secondaryMass: 1.3,
+      primaryMassSolar: 1.4,
+      secondaryMassSolar: 1.3,
       coalescenceTime: START_TIME + 62.4,
       distance: 1,
       inclination: 0.6,
@@ -37,8 +37,8 @@ const scenario = [
   {
     targetSnr: 19,
     injection: {
-      primaryMass: 10,
-      secondaryMass: 8,
+      primaryMassSolar: 10,
+      secondaryMassSolar: 8,
       coalescenceTime: START_TIME + 101.7,
       distance: 1,
       inclination: 2.2,

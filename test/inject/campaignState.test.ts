@@ -12,7 +12,7 @@ import { useTempDir } from "../io/tempDir.js";
 const tmp = useTempDir("campaign-state");
 
 function batch(b: number): BatchResult {
-  return { batch: b, startTime: 256 * b, analysedSeconds: 200.5, injections: [], falseCandidates: [{ batch: b, coalescenceTime: 256 * b + 3.25, snr: 6.5, reweightedSnr: 6.1, chirpMass: 1.21 }] };
+  return { batch: b, startTime: 256 * b, analysedSeconds: 200.5, injections: [], falseCandidates: [{ batch: b, coalescenceTime: 256 * b + 3.25, snr: 6.5, reweightedSnr: 6.1, chirpMassSolar: 1.21 }] };
 }
 
 describe("campaign state file", () => {

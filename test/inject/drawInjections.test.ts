@@ -12,7 +12,7 @@ describe("drawInjections", () => {
     const b = drawInjections({ ...common, count: 5, distanceMpc: [10, 200], duration: 64 });
     const c = drawInjections({ ...common, count: 5, distanceMpc: [10, 200], duration: 64, seed: "population-2" });
     expect(b).toEqual(a);
-    expect(c[0].primaryMass).not.toBe(a[0].primaryMass);
+    expect(c[0].primaryMassSolar).not.toBe(a[0].primaryMassSolar);
   });
 
   it("stays in its ranges, orders coalescences and keeps chirps apart by duration + gap", () => {
@@ -21,9 +21,9 @@ describe("drawInjections", () => {
     expect(inj).toHaveLength(400);
     for (let k = 0; k < inj.length; k++) {
       const x = inj[k];
-      expect(x.primaryMass).toBeGreaterThanOrEqual(x.secondaryMass);
-      expect(x.secondaryMass).toBeGreaterThanOrEqual(20);
-      expect(x.primaryMass).toBeLessThanOrEqual(30);
+      expect(x.primaryMassSolar).toBeGreaterThanOrEqual(x.secondaryMassSolar);
+      expect(x.secondaryMassSolar).toBeGreaterThanOrEqual(20);
+      expect(x.primaryMassSolar).toBeLessThanOrEqual(30);
       expect(x.distance).toBeGreaterThanOrEqual(10);
       expect(x.distance).toBeLessThanOrEqual(200);
       expect(x.inclination).toBeGreaterThanOrEqual(0);
@@ -32,7 +32,7 @@ describe("drawInjections", () => {
       expect(x.coalescenceTime).toBeGreaterThanOrEqual(1e9 + 3);
       expect(x.coalescenceTime).toBeLessThanOrEqual(1e9 + duration - 3);
       if (k > 0) {
-        const gapNeeded = taylorT4Duration(x.primaryMass, x.secondaryMass, 30) + 2;
+        const gapNeeded = taylorT4Duration(x.primaryMassSolar, x.secondaryMassSolar, 30) + 2;
         expect(x.coalescenceTime - inj[k - 1].coalescenceTime).toBeGreaterThanOrEqual(gapNeeded);
       }
     }

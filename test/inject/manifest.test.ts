@@ -6,8 +6,8 @@ import { type Injection, injectionManifest, readInjectionFile, writeInjectionMan
 import { parseInjections } from "../../packages/core/src/inject/manifest.js";
 
 const one: Injection = {
-  primaryMass: 1.4,
-  secondaryMass: 1.3,
+  primaryMassSolar: 1.4,
+  secondaryMassSolar: 1.3,
   coalescenceTime: 1000000040.25,
   distance: 40,
   inclination: 0.5,
@@ -27,7 +27,7 @@ describe("injection manifest", () => {
     const json = JSON.parse(readFileSync(path, "utf8"));
     expect(json.synthetic).toBe(true);
     expect(json.noiseCurve).toBe("ajith2011");
-    expect(json.injections[0].chirpMass).toBeCloseTo(Math.pow(1.4 * 1.3, 0.6) / Math.pow(2.7, 0.2), 12);
+    expect(json.injections[0].chirpMassSolar).toBeCloseTo(Math.pow(1.4 * 1.3, 0.6) / Math.pow(2.7, 0.2), 12);
     expect(readInjectionFile(path)).toEqual([one, { ...one, coalescenceTime: 1000000090.5 }]);
   });
 

@@ -6,8 +6,8 @@ import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 const injections: Injection[] = [
   {
-    primaryMass: 12,
-    secondaryMass: 9,
+    primaryMassSolar: 12,
+    secondaryMassSolar: 9,
     coalescenceTime: 100.37,
     distance: 50,
     inclination: 0.3,
@@ -17,8 +17,8 @@ const injections: Injection[] = [
     phase: 0.1,
   },
   {
-    primaryMass: 20,
-    secondaryMass: 15,
+    primaryMassSolar: 20,
+    secondaryMassSolar: 15,
     coalescenceTime: 103.9,
     distance: 80,
     inclination: 2.5,

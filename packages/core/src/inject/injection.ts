@@ -8,9 +8,9 @@ import { taylorT4 } from "../waveform/taylorT4.js";
  */
 export interface Injection {
   /** Heavier component mass, M_sun. */
-  primaryMass: number;
+  primaryMassSolar: number;
   /** Lighter component mass, M_sun. */
-  secondaryMass: number;
+  secondaryMassSolar: number;
   /** Time the signal reaches the ISCO at the Earth's centre, s (file time base, sub-sample). */
   coalescenceTime: number;
   /** Luminosity distance, Mpc. */
@@ -65,8 +65,8 @@ export function projectInjection(injection: Injection, detector: Detector, optio
   const delay = geocentreDelay(detector, inj, gmst);
   const gridStart = options.gridStartTime ?? 0;
   const wf = taylorT4({
-    massSolar1: inj.primaryMass,
-    massSolar2: inj.secondaryMass,
+    massSolar1: inj.primaryMassSolar,
+    massSolar2: inj.secondaryMassSolar,
     distanceMpc: inj.distance,
     inclination: inj.inclination,
     coalescencePhase: inj.phase,
@@ -118,8 +118,8 @@ export function injectInto(
 
 /** Fields of an {@link Injection} that must be finite numbers. */
 export const INJECTION_FIELDS = [
-  "primaryMass",
-  "secondaryMass",
+  "primaryMassSolar",
+  "secondaryMassSolar",
   "coalescenceTime",
   "distance",
   "inclination",
@@ -148,10 +148,10 @@ export function checkInjection(value: unknown, where: string): Injection {
     out[key] = x;
   }
   const inj = out as unknown as Injection;
-  if (!(inj.primaryMass > 0)) throw new InputError(`${where}: primaryMass must be positive (got ${inj.primaryMass})`);
-  if (!(inj.secondaryMass > 0)) throw new InputError(`${where}: secondaryMass must be positive (got ${inj.secondaryMass})`);
-  if (inj.secondaryMass > inj.primaryMass) {
-    throw new InputError(`${where}: primaryMass must be at least secondaryMass (got ${inj.primaryMass} < ${inj.secondaryMass})`);
+  if (!(inj.primaryMassSolar > 0)) throw new InputError(`${where}: primaryMassSolar must be positive (got ${inj.primaryMassSolar})`);
+  if (!(inj.secondaryMassSolar > 0)) throw new InputError(`${where}: secondaryMassSolar must be positive (got ${inj.secondaryMassSolar})`);
+  if (inj.secondaryMassSolar > inj.primaryMassSolar) {
+    throw new InputError(`${where}: primaryMassSolar must be at least secondaryMassSolar (got ${inj.primaryMassSolar} < ${inj.secondaryMassSolar})`);
   }
   if (!(inj.distance > 0)) throw new InputError(`${where}: distance must be a positive number of Mpc (got ${inj.distance})`);
   if (inj.inclination < 0 || inj.inclination > Math.PI) {
