@@ -31,6 +31,20 @@ describe("injection manifest", () => {
     expect(readInjectionFile(path)).toEqual([one, { ...one, coalescenceTime: 1000000090.5 }]);
   });
 
+  it("reads a manifest in the previous layout (masses without their unit)", () => {
+    const previous = `{
+  "synthetic": true, "noiseCurve": "ajith2011", "noise": true, "sampleRate": 2048, "startTime": 1000000000, "duration": 128, "fMinHz": 30, "seed": 7, "detector": "site-a",
+  "injections": [
+    {"primaryMass":1.4,"secondaryMass":1.3,"chirpMass":1.1742757165047846,"coalescenceTime":1000000040.25,"distance":40,"inclination":0.5,"rightAscension":1,"declination":0.2,"polarisation":0.3,"phase":0.4,"optimalSnr":17.5}
+  ]
+}`;
+    expect(parseInjections(previous, "old.json")).toEqual([one]);
+    // The checks apply under the previous names too.
+    expect(() => parseInjections(previous.replace('"secondaryMass":1.3', '"secondaryMass":1.5'), "old.json")).toThrow(
+      /^old\.json: injection 0: primaryMassSolar must be at least secondaryMassSolar/,
+    );
+  });
+
   it("accepts a bare array and names the file and entry index of a bad record", () => {
     expect(parseInjections(JSON.stringify([one]), "a.json")).toEqual([one]);
     const bad = JSON.stringify({ injections: [one, { ...one, inclination: 4 }] });

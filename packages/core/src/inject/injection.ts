@@ -1,4 +1,5 @@
 import { InputError } from "../errors.js";
+import { MASS_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 import { type Detector, geocentreDelay, plusCrossResponse, siderealAngle } from "../waveform/antenna.js";
 import { taylorT4 } from "../waveform/taylorT4.js";
 
@@ -133,12 +134,13 @@ export const INJECTION_FIELDS = [
  * Validates an injection record (e.g. read from a file); `where` prefixes each message (such as
  * `injections.json: injection 3`). Returns a clean copy (extra fields dropped, optimalSnr kept if
  * it is a finite number; primarySpin and secondarySpin kept when present, each in (−1, 1)).
+ * Records written before the masses carried their unit (primaryMass, secondaryMass) are read too.
  */
 export function checkInjection(value: unknown, where: string): Injection {
   if (value === null || typeof value !== "object" || Array.isArray(value)) {
     throw new InputError(`${where}: must be an object with fields ${INJECTION_FIELDS.join(", ")}`);
   }
-  const rec = value as Record<string, unknown>;
+  const rec = withCurrentKeys(value, MASS_KEY_RENAMES) as Record<string, unknown>;
   const out: Record<string, number> = {};
   for (const key of INJECTION_FIELDS) {
     const x = rec[key];

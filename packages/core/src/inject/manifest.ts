@@ -93,7 +93,8 @@ export function writeInjectionManifest(path: string, manifest: InjectionManifest
 /**
  * Parses injections from JSON text: either an array of injection records or an object with an
  * "injections" array (such as a manifest). Every record is validated; errors name `fileName` and
- * the entry index. Extra fields (chirpMassSolar, optimalSnr, …) are accepted; optimalSnr is kept.
+ * the entry index. Extra fields (chirpMassSolar, optimalSnr, …) are accepted; optimalSnr is kept. Manifests
+ * written before the masses carried their unit (primaryMass, secondaryMass, chirpMass) are read too.
  */
 export function parseInjections(text: string, fileName: string): Injection[] {
   let value: unknown;
