@@ -44,11 +44,12 @@ export interface VerifyOptions {
 
 /** One draw's outcome. */
 export interface FittingFactorDraw {
-  m1: number;
-  m2: number;
-  /** Aligned spins of the draw (spinning draws only; verifySpins.ts). */
-  chi1?: number;
-  chi2?: number;
+  /** Component masses of the draw, heavier first (M_sun). */
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
+  /** Aligned spins χ1, χ2 of the draw (spinning draws only; verifySpins.ts). */
+  primarySpin?: number;
+  secondarySpin?: number;
   fittingFactor: number;
   /** Index (in bank.templates) of the best template. */
   bestTemplate: number;
@@ -300,7 +301,7 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
         for (let i = 0; i < nT; i++) evaluate(i);
       }
     }
-    results.push({ m1, m2, fittingFactor: best, bestTemplate: bestIdx });
+    results.push({ primaryMassSolar: m1, secondaryMassSolar: m2, fittingFactor: best, bestTemplate: bestIdx });
     options.onProgress?.(k + 1, drawn.length);
   }
   return {

@@ -114,7 +114,7 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
         bestIdx = i;
       }
     }
-    results.push({ m1, m2, chi1, chi2, fittingFactor: best, bestTemplate: bestIdx });
+    results.push({ primaryMassSolar: m1, secondaryMassSolar: m2, primarySpin: chi1, secondarySpin: chi2, fittingFactor: best, bestTemplate: bestIdx });
     options.onProgress?.(k + 1, drawn.length);
   }
   return {
