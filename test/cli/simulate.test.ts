@@ -13,7 +13,7 @@ const oneInjection = {
   primaryMassSolar: 12,
   secondaryMassSolar: 9,
   coalescenceTime: 1000000010.3,
-  distance: 150,
+  distanceMpc: 150,
   inclination: 0.4,
   rightAscension: 2,
   declination: 0.3,
@@ -86,8 +86,8 @@ describe("chirpsieve simulate", () => {
     expectOneLineError(runCli(["simulate", "--rate", "1024", "--out", out]), /--duration/);
     expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject-random", "2"]), /--snr-range|--distance-range/);
     const bad = join(dir, "bad.json");
-    writeFileSync(bad, JSON.stringify([oneInjection, { ...oneInjection, distance: -3 }]));
-    expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject", bad]), /bad\.json: injection 1: distance/);
+    writeFileSync(bad, JSON.stringify([oneInjection, { ...oneInjection, distanceMpc: -3 }]));
+    expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject", bad]), /bad\.json: injection 1: distanceMpc must be a positive/);
     const late = join(dir, "late.json");
     writeFileSync(late, JSON.stringify([{ ...oneInjection, coalescenceTime: 1000 }]));
     expectOneLineError(

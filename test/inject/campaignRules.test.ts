@@ -4,7 +4,7 @@ import { arrivalTimeAt, matchInjections } from "../../packages/core/src/inject/m
 import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 function injection(t: number): Injection {
-  return { primaryMassSolar: 1.4, secondaryMassSolar: 1.4, coalescenceTime: t, distance: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarisation: 0.2, phase: 0.7 };
+  return { primaryMassSolar: 1.4, secondaryMassSolar: 1.4, coalescenceTime: t, distanceMpc: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarisation: 0.2, phase: 0.7 };
 }
 
 function candidate(t: number, snr: number): Candidate {

@@ -24,8 +24,8 @@ describe("drawInjections", () => {
       expect(x.primaryMassSolar).toBeGreaterThanOrEqual(x.secondaryMassSolar);
       expect(x.secondaryMassSolar).toBeGreaterThanOrEqual(20);
       expect(x.primaryMassSolar).toBeLessThanOrEqual(30);
-      expect(x.distance).toBeGreaterThanOrEqual(10);
-      expect(x.distance).toBeLessThanOrEqual(200);
+      expect(x.distanceMpc).toBeGreaterThanOrEqual(10);
+      expect(x.distanceMpc).toBeLessThanOrEqual(200);
       expect(x.inclination).toBeGreaterThanOrEqual(0);
       expect(x.inclination).toBeLessThanOrEqual(Math.PI);
       expect(Math.abs(x.declination)).toBeLessThanOrEqual(Math.PI / 2);
@@ -38,7 +38,7 @@ describe("drawInjections", () => {
     }
     // Distance uniform in volume (D³ uniform), cos ι and sin δ uniform in [−1, 1]: Kolmogorov–Smirnov
     // tests (@stdlib/stats-kstest) at the 0.1% level on this fixed seed.
-    const d3 = inj.map((x) => x.distance ** 3);
+    const d3 = inj.map((x) => x.distanceMpc ** 3);
     expect(kstest(d3, "uniform", 10 ** 3, 200 ** 3).pValue).toBeGreaterThan(1e-3);
     expect(kstest(inj.map((x) => Math.cos(x.inclination)), "uniform", -1, 1).pValue).toBeGreaterThan(1e-3);
     expect(kstest(inj.map((x) => Math.sin(x.declination)), "uniform", -1, 1).pValue).toBeGreaterThan(1e-3);
@@ -60,7 +60,7 @@ describe("drawInjections", () => {
       expect(x.optimalSnr).toBeLessThanOrEqual(20);
       const again = optimalSnr(x, ajith2011, 2048, 30, SITE_A);
       expect(Math.abs(again / x.optimalSnr! - 1)).toBeLessThan(1e-9);
-      expect(x.distance).toBeGreaterThan(0);
+      expect(x.distanceMpc).toBeGreaterThan(0);
     }
   });
 

@@ -8,7 +8,7 @@ const base: Injection = {
   primaryMassSolar: 10,
   secondaryMassSolar: 8,
   coalescenceTime: 1_000_000_010.3,
-  distance: 200,
+  distanceMpc: 200,
   inclination: 0.7,
   rightAscension: 2.1,
   declination: -0.4,
@@ -97,7 +97,7 @@ describe("projectInjection / injectInto", () => {
 
 describe("checkInjection", () => {
   it("names the field and the place that is wrong", () => {
-    expect(() => checkInjection({ ...base, distance: -1 }, "inj.json: injection 2")).toThrow(/inj\.json: injection 2: distance/);
+    expect(() => checkInjection({ ...base, distanceMpc: -1 }, "inj.json: injection 2")).toThrow(/inj\.json: injection 2: distanceMpc must be a positive/);
     expect(() => checkInjection({ ...base, phase: "x" }, "here")).toThrow(/phase must be a finite number/);
     expect(() => checkInjection({ ...base, primaryMassSolar: 1, secondaryMassSolar: 2 }, "here")).toThrow(/primaryMassSolar must be at least/);
     expect(() => checkInjection({ ...base, declination: 2 }, "here")).toThrow(InputError);

@@ -9,7 +9,7 @@ const one: Injection = {
   primaryMassSolar: 1.4,
   secondaryMassSolar: 1.3,
   coalescenceTime: 1000000040.25,
-  distance: 40,
+  distanceMpc: 40,
   inclination: 0.5,
   rightAscension: 1,
   declination: 0.2,
@@ -31,7 +31,7 @@ describe("injection manifest", () => {
     expect(readInjectionFile(path)).toEqual([one, { ...one, coalescenceTime: 1000000090.5 }]);
   });
 
-  it("reads a manifest in the previous layout (masses without their unit)", () => {
+  it("reads a manifest in the previous layout (masses and distance without their unit)", () => {
     const previous = `{
   "synthetic": true, "noiseCurve": "ajith2011", "noise": true, "sampleRate": 2048, "startTime": 1000000000, "duration": 128, "fMinHz": 30, "seed": 7, "detector": "site-a",
   "injections": [
@@ -52,7 +52,7 @@ describe("injection manifest", () => {
     expect(() => parseInjections("{", "c.json")).toThrow(/^c\.json: not valid JSON/);
     expect(() => parseInjections('{"x": 1}', "d.json")).toThrow(/d\.json: expected an array/);
     const dir = mkdtempSync(join(tmpdir(), "chirpsieve-manifest-"));
-    writeFileSync(join(dir, "e.json"), JSON.stringify([{ ...one, distance: "far" }]));
-    expect(() => readInjectionFile(join(dir, "e.json"))).toThrow(/e\.json: injection 0: distance must be a finite number \(got "far"\)/);
+    writeFileSync(join(dir, "e.json"), JSON.stringify([{ ...one, distanceMpc: "far" }]));
+    expect(() => readInjectionFile(join(dir, "e.json"))).toThrow(/e\.json: injection 0: distanceMpc must be a finite number \(got "far"\)/);
   });
 });

@@ -314,8 +314,8 @@ export function drawBatchInjections(options: CampaignOptions, layout: CampaignLa
     const [lo, hi] = p.distanceMpc;
     for (const inj of injections) {
       const d = lo + (hi - lo) * rng();
-      if (inj.optimalSnr !== undefined) inj.optimalSnr *= inj.distance / d;
-      inj.distance = d;
+      if (inj.optimalSnr !== undefined) inj.optimalSnr *= inj.distanceMpc / d;
+      inj.distanceMpc = d;
     }
   }
   return injections;
@@ -386,7 +386,7 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
       chirpMassSolar: mc,
       coalescenceTime: inj.coalescenceTime,
       arrivalTime: arrival,
-      distanceMpc: inj.distance,
+      distanceMpc: inj.distanceMpc,
       inclination: inj.inclination,
       rightAscension: inj.rightAscension,
       declination: inj.declination,

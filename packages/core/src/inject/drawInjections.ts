@@ -188,7 +188,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
       primaryMassSolar: d.m1,
       secondaryMassSolar: d.m2,
       coalescenceTime: base + offsets[k],
-      distance: dRange ? d.level : 1,
+      distanceMpc: dRange ? d.level : 1,
       inclination: d.inclination,
       rightAscension: d.rightAscension,
       declination: d.declination,
@@ -203,7 +203,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
       const snr = snrOf(inj);
       if (sRange) {
         if (!(snr > 0)) throw new InputError(`injection ${k}: its signal has no power above ${o.fMinHz} Hz, so no distance gives the target SNR`);
-        inj.distance = snr / d.level; // reference distance 1 Mpc: D = 1 Mpc × ρ_ref / ρ
+        inj.distanceMpc = snr / d.level; // reference distance 1 Mpc: D = 1 Mpc × ρ_ref / ρ
         inj.optimalSnr = d.level;
       } else {
         inj.optimalSnr = snr;

@@ -1,5 +1,5 @@
 import { InputError } from "../errors.js";
-import { MASS_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
+import { INJECTION_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 import { type Detector, geocentreDelay, plusCrossResponse, siderealAngle } from "../waveform/antenna.js";
 import { taylorT4 } from "../waveform/taylorT4.js";
 
@@ -15,7 +15,7 @@ export interface Injection {
   /** Time the signal reaches the ISCO at the Earth's centre, s (file time base, sub-sample). */
   coalescenceTime: number;
   /** Luminosity distance, Mpc. */
-  distance: number;
+  distanceMpc: number;
   /** Inclination ι in [0, π], rad. */
   inclination: number;
   /** Right ascension α, rad. */
@@ -68,7 +68,7 @@ export function projectInjection(injection: Injection, detector: Detector, optio
   const wf = taylorT4({
     massSolar1: inj.primaryMassSolar,
     massSolar2: inj.secondaryMassSolar,
-    distanceMpc: inj.distance,
+    distanceMpc: inj.distanceMpc,
     inclination: inj.inclination,
     coalescencePhase: inj.phase,
     // Subtract the grid start first so sub-sample precision survives a ~1e9 s time base.
@@ -122,7 +122,7 @@ export const INJECTION_FIELDS = [
   "primaryMassSolar",
   "secondaryMassSolar",
   "coalescenceTime",
-  "distance",
+  "distanceMpc",
   "inclination",
   "rightAscension",
   "declination",
@@ -134,13 +134,13 @@ export const INJECTION_FIELDS = [
  * Validates an injection record (e.g. read from a file); `where` prefixes each message (such as
  * `injections.json: injection 3`). Returns a clean copy (extra fields dropped, optimalSnr kept if
  * it is a finite number; primarySpin and secondarySpin kept when present, each in (−1, 1)).
- * Records written before the masses carried their unit (primaryMass, secondaryMass) are read too.
+ * Records written before the masses and distance carried their unit (primaryMass, secondaryMass, distance) are read too.
  */
 export function checkInjection(value: unknown, where: string): Injection {
   if (value === null || typeof value !== "object" || Array.isArray(value)) {
     throw new InputError(`${where}: must be an object with fields ${INJECTION_FIELDS.join(", ")}`);
   }
-  const rec = withCurrentKeys(value, MASS_KEY_RENAMES) as Record<string, unknown>;
+  const rec = withCurrentKeys(value, INJECTION_KEY_RENAMES) as Record<string, unknown>;
   const out: Record<string, number> = {};
   for (const key of INJECTION_FIELDS) {
     const x = rec[key];
@@ -155,7 +155,7 @@ export function checkInjection(value: unknown, where: string): Injection {
   if (inj.secondaryMassSolar > inj.primaryMassSolar) {
     throw new InputError(`${where}: primaryMassSolar must be at least secondaryMassSolar (got ${inj.primaryMassSolar} < ${inj.secondaryMassSolar})`);
   }
-  if (!(inj.distance > 0)) throw new InputError(`${where}: distance must be a positive number of Mpc (got ${inj.distance})`);
+  if (!(inj.distanceMpc > 0)) throw new InputError(`${where}: distanceMpc must be a positive number of Mpc (got ${inj.distanceMpc})`);
   if (inj.inclination < 0 || inj.inclination > Math.PI) {
     throw new InputError(`${where}: inclination must be in [0, π] rad (got ${inj.inclination})`);
   }

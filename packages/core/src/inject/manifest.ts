@@ -63,7 +63,7 @@ export function injectionManifest(
       secondaryMassSolar: inj.secondaryMassSolar,
       chirpMassSolar: chirpMass(inj.primaryMassSolar, inj.secondaryMassSolar),
       coalescenceTime: inj.coalescenceTime,
-      distance: inj.distance,
+      distanceMpc: inj.distanceMpc,
       inclination: inj.inclination,
       rightAscension: inj.rightAscension,
       declination: inj.declination,
@@ -94,7 +94,7 @@ export function writeInjectionManifest(path: string, manifest: InjectionManifest
  * Parses injections from JSON text: either an array of injection records or an object with an
  * "injections" array (such as a manifest). Every record is validated; errors name `fileName` and
  * the entry index. Extra fields (chirpMassSolar, optimalSnr, …) are accepted; optimalSnr is kept. Manifests
- * written before the masses carried their unit (primaryMass, secondaryMass, chirpMass) are read too.
+ * written before the masses and distance carried their unit (primaryMass, secondaryMass, chirpMass, distance) are read too.
  */
 export function parseInjections(text: string, fileName: string): Injection[] {
   let value: unknown;

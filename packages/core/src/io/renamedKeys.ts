@@ -9,6 +9,12 @@ export const MASS_KEY_RENAMES: Readonly<Record<string, string>> = {
   recoveredChirpMass: "recoveredChirpMassSolar",
 };
 
+/** Previous → current names of the keys of an injection record (masses in M_sun, distance in Mpc). */
+export const INJECTION_KEY_RENAMES: Readonly<Record<string, string>> = {
+  ...MASS_KEY_RENAMES,
+  distance: "distanceMpc",
+};
+
 /** Previous → current names of a bank file's top-level keys (frequencies in Hz, masses in M_sun). */
 export const BANK_KEY_RENAMES: Readonly<Record<string, string>> = {
   fmin: "fMinHz",
