@@ -89,7 +89,7 @@ function workloadBank(w) {
     [idx[i], idx[j]] = [idx[j], idx[i]];
   }
   const chosen = idx.slice(0, count).sort((a, b) => a - b);
-  const templates = chosen.map((i) => ({ primaryMass: bank.templates[i].primaryMass, secondaryMass: bank.templates[i].secondaryMass }));
+  const templates = chosen.map((i) => ({ primaryMassSolar: bank.templates[i].primaryMassSolar, secondaryMassSolar: bank.templates[i].secondaryMassSolar }));
   return { placed: bank.templates.length, placeSeconds, templates };
 }
 
@@ -110,7 +110,7 @@ function rateMix(templates, fMinHz, n, data) {
   const counts = {};
   let sum = 0;
   for (const t of templates) {
-    const { kStart, kEnd } = taylorF2BinRange(n / 2 + 1, FS / n, fMinHz, t.primaryMass, t.secondaryMass, 0.95 * (FS / 2));
+    const { kStart, kEnd } = taylorF2BinRange(n / 2 + 1, FS / n, fMinHz, t.primaryMassSolar, t.secondaryMassSolar, 0.95 * (FS / 2));
     const kFrom = Math.max(kStart, w.kLow);
     const kTo = Math.min(kEnd, w.kHigh);
     chooseOutputRate(w.cumulative, kFrom, kTo, DEFAULT_BAND_POWER_LOSS, n, out);

@@ -63,7 +63,7 @@ function benchTemplates(count = 64) {
   for (let i = 0; i < count; i++) {
     const m1 = 1 + 2 * ((i + 0.5) / count);
     const m2 = 1 + (m1 - 1) * ((0.5 + i * 0.6180339887) % 1);
-    out.push({ primaryMass: m1, secondaryMass: m2 });
+    out.push({ primaryMassSolar: m1, secondaryMassSolar: m2 });
   }
   return out;
 }
@@ -96,8 +96,8 @@ function spinningTemplateCost() {
   const pass = (chi1, chi2) => {
     const t0 = performance.now();
     for (const t of list) {
-      const { kStart, kEnd } = taylorF2BinRange(nBins, df, F_MIN, t.primaryMass, t.secondaryMass);
-      phasor.template(law, out, kStart, kEnd, t.primaryMass, t.secondaryMass, taylorF2Amplitude(t.primaryMass, t.secondaryMass, 1), chi1, chi2);
+      const { kStart, kEnd } = taylorF2BinRange(nBins, df, F_MIN, t.primaryMassSolar, t.secondaryMassSolar);
+      phasor.template(law, out, kStart, kEnd, t.primaryMassSolar, t.secondaryMassSolar, taylorF2Amplitude(t.primaryMassSolar, t.secondaryMassSolar, 1), chi1, chi2);
     }
     return (performance.now() - t0) / list.length;
   };
@@ -237,7 +237,7 @@ function kernelRatio(backend) {
   });
   filter.load(data.slice(0, n), n);
   const bank = createBankFilter({ size: n, sampleRate: FS, fMinHz: F_MIN, fMaxHz: 0.95 * (FS / 2), backend });
-  const masses = new Float64Array(templates.flatMap((t) => [t.primaryMass, t.secondaryMass]));
+  const masses = new Float64Array(templates.flatMap((t) => [t.primaryMassSolar, t.secondaryMassSolar]));
   const sigmas = new Float64Array(templates.length);
   const peaks = { start: segmentPlan.invalidStart, end: n - segmentPlan.invalidEnd, threshold: 6, window: FS };
   const count = backend === "pffft" ? templates.length : 8;

@@ -23,10 +23,10 @@ const scenario = [
   {
     targetSnr: 16,
     injection: {
-      primaryMass: 1.4,
-      secondaryMass: 1.3,
+      primaryMassSolar: 1.4,
+      secondaryMassSolar: 1.3,
       coalescenceTime: START_TIME + 62.4,
-      distance: 1,
+      distanceMpc: 1,
       inclination: 0.6,
       rightAscension: 1.9,
       declination: 0.7,
@@ -37,10 +37,10 @@ const scenario = [
   {
     targetSnr: 19,
     injection: {
-      primaryMass: 10,
-      secondaryMass: 8,
+      primaryMassSolar: 10,
+      secondaryMassSolar: 8,
       coalescenceTime: START_TIME + 101.7,
-      distance: 1,
+      distanceMpc: 1,
       inclination: 2.2,
       rightAscension: 4.4,
       declination: -0.3,
@@ -52,7 +52,7 @@ const scenario = [
 
 const injections = scenario.map(({ targetSnr, injection }) => {
   const atOneMpc = optimalSnr(injection, ajith2011, SAMPLE_RATE, F_MIN_HZ, SITE_A);
-  return { ...injection, distance: Number((atOneMpc / targetSnr).toPrecision(6)) };
+  return { ...injection, distanceMpc: Number((atOneMpc / targetSnr).toPrecision(6)) };
 });
 
 const input = join(here, "site-a-synthetic.input.json");

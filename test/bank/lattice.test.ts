@@ -51,13 +51,13 @@ describe("hexagonal lattice placement", () => {
   it("keeps every template inside the mass limits, sorted by chirp mass", () => {
     const bank = buildBank({ ...options, massRangeSolar: [5, 30], fMinHz: 20, massRatioCap: 4, totalMassCapSolar: 40 });
     for (const t of bank.templates) {
-      expect(t.secondaryMass).toBeGreaterThanOrEqual(5 * (1 - 1e-6));
-      expect(t.primaryMass).toBeLessThanOrEqual(30 * (1 + 1e-6));
-      expect(t.primaryMass).toBeGreaterThanOrEqual(t.secondaryMass);
-      expect(t.primaryMass / t.secondaryMass).toBeLessThanOrEqual(4 * (1 + 1e-6));
-      expect(t.primaryMass + t.secondaryMass).toBeLessThanOrEqual(40 * (1 + 1e-6));
+      expect(t.secondaryMassSolar).toBeGreaterThanOrEqual(5 * (1 - 1e-6));
+      expect(t.primaryMassSolar).toBeLessThanOrEqual(30 * (1 + 1e-6));
+      expect(t.primaryMassSolar).toBeGreaterThanOrEqual(t.secondaryMassSolar);
+      expect(t.primaryMassSolar / t.secondaryMassSolar).toBeLessThanOrEqual(4 * (1 + 1e-6));
+      expect(t.primaryMassSolar + t.secondaryMassSolar).toBeLessThanOrEqual(40 * (1 + 1e-6));
     }
-    for (let i = 1; i < bank.templates.length; i++) expect(bank.templates[i].chirpMass).toBeGreaterThanOrEqual(bank.templates[i - 1].chirpMass);
+    for (let i = 1; i < bank.templates.length; i++) expect(bank.templates[i].chirpMassSolar).toBeGreaterThanOrEqual(bank.templates[i - 1].chirpMassSolar);
   });
 
   it("covers the region: every sampled point lies within ~sqrt(1 − MM) of a template in the local metric", () => {
@@ -121,8 +121,8 @@ describe("hexagonal lattice placement", () => {
       let best = 0;
       for (const t of bank.templates) {
         if (Math.abs(t.tau0 - ct.tau0) > 0.03 * ct.tau0) continue;
-        gen.generate(tpl, fLow, t.primaryMass, t.secondaryMass);
-        best = Math.max(best, mc.match(sig, tpl, iscoFrequencyHz(m1 + m2), iscoFrequencyHz(t.primaryMass + t.secondaryMass)).match);
+        gen.generate(tpl, fLow, t.primaryMassSolar, t.secondaryMassSolar);
+        best = Math.max(best, mc.match(sig, tpl, iscoFrequencyHz(m1 + m2), iscoFrequencyHz(t.primaryMassSolar + t.secondaryMassSolar)).match);
       }
       expect(best).toBeGreaterThanOrEqual(0.97);
     }

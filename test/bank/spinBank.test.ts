@@ -89,12 +89,12 @@ describe("aligned-spin bank files", () => {
     noiseCurve: "ajith2011",
     massRangeSolar: [5, 15] as [number, number],
     spinRange: [0, 0.5] as [number, number],
-    templates: [{ primaryMass: 10, secondaryMass: 8, chirpMass: 0, tau0: 0, tau3: 0, primarySpin: 0.25, secondarySpin: 0.25 }],
+    templates: [{ primaryMassSolar: 10, secondaryMassSolar: 8, chirpMassSolar: 0, tau0: 0, tau3: 0, primarySpin: 0.25, secondarySpin: 0.25 }],
   };
   const fill = (): typeof bank => {
     const t = bank.templates[0];
-    const u = spinCoordinatesFromComponents(t.primaryMass, t.secondaryMass, 0, 0, 30);
-    t.chirpMass = Math.pow(t.primaryMass * t.secondaryMass, 0.6) / Math.pow(t.primaryMass + t.secondaryMass, 0.2);
+    const u = spinCoordinatesFromComponents(t.primaryMassSolar, t.secondaryMassSolar, 0, 0, 30);
+    t.chirpMassSolar = Math.pow(t.primaryMassSolar * t.secondaryMassSolar, 0.6) / Math.pow(t.primaryMassSolar + t.secondaryMassSolar, 0.2);
     t.tau0 = u[0];
     t.tau3 = u[1];
     return bank;

@@ -32,9 +32,9 @@ describe("match-floor sweep", () => {
 
   it("uses the search's own segment layout and scales the timed work by templates and segments per hour", () => {
     const templates = [
-      { primaryMass: 10, secondaryMass: 9 },
-      { primaryMass: 12, secondaryMass: 8 },
-      { primaryMass: 14, secondaryMass: 10 },
+      { primaryMassSolar: 10, secondaryMassSolar: 9 },
+      { primaryMassSolar: 12, secondaryMassSolar: 8 },
+      { primaryMassSolar: 14, secondaryMassSolar: 10 },
     ];
     const cost = estimateSearchCost({ templates, fMinHz: 30, sampleRate: 1024, psd: ajith2011, backend: "fftjs" });
     const layout = chooseSegmentLayout({ templates, fMinHz: 30, snrThreshold: 6, chi2Bands: 0, loudestWithinSeconds: 1, psd: { kind: "estimate", segmentSeconds: 4, average: "median" } }, 1024, 3600 * 1024);

@@ -9,8 +9,8 @@ describe("bank verification", () => {
     const opts = { draws: 80, seed: "near-vs-all", psd: ajith2011, worstCount: 80 };
     const near = verifyBank(bank, opts);
     const all = verifyBank(bank, { ...opts, exhaustive: true });
-    const byDraw = new Map(all.worst.map((w) => [`${w.m1},${w.m2}`, w.fittingFactor]));
-    for (const w of near.worst) expect(w.fittingFactor).toBe(byDraw.get(`${w.m1},${w.m2}`));
+    const byDraw = new Map(all.worst.map((w) => [`${w.primaryMassSolar},${w.secondaryMassSolar}`, w.fittingFactor]));
+    for (const w of near.worst) expect(w.fittingFactor).toBe(byDraw.get(`${w.primaryMassSolar},${w.secondaryMassSolar}`));
     expect(near.matchesPerDraw).toBeLessThan(all.matchesPerDraw / 5);
   });
 

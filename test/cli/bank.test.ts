@@ -50,9 +50,9 @@ describe("chirpsieve bank", () => {
     expect(built.code).toBe(0);
     expect(built.stdout).toMatch(/^\S+bank\.json: \d+ templates .* metric-volume estimate \d+/);
     const bank = JSON.parse(readFileSync(bankPath, "utf8"));
-    expect(bank.fmin).toBe(20);
+    expect(bank.fMinHz).toBe(20);
     expect(bank.matchFloor).toBe(0.95);
-    expect(bank.massRange).toEqual([8, 20]);
+    expect(bank.massRangeSolar).toEqual([8, 20]);
     expect(bank.generator.tool).toBe("chirpsieve");
     expect(bank.generator.arguments).toContain("--mass-range");
     expect(bank.templates.length).toBeGreaterThan(20);
@@ -101,7 +101,7 @@ describe("chirpsieve bank", () => {
   it("rejects bad input with one line naming the flag or file, exit 2", async () => {
     const out = join(dir, "x.json");
     const broken = join(dir, "broken.json");
-    writeFileSync(broken, '{"fmin": 20, "matchFloor": 0.95, "noiseCurve": "ajith2011", "massRange": [8, 20], "templates": [{"primaryMass": 9}]}');
+    writeFileSync(broken, '{"fmin": 20, "matchFloor": 0.95, "noiseCurve": "ajith2011", "massRange": [8, 20], "templates": [{"primaryMassSolar": 9}]}');
     const cases: [string[], RegExp][] = [
       [["bank", "--mass-range", "3:1", "--fmin", "30", "--out", out], /--mass-range: MIN must be below MAX/],
       [["bank", ...region, "--match-floor", "1.5", "--out", out], /--match-floor/],
@@ -109,7 +109,7 @@ describe("chirpsieve bank", () => {
       // Too narrow a band to tell chirps apart (templateBank.ts, MIN_FMAX_OVER_FMIN and MIN_ISCO_OVER_FMIN).
       [["bank", ...region, "--fmax", "24", "--out", out], /--fmax: 24 Hz must be at least 26 Hz \(1\.3 × fmin 20 Hz\)/],
       [["scan", demoStrain, "--mass-range", "1:3", "--fmin", "700"], /--fmin: 700 Hz must be at most 666\.2 Hz: the heaviest binary/],
-      [["bank", "verify", broken], /broken\.json: templates\[0\] is missing "secondaryMass"/],
+      [["bank", "verify", broken], /broken\.json: templates\[0\] is missing "secondaryMassSolar"/],
       // Refused from the count estimate before any placement (these would run for minutes or forever).
       [["bank", "--mass-range", "0.001:0.01", "--fmin", "30", "--out", out], /--mass-range: .* needs about 1\.6e\+11 templates, more than the limit of 1000000/],
       // Outside the masses chirpsieve models (physics/massDomain.ts).

@@ -97,7 +97,7 @@ describe("chirpsieve scan --spin-range", () => {
     expect(cands.length).toBeGreaterThan(0);
     const c = cands.sort((a, b) => b.snr - a.snr)[0];
     // χ_eff = (m1 χ1 + m2 χ2)/(m1 + m2) (Ajith et al., Phys. Rev. Lett. 106, 241101 (2011)).
-    expect(c.effectiveSpin).toBeCloseTo((c.primaryMass * c.primarySpin + c.secondaryMass * c.secondarySpin) / (c.primaryMass + c.secondaryMass), 4);
+    expect(c.effectiveSpin).toBeCloseTo((c.primaryMassSolar * c.primarySpin + c.secondaryMassSolar * c.secondarySpin) / (c.primaryMassSolar + c.secondaryMassSolar), 4);
     expect(c.primarySpin).toBeGreaterThan(0.05); // the loudest template of a signal with spins 0.3–0.5 spins (measured here)
     const summary = lines.find((l) => l.type === "summary");
     expect(String(summary.bank)).toMatch(/aligned spins 0 to 0\.5/);

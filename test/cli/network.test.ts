@@ -10,7 +10,7 @@ beforeAll(() => {
   writeFileSync(
     join(dir, "inj.json"),
     JSON.stringify([
-      { primaryMass: 10, secondaryMass: 8, coalescenceTime: 100.5, distance: 150, inclination: 0.4, rightAscension: 1.0, declination: 0.3, polarisation: 0.5, phase: 0.2 },
+      { primaryMassSolar: 10, secondaryMassSolar: 8, coalescenceTime: 100.5, distanceMpc: 150, inclination: 0.4, rightAscension: 1.0, declination: 0.3, polarisation: 0.5, phase: 0.2 },
     ]),
   );
 });

@@ -50,9 +50,9 @@ describe("chirpsieve recover: a small campaign", () => {
     expect(Object.keys(doc)).toEqual(["format", "version", "arguments", "population", "layout", "summary", "injections", "falseCandidates", "requirements", "caution", "run", "inspiralEdge"]);
     expect(Object.keys(doc.summary).slice(0, 8)).toEqual(["injections", "found", "missed", "efficiency", "efficiencyLower", "efficiencyUpper", "interval", "efficiencyBySnr"]);
     expect(Object.keys(doc.injections[0])).toEqual([
-      "index", "batch", "primaryMass", "secondaryMass", "chirpMass", "coalescenceTime", "arrivalTime", "distanceMpc", "inclination",
+      "index", "batch", "primaryMassSolar", "secondaryMassSolar", "chirpMassSolar", "coalescenceTime", "arrivalTime", "distanceMpc", "inclination",
       "rightAscension", "declination", "polarisation", "phase", "optimalSnr", "found", "recoveredSnr", "reweightedSnr",
-      "recoveredChirpMass", "chirpMassError", "timeError",
+      "recoveredChirpMassSolar", "chirpMassError", "timeError",
     ]);
     expect(doc.summary.injections).toBe(12);
     expect(doc.requirements.map((q: { met: boolean }) => q.met)).toEqual([true, true]);

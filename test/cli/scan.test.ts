@@ -35,7 +35,7 @@ describe("chirpsieve scan", () => {
     }
     const cands = lines.filter((l) => l.type === "candidate");
     const best = cands.reduce((a, b) => (b.snr > a.snr ? b : a));
-    for (const key of ["coalescenceTime", "snr", "chi2", "chi2Dof", "reweightedSnr", "chirpMass", "primaryMass", "secondaryMass", "effectiveDistanceMpc", "phase", "templateIndex", "file"]) {
+    for (const key of ["coalescenceTime", "snr", "chi2", "chi2Dof", "reweightedSnr", "chirpMassSolar", "primaryMassSolar", "secondaryMassSolar", "effectiveDistanceMpc", "phase", "templateIndex", "file"]) {
       expect(best).toHaveProperty(key);
     }
     expect(Math.abs(best.coalescenceTime - arrivalTime(inj))).toBeLessThan(0.01);
@@ -48,7 +48,7 @@ describe("chirpsieve scan", () => {
     const r = runCli(["scan", file, ...base, "--out", out]);
     expect(r.code).toBe(0);
     const csv = readFileSync(out, "utf8").trim().split("\n");
-    expect(csv[0]).toBe("coalescenceTime,snr,reweightedSnr,chi2,chi2Dof,phase,chirpMass,primaryMass,secondaryMass,primarySpin,secondarySpin,effectiveSpin,effectiveDistanceMpc,templateIndex,file");
+    expect(csv[0]).toBe("coalescenceTime,snr,reweightedSnr,chi2,chi2Dof,phase,chirpMassSolar,primaryMassSolar,secondaryMassSolar,primarySpin,secondarySpin,effectiveSpin,effectiveDistanceMpc,templateIndex,file");
     expect(csv.length).toBeGreaterThan(1);
     expect(readdirSync(dir).filter((f) => f.includes(".partial"))).toEqual([]);
     const t = runCli(["scan", file, ...base, "--format", "table"]);

@@ -10,10 +10,10 @@ import { runCli } from "./helpers.js";
 const tmp = (): string => mkdtempSync(join(tmpdir(), "chirpsieve-simulate-"));
 
 const oneInjection = {
-  primaryMass: 12,
-  secondaryMass: 9,
+  primaryMassSolar: 12,
+  secondaryMassSolar: 9,
   coalescenceTime: 1000000010.3,
-  distance: 150,
+  distanceMpc: 150,
   inclination: 0.4,
   rightAscension: 2,
   declination: 0.3,
@@ -53,7 +53,7 @@ describe("chirpsieve simulate", () => {
       expect(inj.optimalSnr).toBeLessThanOrEqual(20);
       expect(inj.coalescenceTime).toBeGreaterThan(1e9);
       expect(inj.coalescenceTime).toBeLessThan(1e9 + 16);
-      expect(inj.chirpMass).toBeCloseTo(Math.pow(inj.primaryMass * inj.secondaryMass, 0.6) / Math.pow(inj.primaryMass + inj.secondaryMass, 0.2), 10);
+      expect(inj.chirpMassSolar).toBeCloseTo(Math.pow(inj.primaryMassSolar * inj.secondaryMassSolar, 0.6) / Math.pow(inj.primaryMassSolar + inj.secondaryMassSolar, 0.2), 10);
     }
   });
 
@@ -76,7 +76,7 @@ describe("chirpsieve simulate", () => {
     const m = JSON.parse(readFileSync(manifest, "utf8"));
     expect(m.noise).toBe(false);
     expect(m.injections[0].optimalSnr).toBeGreaterThan(0);
-    expect(m.injections[0].primaryMass).toBe(12);
+    expect(m.injections[0].primaryMassSolar).toBe(12);
   });
 
   it("rejects bad flags and bad injection files with one line and exit code 2", () => {
@@ -86,8 +86,8 @@ describe("chirpsieve simulate", () => {
     expectOneLineError(runCli(["simulate", "--rate", "1024", "--out", out]), /--duration/);
     expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject-random", "2"]), /--snr-range|--distance-range/);
     const bad = join(dir, "bad.json");
-    writeFileSync(bad, JSON.stringify([oneInjection, { ...oneInjection, distance: -3 }]));
-    expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject", bad]), /bad\.json: injection 1: distance/);
+    writeFileSync(bad, JSON.stringify([oneInjection, { ...oneInjection, distanceMpc: -3 }]));
+    expectOneLineError(runCli(["simulate", "--duration", "16", "--rate", "1024", "--out", out, "--inject", bad]), /bad\.json: injection 1: distanceMpc must be a positive/);
     const late = join(dir, "late.json");
     writeFileSync(late, JSON.stringify([{ ...oneInjection, coalescenceTime: 1000 }]));
     expectOneLineError(

@@ -80,7 +80,7 @@ describe("simulate on several sites: --snr-range is the network SNR", () => {
       expect(b[k].networkOptimalSnr).toBe(drawn);
       expect(drawn).toBeGreaterThanOrEqual(12);
       expect(drawn).toBeLessThanOrEqual(20);
-      expect(a[k].distance).toBe(b[k].distance); // one distance for both sites
+      expect(a[k].distanceMpc).toBe(b[k].distanceMpc); // one distance for both sites
       expect(Math.abs(Math.hypot(a[k].optimalSnr, b[k].optimalSnr) - drawn)).toBeLessThan(1e-9 * drawn);
     }
   });

@@ -55,7 +55,7 @@ describe.skipIf(skip && !CI)("a Slurm job array scans shards that merge to the u
     // Invented scenario: 48 s of seeded noise at 1024 Hz with a 10+8 M_sun chirp at t = 25.3 s.
     const fs = 1024;
     const data = colouredNoise(ajith2011, 48 * fs, fs, "slurm-array");
-    injectInto(data, fs, 0, { ...injectionAt(10, 8, 25.3), distance: 70 }, SITE_A, 40);
+    injectInto(data, fs, 0, { ...injectionAt(10, 8, 25.3), distanceMpc: 70 }, SITE_A, 40);
     await writeStrain(strain, { data, sampleRate: fs, startTime: 0 });
     const scan = ["scan", strain, "--mass-range", "8:12", "--fmin", "40", "--min-snr", "5", "--loudest-within", "0.4", "--welch-segment", "2", "--segment", "8", "--quiet"];
     const quote = (s: string) => `'${s.replace(/'/g, `'\\''`)}'`;

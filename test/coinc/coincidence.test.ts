@@ -8,8 +8,8 @@ import { poissonTriggers, siteStream, templateChirpMass } from "./syntheticTrigg
 const [A, B, C3] = BUILTIN_SITES.map((s) => s.detector);
 const SPAN = 1000;
 
-function trig(t: number, rho: number, template = 3, chirpMass = templateChirpMass(template)): CoincidenceCandidate {
-  return { coalescenceTime: t, snr: rho + 0.5, reweightedSnr: rho, chi2: 1, chi2Dof: 2, effectiveDistanceMpc: 80, templateIndex: template, chirpMass };
+function trig(t: number, rho: number, template = 3, chirpMassSolar = templateChirpMass(template)): CoincidenceCandidate {
+  return { coalescenceTime: t, snr: rho + 0.5, reweightedSnr: rho, chi2: 1, chi2Dof: 2, effectiveDistanceMpc: 80, templateIndex: template, chirpMassSolar };
 }
 
 describe("forming coincidences", () => {
@@ -27,7 +27,7 @@ describe("forming coincidences", () => {
     expect(c.rankingStatistic).toBeCloseTo(10, 12);
     expect(Object.keys(c.sites)).toEqual(["site-a", "site-b"]);
     expect(c.sites["site-b"]).toEqual({
-      snr: 6.5, reweightedSnr: 6, coalescenceTime: 100 + ltt + 0.004, chi2: 1, chi2Dof: 2, effectiveDistanceMpc: 80, templateIndex: 3, chirpMass: templateChirpMass(3),
+      snr: 6.5, reweightedSnr: 6, coalescenceTime: 100 + ltt + 0.004, chi2: 1, chi2Dof: 2, effectiveDistanceMpc: 80, templateIndex: 3, chirpMassSolar: templateChirpMass(3),
     });
     expect(c.falseAlarmRateSource).toBe("time-slides");
     // The 300 s pair is 1 ms outside the window; the 500 s pair has templates 10 % apart in chirp mass.

@@ -15,7 +15,7 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
     const templates: SearchTemplate[] = [];
     for (let i = 0; i < 20; i++) {
       const m = (3 * 1.06 ** i) / 0.25 ** 0.6 / 2;
-      templates.push({ primaryMass: m, secondaryMass: m });
+      templates.push({ primaryMassSolar: m, secondaryMassSolar: m });
     }
     const options: SearchOptions = {
       templates,
@@ -50,11 +50,11 @@ describe("coincidence of two single-site searches of independent Gaussian noise"
       const a = c.sites["site-a"];
       const b = c.sites["site-b"];
       expect(Math.abs(a.coalescenceTime - b.coalescenceTime)).toBeLessThanOrEqual(window);
-      const m = (x: typeof a) => x.chirpMass;
+      const m = (x: typeof a) => x.chirpMassSolar;
       expect(Math.abs(m(a) - m(b))).toBeLessThanOrEqual(0.05 * 0.5 * (m(a) + m(b)) + 1e-12);
       expect(c.rankingStatistic).toBeCloseTo(Math.hypot(a.reweightedSnr, b.reweightedSnr), 12);
     }
     expect(r.singles.length + 2 * r.coincidences.length).toBe(scans[0].candidates.length + scans[1].candidates.length);
-    expect(chirpMass(templates[0].primaryMass, templates[0].secondaryMass)).toBeCloseTo(3, 9);
+    expect(chirpMass(templates[0].primaryMassSolar, templates[0].secondaryMassSolar)).toBeCloseTo(3, 9);
   });
 });

@@ -81,7 +81,7 @@ describe("light-travel time", () => {
 describe("injectionAtSites", () => {
   it("takes antenna factors and delays from the shared antenna code", () => {
     const inj: Injection = {
-      primaryMass: 1.4, secondaryMass: 1.3, coalescenceTime: 12_345.6, distance: 50, inclination: 0.4,
+      primaryMassSolar: 1.4, secondaryMassSolar: 1.3, coalescenceTime: 12_345.6, distanceMpc: 50, inclination: 0.4,
       rightAscension: 2.1, declination: -0.3, polarisation: 0.8, phase: 0.1,
     };
     const dets = BUILTIN_SITES.map((s) => s.detector);

@@ -41,7 +41,7 @@ export function poissonTriggers(o: StreamOptions): CoincidenceCandidate[] {
       chi2Dof: 0,
       effectiveDistanceMpc: 100 / rho,
       templateIndex: m,
-      chirpMass: templateChirpMass(m),
+      chirpMassSolar: templateChirpMass(m),
     });
   }
   return out;

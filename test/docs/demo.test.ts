@@ -21,10 +21,10 @@ describe("npm run demo (the README's first command)", () => {
     const manifest = JSON.parse(readFileSync(join(root, "data-synthetic", "site-a-synthetic.f32.injections.json"), "utf8"));
     expect(manifest.synthetic).toBe(true);
     for (const inj of manifest.injections) {
-      const mc = (inj.primaryMass * inj.secondaryMass) ** 0.6 / (inj.primaryMass + inj.secondaryMass) ** 0.2;
+      const mc = (inj.primaryMassSolar * inj.secondaryMassSolar) ** 0.6 / (inj.primaryMassSolar + inj.secondaryMassSolar) ** 0.2;
       const found = candidates.filter((c) => Math.abs(c.coalescenceTime - inj.coalescenceTime) < 0.05);
       expect(found).toHaveLength(1);
-      expect(Math.abs(found[0].chirpMass / mc - 1)).toBeLessThan(0.02);
+      expect(Math.abs(found[0].chirpMassSolar / mc - 1)).toBeLessThan(0.02);
     }
     expect(candidates).toHaveLength(manifest.injections.length);
     // The summary says how much of the 128 s file could hold a coalescence, and why not the rest.

@@ -179,7 +179,7 @@ describe("accepted silently no more", () => {
     const b = JSON.parse(merged.stdout.trim().split("\n").at(-1)!);
     // inspiralEdge describes the bank, which a merge sees only through its fingerprint.
     for (const key of Object.keys(a)) if (key !== "inspiralEdge") expect(b, key).toHaveProperty(key);
-    for (const key of ["files", "templates", "segments", "segmentSamples", "sampleRate", "analysedSeconds", "dataSeconds", "leadInSeconds", "tailSeconds", "skippedSeconds", "candidates", "minSnr", "chi2Allowance", "fmin", "psd", "threads"]) {
+    for (const key of ["files", "templates", "segments", "segmentSamples", "sampleRate", "analysedSeconds", "dataSeconds", "leadInSeconds", "tailSeconds", "skippedSeconds", "candidates", "minSnr", "chi2Allowance", "fMinHz", "psd", "threads"]) {
       expect(b[key], key).toEqual(a[key]);
     }
   });

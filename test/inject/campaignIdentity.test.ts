@@ -6,7 +6,7 @@ const base: CampaignOptions = {
   population: { count: 10, massRangeSolar: [8, 12], snrRange: [6, 20], seed: "id" },
   data: { kind: "simulated", psd: ajith2011, sampleRate: 1024 },
   search: {
-    templates: [{ primaryMass: 10, secondaryMass: 9 }],
+    templates: [{ primaryMassSolar: 10, secondaryMassSolar: 9 }],
     fMinHz: 30,
     snrThreshold: 6,
     chi2Bands: 16,
@@ -24,8 +24,8 @@ describe("campaignIdentity", () => {
     const changed: CampaignOptions[] = [
       { ...base, population: { ...base.population, seed: "other" } },
       { ...base, population: { ...base.population, spinRange: [0, 0.5] } },
-      { ...base, search: { ...base.search, templates: [{ primaryMass: 10, secondaryMass: 8.9 }] } },
-      { ...base, search: { ...base.search, templates: [{ primaryMass: 10, secondaryMass: 9, primarySpin: 0.3 } as never] } },
+      { ...base, search: { ...base.search, templates: [{ primaryMassSolar: 10, secondaryMassSolar: 8.9 }] } },
+      { ...base, search: { ...base.search, templates: [{ primaryMassSolar: 10, secondaryMassSolar: 9, primarySpin: 0.3 } as never] } },
       { ...base, search: { ...base.search, snrThreshold: 7 } },
       { ...base, search: { ...base.search, gating: null } },
       { ...base, injectionsPerBatch: 3 },

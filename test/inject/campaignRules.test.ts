@@ -4,7 +4,7 @@ import { arrivalTimeAt, matchInjections } from "../../packages/core/src/inject/m
 import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 function injection(t: number): Injection {
-  return { primaryMass: 1.4, secondaryMass: 1.4, coalescenceTime: t, distance: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarisation: 0.2, phase: 0.7 };
+  return { primaryMassSolar: 1.4, secondaryMassSolar: 1.4, coalescenceTime: t, distanceMpc: 100, inclination: 0.3, rightAscension: 1.1, declination: 0.4, polarisation: 0.2, phase: 0.7 };
 }
 
 function candidate(t: number, snr: number): Candidate {
@@ -15,9 +15,9 @@ function candidate(t: number, snr: number): Candidate {
     chi2: 0,
     chi2Dof: 0,
     reweightedSnr: snr,
-    primaryMass: 1.4,
-    secondaryMass: 1.4,
-    chirpMass: 1.2188,
+    primaryMassSolar: 1.4,
+    secondaryMassSolar: 1.4,
+    chirpMassSolar: 1.2188,
     primarySpin: 0,
     secondarySpin: 0,
     effectiveSpin: 0,
@@ -45,9 +45,9 @@ function outcome(i: number, snr: number, found: boolean, distanceMpc = 100, mcEr
   return {
     index: i,
     batch: 0,
-    primaryMass: 1.4,
-    secondaryMass: 1.4,
-    chirpMass: 1.2188,
+    primaryMassSolar: 1.4,
+    secondaryMassSolar: 1.4,
+    chirpMassSolar: 1.2188,
     primarySpin: 0,
     secondarySpin: 0,
     effectiveSpin: 0,
@@ -63,7 +63,7 @@ function outcome(i: number, snr: number, found: boolean, distanceMpc = 100, mcEr
     found,
     recoveredSnr: found ? snr : null,
     reweightedSnr: found ? snr : null,
-    recoveredChirpMass: found ? 1.2188 * (1 + mcErr) : null,
+    recoveredChirpMassSolar: found ? 1.2188 * (1 + mcErr) : null,
     chirpMassError: found ? mcErr : null,
     timeError: found ? tErr : null,
   };
@@ -83,7 +83,7 @@ describe("requirements", () => {
 
   it("evaluates each rule, saying by how much it was met or missed", () => {
     const outs = [outcome(0, 12, true, 50), outcome(1, 11, true, 80), outcome(2, 10.5, false, 150), outcome(3, 6, false, 300)];
-    const summary = summarizeCampaign(outs, [{ batch: 0, coalescenceTime: 5, snr: 7, reweightedSnr: 6, chirpMass: 1.2 }], { count: 4, massRangeSolar: [1.3, 1.5], snrRange: [5, 15], seed: "x" }, 100);
+    const summary = summarizeCampaign(outs, [{ batch: 0, coalescenceTime: 5, snr: 7, reweightedSnr: 6, chirpMassSolar: 1.2 }], { count: 4, massRangeSolar: [1.3, 1.5], snrRange: [5, 15], seed: "x" }, 100);
     const res = evaluateRequirements(
       [
         parseRequirement("efficiency>=0.6@snr>=10"),

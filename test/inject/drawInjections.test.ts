@@ -12,7 +12,7 @@ describe("drawInjections", () => {
     const b = drawInjections({ ...common, count: 5, distanceMpc: [10, 200], duration: 64 });
     const c = drawInjections({ ...common, count: 5, distanceMpc: [10, 200], duration: 64, seed: "population-2" });
     expect(b).toEqual(a);
-    expect(c[0].primaryMass).not.toBe(a[0].primaryMass);
+    expect(c[0].primaryMassSolar).not.toBe(a[0].primaryMassSolar);
   });
 
   it("stays in its ranges, orders coalescences and keeps chirps apart by duration + gap", () => {
@@ -21,24 +21,24 @@ describe("drawInjections", () => {
     expect(inj).toHaveLength(400);
     for (let k = 0; k < inj.length; k++) {
       const x = inj[k];
-      expect(x.primaryMass).toBeGreaterThanOrEqual(x.secondaryMass);
-      expect(x.secondaryMass).toBeGreaterThanOrEqual(20);
-      expect(x.primaryMass).toBeLessThanOrEqual(30);
-      expect(x.distance).toBeGreaterThanOrEqual(10);
-      expect(x.distance).toBeLessThanOrEqual(200);
+      expect(x.primaryMassSolar).toBeGreaterThanOrEqual(x.secondaryMassSolar);
+      expect(x.secondaryMassSolar).toBeGreaterThanOrEqual(20);
+      expect(x.primaryMassSolar).toBeLessThanOrEqual(30);
+      expect(x.distanceMpc).toBeGreaterThanOrEqual(10);
+      expect(x.distanceMpc).toBeLessThanOrEqual(200);
       expect(x.inclination).toBeGreaterThanOrEqual(0);
       expect(x.inclination).toBeLessThanOrEqual(Math.PI);
       expect(Math.abs(x.declination)).toBeLessThanOrEqual(Math.PI / 2);
       expect(x.coalescenceTime).toBeGreaterThanOrEqual(1e9 + 3);
       expect(x.coalescenceTime).toBeLessThanOrEqual(1e9 + duration - 3);
       if (k > 0) {
-        const gapNeeded = taylorT4Duration(x.primaryMass, x.secondaryMass, 30) + 2;
+        const gapNeeded = taylorT4Duration(x.primaryMassSolar, x.secondaryMassSolar, 30) + 2;
         expect(x.coalescenceTime - inj[k - 1].coalescenceTime).toBeGreaterThanOrEqual(gapNeeded);
       }
     }
     // Distance uniform in volume (D³ uniform), cos ι and sin δ uniform in [−1, 1]: Kolmogorov–Smirnov
     // tests (@stdlib/stats-kstest) at the 0.1% level on this fixed seed.
-    const d3 = inj.map((x) => x.distance ** 3);
+    const d3 = inj.map((x) => x.distanceMpc ** 3);
     expect(kstest(d3, "uniform", 10 ** 3, 200 ** 3).pValue).toBeGreaterThan(1e-3);
     expect(kstest(inj.map((x) => Math.cos(x.inclination)), "uniform", -1, 1).pValue).toBeGreaterThan(1e-3);
     expect(kstest(inj.map((x) => Math.sin(x.declination)), "uniform", -1, 1).pValue).toBeGreaterThan(1e-3);
@@ -60,7 +60,7 @@ describe("drawInjections", () => {
       expect(x.optimalSnr).toBeLessThanOrEqual(20);
       const again = optimalSnr(x, ajith2011, 2048, 30, SITE_A);
       expect(Math.abs(again / x.optimalSnr! - 1)).toBeLessThan(1e-9);
-      expect(x.distance).toBeGreaterThan(0);
+      expect(x.distanceMpc).toBeGreaterThan(0);
     }
   });
 

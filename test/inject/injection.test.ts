@@ -5,10 +5,10 @@ import { SITE_A, geocentreDelay, plusCrossResponse, siderealAngle } from "../../
 import { taylorT4 } from "../../packages/core/src/waveform/taylorT4.js";
 
 const base: Injection = {
-  primaryMass: 10,
-  secondaryMass: 8,
+  primaryMassSolar: 10,
+  secondaryMassSolar: 8,
   coalescenceTime: 1_000_000_010.3,
-  distance: 200,
+  distanceMpc: 200,
   inclination: 0.7,
   rightAscension: 2.1,
   declination: -0.4,
@@ -97,10 +97,10 @@ describe("projectInjection / injectInto", () => {
 
 describe("checkInjection", () => {
   it("names the field and the place that is wrong", () => {
-    expect(() => checkInjection({ ...base, distance: -1 }, "inj.json: injection 2")).toThrow(/inj\.json: injection 2: distance/);
+    expect(() => checkInjection({ ...base, distanceMpc: -1 }, "inj.json: injection 2")).toThrow(/inj\.json: injection 2: distanceMpc must be a positive/);
     expect(() => checkInjection({ ...base, phase: "x" }, "here")).toThrow(/phase must be a finite number/);
-    expect(() => checkInjection({ ...base, primaryMass: 1, secondaryMass: 2 }, "here")).toThrow(/primaryMass must be at least/);
+    expect(() => checkInjection({ ...base, primaryMassSolar: 1, secondaryMassSolar: 2 }, "here")).toThrow(/primaryMassSolar must be at least/);
     expect(() => checkInjection({ ...base, declination: 2 }, "here")).toThrow(InputError);
-    expect(checkInjection({ ...base, chirpMass: 7, optimalSnr: 12 }, "here")).toEqual({ ...base, optimalSnr: 12 });
+    expect(checkInjection({ ...base, chirpMassSolar: 7, optimalSnr: 12 }, "here")).toEqual({ ...base, optimalSnr: 12 });
   });
 });

@@ -6,10 +6,10 @@ import { type Injection, injectionManifest, readInjectionFile, writeInjectionMan
 import { parseInjections } from "../../packages/core/src/inject/manifest.js";
 
 const one: Injection = {
-  primaryMass: 1.4,
-  secondaryMass: 1.3,
+  primaryMassSolar: 1.4,
+  secondaryMassSolar: 1.3,
   coalescenceTime: 1000000040.25,
-  distance: 40,
+  distanceMpc: 40,
   inclination: 0.5,
   rightAscension: 1,
   declination: 0.2,
@@ -27,8 +27,22 @@ describe("injection manifest", () => {
     const json = JSON.parse(readFileSync(path, "utf8"));
     expect(json.synthetic).toBe(true);
     expect(json.noiseCurve).toBe("ajith2011");
-    expect(json.injections[0].chirpMass).toBeCloseTo(Math.pow(1.4 * 1.3, 0.6) / Math.pow(2.7, 0.2), 12);
+    expect(json.injections[0].chirpMassSolar).toBeCloseTo(Math.pow(1.4 * 1.3, 0.6) / Math.pow(2.7, 0.2), 12);
     expect(readInjectionFile(path)).toEqual([one, { ...one, coalescenceTime: 1000000090.5 }]);
+  });
+
+  it("reads a manifest in the previous layout (masses and distance without their unit)", () => {
+    const previous = `{
+  "synthetic": true, "noiseCurve": "ajith2011", "noise": true, "sampleRate": 2048, "startTime": 1000000000, "duration": 128, "fMinHz": 30, "seed": 7, "detector": "site-a",
+  "injections": [
+    {"primaryMass":1.4,"secondaryMass":1.3,"chirpMass":1.1742757165047846,"coalescenceTime":1000000040.25,"distance":40,"inclination":0.5,"rightAscension":1,"declination":0.2,"polarisation":0.3,"phase":0.4,"optimalSnr":17.5}
+  ]
+}`;
+    expect(parseInjections(previous, "old.json")).toEqual([one]);
+    // The checks apply under the previous names too.
+    expect(() => parseInjections(previous.replace('"secondaryMass":1.3', '"secondaryMass":1.5'), "old.json")).toThrow(
+      /^old\.json: injection 0: primaryMassSolar must be at least secondaryMassSolar/,
+    );
   });
 
   it("accepts a bare array and names the file and entry index of a bad record", () => {
@@ -38,7 +52,7 @@ describe("injection manifest", () => {
     expect(() => parseInjections("{", "c.json")).toThrow(/^c\.json: not valid JSON/);
     expect(() => parseInjections('{"x": 1}', "d.json")).toThrow(/d\.json: expected an array/);
     const dir = mkdtempSync(join(tmpdir(), "chirpsieve-manifest-"));
-    writeFileSync(join(dir, "e.json"), JSON.stringify([{ ...one, distance: "far" }]));
-    expect(() => readInjectionFile(join(dir, "e.json"))).toThrow(/e\.json: injection 0: distance must be a finite number \(got "far"\)/);
+    writeFileSync(join(dir, "e.json"), JSON.stringify([{ ...one, distanceMpc: "far" }]));
+    expect(() => readInjectionFile(join(dir, "e.json"))).toThrow(/e\.json: injection 0: distanceMpc must be a finite number \(got "far"\)/);
   });
 });

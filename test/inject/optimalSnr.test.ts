@@ -11,10 +11,10 @@ import { taylorT4Evolution } from "../../packages/core/src/waveform/taylorT4Evol
 // where F+ = cos 2ψ (our convention), so ψ = 0 gives the optimal orientation.
 const equator = detectorFromGeodetic({ name: "eq", degreesNorth: 0, degreesEast: 0, armBearingsDegrees: [90, 0] });
 const overhead: Injection = {
-  primaryMass: 1.4,
-  secondaryMass: 1.4,
+  primaryMassSolar: 1.4,
+  secondaryMassSolar: 1.4,
   coalescenceTime: 0, // sidereal angle 0, so RA 0 is overhead of 0° east
-  distance: 500,
+  distanceMpc: 500,
   inclination: 0,
   rightAscension: 0,
   declination: 0,
@@ -62,9 +62,9 @@ describe("optimal SNR", () => {
 
   it("scales as 1 / distance and halves edge-on (overhead, ψ = 0)", () => {
     const flat = flatPsd(1e-46);
-    const near: Injection = { ...overhead, primaryMass: 10, secondaryMass: 8, distance: 100 };
+    const near: Injection = { ...overhead, primaryMassSolar: 10, secondaryMassSolar: 8, distanceMpc: 100 };
     const a = optimalSnr(near, flat, 2048, 30, equator);
-    const b = optimalSnr({ ...near, distance: 250 }, flat, 2048, 30, equator);
+    const b = optimalSnr({ ...near, distanceMpc: 250 }, flat, 2048, 30, equator);
     expect(a / b).toBeCloseTo(2.5, 10);
     // Edge-on with ψ = 0 overhead: only h+ with half the amplitude reaches the detector.
     const edge = optimalSnr({ ...near, inclination: Math.PI / 2 }, flat, 2048, 30, equator);

@@ -5,7 +5,7 @@ import { SITE_A, SITE_B } from "../../packages/core/src/waveform/antenna.js";
 import { injectionAt } from "../search/fixtures.js";
 
 const settings: SimulationSettings = { psd: ajith2011, sampleRate: 1024, startTime: 0, duration: 8, fMinHz: 30, seed: "plan", noise: true };
-const inj = injectionAt(10, 8, 5.5, { distance: 200 });
+const inj = injectionAt(10, 8, 5.5, { distanceMpc: 200 });
 
 describe("planSimulationSites", () => {
   it("gives one site the seed SEED:noise and keeps its injection's stated SNR", () => {

@@ -42,7 +42,7 @@ describe("drawInjections with a spin range", () => {
 
 describe("spinning injections in the strain and the manifest", () => {
   it("are projected with the spinning TaylorT4: an aligned spin lengthens the chirp (more samples from the same start frequency)", () => {
-    const inj = { primaryMass: 10, secondaryMass: 6, coalescenceTime: 100, distance: 100, inclination: 0.3, rightAscension: 1, declination: 0.2, polarisation: 0.4, phase: 0 };
+    const inj = { primaryMassSolar: 10, secondaryMassSolar: 6, coalescenceTime: 100, distanceMpc: 100, inclination: 0.3, rightAscension: 1, declination: 0.2, polarisation: 0.4, phase: 0 };
     const opts = { sampleRate: 2048, fMinHz: 30 };
     const none = projectInjection(inj, SITE_A, opts).data.length;
     const up = projectInjection({ ...inj, primarySpin: 0.7, secondarySpin: 0.7 }, SITE_A, opts).data.length;
@@ -69,7 +69,7 @@ describe("spinning injections in the strain and the manifest", () => {
     expect("primarySpin" in m.injections[0]).toBe(false);
   });
   it("an injection file with a spin outside (−1, 1) is refused, naming the entry and the field", () => {
-    const inj = { primaryMass: 10, secondaryMass: 6, coalescenceTime: 100, distance: 100, inclination: 0.3, rightAscension: 1, declination: 0.2, polarisation: 0.4, phase: 0, secondarySpin: 1.5 };
+    const inj = { primaryMassSolar: 10, secondaryMassSolar: 6, coalescenceTime: 100, distanceMpc: 100, inclination: 0.3, rightAscension: 1, declination: 0.2, polarisation: 0.4, phase: 0, secondarySpin: 1.5 };
     expect(() => checkInjection(inj, "f.json: injection 0")).toThrow(/f\.json: injection 0: secondarySpin/);
   });
 });

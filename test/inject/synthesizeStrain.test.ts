@@ -6,10 +6,10 @@ import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
 const injections: Injection[] = [
   {
-    primaryMass: 12,
-    secondaryMass: 9,
+    primaryMassSolar: 12,
+    secondaryMassSolar: 9,
     coalescenceTime: 100.37,
-    distance: 50,
+    distanceMpc: 50,
     inclination: 0.3,
     rightAscension: 4,
     declination: 0.6,
@@ -17,10 +17,10 @@ const injections: Injection[] = [
     phase: 0.1,
   },
   {
-    primaryMass: 20,
-    secondaryMass: 15,
+    primaryMassSolar: 20,
+    secondaryMassSolar: 15,
     coalescenceTime: 103.9,
-    distance: 80,
+    distanceMpc: 80,
     inclination: 2.5,
     rightAscension: 1,
     declination: -1,

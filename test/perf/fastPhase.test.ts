@@ -80,7 +80,7 @@ describe("fast phase path of the search (taylorF2Phasor)", () => {
     });
     const exact = new Float64Array(2 * nBins);
     for (const [m1, m2] of [[1, 1], [2.2, 1.7], [3, 3]]) {
-      const kEnd = filter.generate({ primaryMass: m1, secondaryMass: m2 });
+      const kEnd = filter.generate({ primaryMassSolar: m1, secondaryMassSolar: m2 });
       expect(kEnd).toBe(taylorF2Into(exact, nBins, df, fMin, m1, m2, 1, 0.95 * (fs / 2)));
       const h = filter.template;
       let worst = 0;

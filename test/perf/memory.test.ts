@@ -52,8 +52,8 @@ function generatedNoise(seconds: number, seed: string, level = 1e-46): SearchInp
 
 const options: SearchOptions = {
   templates: [
-    { primaryMass: 12, secondaryMass: 10 },
-    { primaryMass: 9, secondaryMass: 7 },
+    { primaryMassSolar: 12, secondaryMassSolar: 10 },
+    { primaryMassSolar: 9, secondaryMassSolar: 7 },
   ],
   fMinHz: 40,
   snrThreshold: 6,

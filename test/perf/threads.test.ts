@@ -75,7 +75,7 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
     filter.load(data.slice(0, n), n);
     twin.load(data.slice(n), n);
     const bank = chirpMassGrid(2, 6, 0.06, [1, 0.6]);
-    const masses = new Float64Array(bank.flatMap((t) => [t.primaryMass, t.secondaryMass]));
+    const masses = new Float64Array(bank.flatMap((t) => [t.primaryMassSolar, t.secondaryMassSolar]));
     const config = { size: n, sampleRate: FS, fMinHz: FMIN, fMaxHz: 0.95 * (FS / 2), backend: "pffft" as const };
     const peaks = { start: 8 * FS, end: n - 2 * FS, threshold: 3.5, window: FS / 4 };
     const from = 5, to = bank.length - 3;
@@ -103,7 +103,7 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
   it("rejects a thread count that is not a positive integer", async () => {
     const data = simulatedData({ psd: ajith2011, fs: FS, seconds: 64, seed: "threads-bad", fMin: FMIN });
     const options: SearchOptions = {
-      templates: [{ primaryMass: 10, secondaryMass: 8 }],
+      templates: [{ primaryMassSolar: 10, secondaryMassSolar: 8 }],
       fMinHz: FMIN,
       snrThreshold: 6,
       chi2Bands: 0,

@@ -13,11 +13,11 @@ import { injectionAt, simulatedData } from "../search/fixtures.js";
  */
 async function overlap(m1: number, m2: number, fMin: number): Promise<number> {
   const fs = 2048;
-  const inj = injectionAt(m1, m2, 90.25, { distance: 100 });
+  const inj = injectionAt(m1, m2, 90.25, { distanceMpc: 100 });
   const data = simulatedData({ psd: ajith2011, fs, seconds: 128, seed: "none", fMin, injections: [inj], noise: false });
   const optimal = optimalSnrOfSeries(data, ajith2011, fs, fMin);
   const { candidates } = await searchStrain(arrayInput(data, fs), {
-    templates: [{ primaryMass: m1, secondaryMass: m2 }],
+    templates: [{ primaryMassSolar: m1, secondaryMassSolar: m2 }],
     fMinHz: fMin,
     snrThreshold: 1,
     chi2Bands: 0,

@@ -88,9 +88,9 @@ describe("inspiral share of the SNR when the signal continues to the ringdown fr
 describe("inspiral edge of a whole bank (tabulated integral)", () => {
   it("gives each template the share of inspiralSnrShare to 1e-3, and counts and bounds the templates below the threshold", async () => {
     const templates = [[1.4, 1.3], [5, 5], [9, 8], [12, 11], [30, 25, 0.5, 0.5], [20, 5, -0.5, 0]].map(([a, b, c, d]) => ({
-      primaryMass: a, secondaryMass: b, primarySpin: c, secondarySpin: d,
+      primaryMassSolar: a, secondaryMassSolar: b, primarySpin: c, secondarySpin: d,
     }));
-    const shares = templates.map((t) => inspiralSnrShare(t.primaryMass, t.secondaryMass, ajith2011, 30, { chi1: t.primarySpin ?? 0, chi2: t.secondarySpin ?? 0 }).share);
+    const shares = templates.map((t) => inspiralSnrShare(t.primaryMassSolar, t.secondaryMassSolar, ajith2011, 30, { chi1: t.primarySpin ?? 0, chi2: t.secondarySpin ?? 0 }).share);
     for (let i = 0; i < templates.length; i++) {
       const one = inspiralEdgeOfBank([templates[i]], ajith2011, 30, { threshold: 1 });
       expect(Math.abs(one.lowestShare - shares[i])).toBeLessThan(1e-3);
@@ -98,7 +98,7 @@ describe("inspiral edge of a whole bank (tabulated integral)", () => {
     const edge = inspiralEdgeOfBank(templates, ajith2011, 30, { threshold: 0.9 });
     const below = templates.filter((_, i) => shares[i] < 0.9);
     expect(edge.below).toBe(below.length);
-    const totals = below.map((t) => t.primaryMass + t.secondaryMass);
+    const totals = below.map((t) => t.primaryMassSolar + t.secondaryMassSolar);
     expect(edge.totalMassRangeSolar).toEqual([Math.min(...totals), Math.max(...totals)]);
     expect(edge.lowestShare).toBeCloseTo(Math.min(...shares), 3);
   });

@@ -7,10 +7,10 @@ import { taylorF2Into } from "../../packages/core/src/waveform/taylorf2.js";
 /** An injection with fixed angles (overhead-ish, face-on) at 100 Mpc; distance set later by SNR. */
 export function injectionAt(m1: number, m2: number, coalescenceTime: number, extra: Partial<Injection> = {}): Injection {
   return {
-    primaryMass: m1,
-    secondaryMass: m2,
+    primaryMassSolar: m1,
+    secondaryMassSolar: m2,
     coalescenceTime,
-    distance: 100,
+    distanceMpc: 100,
     inclination: 0.3,
     rightAscension: 1.1,
     declination: 0.4,
@@ -23,7 +23,7 @@ export function injectionAt(m1: number, m2: number, coalescenceTime: number, ext
 /** Rescales the injection's distance so its optimal SNR in `psd` is `snr` (SNR ∝ 1/distance). */
 export function atSnr(inj: Injection, snr: number, psd: PsdModel, fs: number, fMin: number): Injection {
   const rho = optimalSnr(inj, psd, fs, fMin, SITE_A);
-  return { ...inj, distance: (inj.distance * rho) / snr, optimalSnr: snr };
+  return { ...inj, distanceMpc: (inj.distanceMpc * rho) / snr, optimalSnr: snr };
 }
 
 /** When the injected signal reaches its ISCO at SITE_A (Earth-centre time plus the plane-wave delay). */
@@ -57,7 +57,7 @@ export function chirpMassGrid(mcMin: number, mcMax: number, step: number, ratios
     const eta = q / (1 + q) ** 2;
     for (let mc = mcMin; mc <= mcMax; mc *= 1 + step) {
       const m = mc / eta ** 0.6;
-      out.push({ primaryMass: m / (1 + q), secondaryMass: (m * q) / (1 + q) });
+      out.push({ primaryMassSolar: m / (1 + q), secondaryMassSolar: (m * q) / (1 + q) });
     }
   }
   return out;

@@ -139,8 +139,8 @@ describe("per-template output rate (reduced-rate inverse FFT, peaks refined to f
     const inj = atSnr(injectionAt(1.4, 1.3, 130.2718), 14, ajith2011, 2048, FMIN);
     const inj2 = atSnr(injectionAt(12, 8, 145.77), 18, ajith2011, 2048, FMIN);
     const data = simulatedData({ psd: ajith2011, fs: 2048, seconds: 192, seed: "rates-search", fMin: FMIN, injections: [inj, inj2] });
-    const bank = seededTemplates(40, "rates-search").map((t) => ({ primaryMass: t.m1, secondaryMass: t.m2 }));
-    bank.push({ primaryMass: 1.4, secondaryMass: 1.3 }, { primaryMass: 12, secondaryMass: 8 });
+    const bank = seededTemplates(40, "rates-search").map((t) => ({ primaryMassSolar: t.m1, secondaryMassSolar: t.m2 }));
+    bank.push({ primaryMassSolar: 1.4, secondaryMassSolar: 1.3 }, { primaryMassSolar: 12, secondaryMassSolar: 8 });
     const o = standardSearch(bank, FMIN, 7);
     const a = await searchStrain(arrayInput(data, 2048), o);
     const b = await searchStrain(arrayInput(data, 2048), { ...o, perTemplateRate: false });
@@ -159,7 +159,7 @@ describe("per-template output rate (reduced-rate inverse FFT, peaks refined to f
 
   it("refuses a band-power loss outside (0, 0.1]", async () => {
     const data = simulatedData({ psd: ajith2011, fs: 2048, seconds: 128, seed: "x", fMin: FMIN });
-    const o = { ...standardSearch([{ primaryMass: 1.4, secondaryMass: 1.4 }], FMIN, 7), bandPowerLoss: 0.5 };
+    const o = { ...standardSearch([{ primaryMassSolar: 1.4, secondaryMassSolar: 1.4 }], FMIN, 7), bandPowerLoss: 0.5 };
     await expect(searchStrain(arrayInput(data, 2048), o)).rejects.toThrow(/SNR² a template may lose/);
   });
 });

@@ -51,8 +51,8 @@ describe("spinning templates in the search", () => {
   // 10 + 8 M_sun with both spins 0.6 reaching its ISCO at 40.3 s, optimal SNR 20.
   const chirp = spinningChirp(10, 8, 0.6, 40.3, n, 20);
   for (let i = 0; i < n; i++) data[i] += chirp[i];
-  const withSpin: SearchTemplate[] = [{ primaryMass: 10, secondaryMass: 8, primarySpin: 0.6, secondarySpin: 0.6 }];
-  const without: SearchTemplate[] = [{ primaryMass: 10, secondaryMass: 8 }];
+  const withSpin: SearchTemplate[] = [{ primaryMassSolar: 10, secondaryMassSolar: 8, primarySpin: 0.6, secondarySpin: 0.6 }];
+  const without: SearchTemplate[] = [{ primaryMassSolar: 10, secondaryMassSolar: 8 }];
 
   const run = async (templates: SearchTemplate[], threads: number) =>
     (await searchStrain(arrayInput(data, FS, 0, "spin.f64"), { ...standardSearch(templates, FMIN, 8), psd: { kind: "model", model: ajith2011 }, threads })).candidates;
@@ -78,8 +78,8 @@ describe("spinning templates in the search", () => {
   it("gives the same candidates with worker threads as with one thread for spinning templates", async () => {
     const templates: SearchTemplate[] = [
       ...withSpin,
-      { primaryMass: 10, secondaryMass: 8, primarySpin: 0.3, secondarySpin: -0.2 },
-      { primaryMass: 11, secondaryMass: 7, primarySpin: 0.6, secondarySpin: 0.6 },
+      { primaryMassSolar: 10, secondaryMassSolar: 8, primarySpin: 0.3, secondarySpin: -0.2 },
+      { primaryMassSolar: 11, secondaryMassSolar: 7, primarySpin: 0.6, secondarySpin: 0.6 },
     ];
     const one = await run(templates, 1);
     const two = await run(templates, 2);

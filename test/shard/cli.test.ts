@@ -21,7 +21,7 @@ describe("scan --shard and merge on the command line", () => {
     // Invented scenario: 40 s of seeded noise at 1024 Hz with one chirp (10+8 M_sun) at t = 20.2 s.
     const fs = 1024;
     const data = colouredNoise(ajith2011, 40 * fs, fs, "shard-cli");
-    injectInto(data, fs, 0, { ...injectionAt(10, 8, 20.2), distance: 80 }, SITE_A, 40);
+    injectInto(data, fs, 0, { ...injectionAt(10, 8, 20.2), distanceMpc: 80 }, SITE_A, 40);
     await writeStrain(strain, { data, sampleRate: fs, startTime: 0 });
     single = runCli([...SCAN, "--json"]).stdout;
   });

@@ -24,7 +24,7 @@ describe("scan --resume on the command line", () => {
     // Invented scenario: 64 s of seeded noise at 1024 Hz with one chirp (9+7 M_sun) at t = 30.2 s.
     const fs = 1024;
     const data = colouredNoise(ajith2011, 64 * fs, fs, "resume-cli");
-    injectInto(data, fs, 0, { ...injectionAt(9, 7, 30.2), distance: 80 }, SITE_A, 40);
+    injectInto(data, fs, 0, { ...injectionAt(9, 7, 30.2), distanceMpc: 80 }, SITE_A, 40);
     await writeStrain(strain, { data, sampleRate: fs, startTime: 0 });
     single = runCli([...SCAN, "--json"]).stdout;
   });

@@ -8,7 +8,7 @@ import { INK, POINT_MARK } from "./plotStyle.js";
 export function renderBankPlot(bank: TemplateBank): string {
   const width = 520;
   const height = 440;
-  const pts = bank.templates.map((t) => ({ tau0: t.tau0, tau3: t.tau3, m1: t.primaryMass, m2: t.secondaryMass }));
+  const pts = bank.templates.map((t) => ({ tau0: t.tau0, tau3: t.tau3, m1: t.primaryMassSolar, m2: t.secondaryMassSolar }));
   const r = pts.length > 5000 ? 0.6 : pts.length > 1000 ? 1 : 1.8;
   const left = renderSvg({
     width,

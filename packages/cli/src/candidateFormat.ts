@@ -47,9 +47,9 @@ export function candidateRecord(c: Candidate): Record<string, unknown> {
     chi2: round(c.chi2, 3),
     chi2Dof: c.chi2Dof,
     phase: round(c.phase, 4),
-    chirpMass: round(c.chirpMass, 5),
-    primaryMass: round(c.primaryMass, 5),
-    secondaryMass: round(c.secondaryMass, 5),
+    chirpMassSolar: round(c.chirpMassSolar, 5),
+    primaryMassSolar: round(c.primaryMassSolar, 5),
+    secondaryMassSolar: round(c.secondaryMassSolar, 5),
     primarySpin: round(c.primarySpin ?? 0, 5),
     secondarySpin: round(c.secondarySpin ?? 0, 5),
     effectiveSpin: round(c.effectiveSpin ?? 0, 5),
@@ -66,8 +66,8 @@ function round(x: number, digits: number): number {
 }
 
 const CSV_FIELDS = [
-  "coalescenceTime", "snr", "reweightedSnr", "chi2", "chi2Dof", "phase", "chirpMass",
-  "primaryMass", "secondaryMass", "primarySpin", "secondarySpin", "effectiveSpin", "effectiveDistanceMpc", "templateIndex", "file",
+  "coalescenceTime", "snr", "reweightedSnr", "chi2", "chi2Dof", "phase", "chirpMassSolar",
+  "primaryMassSolar", "secondaryMassSolar", "primarySpin", "secondarySpin", "effectiveSpin", "effectiveDistanceMpc", "templateIndex", "file",
 ] as const;
 
 /**
@@ -112,9 +112,9 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
     c.snr.toFixed(2),
     c.reweightedSnr.toFixed(2),
     c.chi2Dof > 0 ? `${(c.chi2 / c.chi2Dof).toFixed(2)}` : "-",
-    c.chirpMass.toFixed(4),
-    c.primaryMass.toFixed(3),
-    c.secondaryMass.toFixed(3),
+    c.chirpMassSolar.toFixed(4),
+    c.primaryMassSolar.toFixed(3),
+    c.secondaryMassSolar.toFixed(3),
     ...(spinning ? [(c.primarySpin ?? 0).toFixed(3), (c.secondarySpin ?? 0).toFixed(3), (c.effectiveSpin ?? 0).toFixed(3)] : []),
     Number.isNaN(c.effectiveDistanceMpc) ? "—" : c.effectiveDistanceMpc.toFixed(1),
     c.file,
@@ -165,12 +165,12 @@ export function formatCandidatesTable(candidates: Candidate[], summary: Record<s
 /** CSV of coincidences: one row each, per-site SNRs in `SITE:snr` columns; the summary trailer as for candidates. */
 export function formatCoincidencesCsv(coincidences: Coincidence[], summary?: Record<string, unknown>): string {
   const sites = [...new Set(coincidences.flatMap((c) => Object.keys(c.sites)))];
-  const head = ["coalescenceTime", "rankingStatistic", "falseAlarmRatePerYear", "falseAlarmRateIsUpperLimit", "falseAlarmProbability", "chirpMass", "templateIndex", "slides", ...sites.flatMap((s) => [`${s}:snr`, `${s}:reweightedSnr`, `${s}:coalescenceTime`])];
+  const head = ["coalescenceTime", "rankingStatistic", "falseAlarmRatePerYear", "falseAlarmRateIsUpperLimit", "falseAlarmProbability", "chirpMassSolar", "templateIndex", "slides", ...sites.flatMap((s) => [`${s}:snr`, `${s}:reweightedSnr`, `${s}:coalescenceTime`])];
   const rows = [head.join(",")];
   for (const c of coincidences) {
     rows.push([
       c.coalescenceTime.toFixed(6), c.rankingStatistic.toFixed(4), String(c.falseAlarmRatePerYear), String(c.falseAlarmRateIsUpperLimit),
-      String(c.falseAlarmProbability), c.chirpMass.toFixed(5), String(c.templateIndex), String(c.slides),
+      String(c.falseAlarmProbability), c.chirpMassSolar.toFixed(5), String(c.templateIndex), String(c.slides),
       ...sites.flatMap((s) => {
         const m = c.sites[s];
         return m ? [m.snr.toFixed(4), m.reweightedSnr.toFixed(4), m.coalescenceTime.toFixed(6)] : ["", "", ""];
@@ -190,7 +190,7 @@ export function formatCoincidencesTable(coincidences: Coincidence[], singles: nu
     c.rankingStatistic.toFixed(2),
     `${c.falseAlarmRateIsUpperLimit ? "< " : ""}${c.falseAlarmRatePerYear.toPrecision(3)}`,
     c.falseAlarmProbability.toPrecision(3),
-    c.chirpMass.toFixed(4),
+    c.chirpMassSolar.toFixed(4),
     Object.entries(c.sites).map(([n, m]) => `${n} ${m.snr.toFixed(1)}`).join(", "),
   ]);
   const out = [`${coincidences.length} coincidence(s) between sites; ${singles} single-site candidate(s) not in any coincidence (in --json output)`];

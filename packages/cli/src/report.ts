@@ -114,7 +114,7 @@ export function renderCampaignReport(doc: CampaignDocument): string {
   );
 
   // 3. Found and missed injections in distance and chirp mass.
-  const fm = injections.map((o) => ({ d: o.distanceMpc, mc: o.chirpMass, found: o.found, snr: o.optimalSnr }));
+  const fm = injections.map((o) => ({ d: o.distanceMpc, mc: o.chirpMassSolar, found: o.found, snr: o.optimalSnr }));
   figures.push(
     figure(
       "found-missed",
@@ -216,14 +216,14 @@ export function renderCampaignReport(doc: CampaignDocument): string {
     .map(
       (o) =>
         `<tr><td>${o.index}</td><td>${o.batch}</td><td>${o.optimalSnr.toFixed(2)}</td><td>${o.distanceMpc.toPrecision(4)}</td>` +
-        `<td>${o.primaryMass.toFixed(3)} + ${o.secondaryMass.toFixed(3)}</td><td>${o.chirpMass.toFixed(4)}</td>` +
+        `<td>${o.primaryMassSolar.toFixed(3)} + ${o.secondaryMassSolar.toFixed(3)}</td><td>${o.chirpMassSolar.toFixed(4)}</td>` +
         `<td>${o.arrivalTime.toFixed(4)}</td><td>${o.inclination.toFixed(2)}</td></tr>`,
     )
     .join("\n");
   const falseRows = [...doc.falseCandidates]
     .sort((a, b) => b.snr - a.snr)
     .slice(0, 10)
-    .map((c) => `<tr><td>${c.batch}</td><td>${c.coalescenceTime.toFixed(4)}</td><td>${c.snr.toFixed(2)}</td><td>${c.reweightedSnr.toFixed(2)}</td><td>${c.chirpMass.toFixed(4)}</td></tr>`)
+    .map((c) => `<tr><td>${c.batch}</td><td>${c.coalescenceTime.toFixed(4)}</td><td>${c.snr.toFixed(2)}</td><td>${c.reweightedSnr.toFixed(2)}</td><td>${c.chirpMassSolar.toFixed(4)}</td></tr>`)
     .join("\n");
   const reqRows = doc.requirements
     .map((q) => `<tr class="${q.met ? "met" : "unmet"}"><td><code>${esc(q.rule)}</code></td><td>${q.met ? "met" : "NOT MET"}</td><td>${esc(q.detail)}</td></tr>`)

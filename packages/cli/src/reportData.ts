@@ -116,9 +116,9 @@ export function campaignDocument(input: {
   const injections: InjectionOutcome[] = input.outcomes.map((o) => ({
     index: o.index,
     batch: o.batch,
-    primaryMass: r(o.primaryMass, 6)!,
-    secondaryMass: r(o.secondaryMass, 6)!,
-    chirpMass: r(o.chirpMass, 6)!,
+    primaryMassSolar: r(o.primaryMassSolar, 6)!,
+    secondaryMassSolar: r(o.secondaryMassSolar, 6)!,
+    chirpMassSolar: r(o.chirpMassSolar, 6)!,
     coalescenceTime: r(o.coalescenceTime, 6)!,
     arrivalTime: r(o.arrivalTime, 6)!,
     distanceMpc: sig(o.distanceMpc, 6)!,
@@ -131,7 +131,7 @@ export function campaignDocument(input: {
     found: o.found,
     recoveredSnr: r(o.recoveredSnr, 4),
     reweightedSnr: r(o.reweightedSnr, 4),
-    recoveredChirpMass: r(o.recoveredChirpMass, 6),
+    recoveredChirpMassSolar: r(o.recoveredChirpMassSolar, 6),
     chirpMassError: r(o.chirpMassError, 8),
     timeError: r(o.timeError, 7),
     ...(o.primarySpin !== undefined ? { primarySpin: r(o.primarySpin, 5)!, secondarySpin: r(o.secondarySpin ?? 0, 5)! } : {}),
@@ -141,7 +141,7 @@ export function campaignDocument(input: {
     coalescenceTime: r(c.coalescenceTime, 6)!,
     snr: r(c.snr, 4)!,
     reweightedSnr: r(c.reweightedSnr, 4)!,
-    chirpMass: r(c.chirpMass, 6)!,
+    chirpMassSolar: r(c.chirpMassSolar, 6)!,
   }));
   const l = input.layout;
   return {

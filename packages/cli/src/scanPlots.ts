@@ -34,7 +34,7 @@ export async function writeScanPlots(
       const template = options.templates[c.templateIndex];
       // snrAroundTime works in the template's peak times; the candidate's time is when the template
       // reaches its ISCO, a fixed offset later.
-      const offset = templateIscoTimeOffset(template.primaryMass, template.secondaryMass, options.fMinHz);
+      const offset = templateIscoTimeOffset(template.primaryMassSolar, template.secondaryMassSolar, options.fMinHz);
       const r = await snrAroundTime(input, options, template, c.coalescenceTime - offset, 2);
       const points = Array.from(r.times, (t, i) => ({ t: t + offset - c.coalescenceTime, snr: r.snr[i] }));
       const svg = renderSvg({
@@ -46,7 +46,7 @@ export async function writeScanPlots(
         marks: [
           Plot.line(points, { x: "t", y: "snr", stroke: INK.main }),
           Plot.ruleY([options.snrThreshold], { stroke: INK.guide, strokeDasharray: GUIDE_DASH }),
-          Plot.text([{ t: 0, snr: c.snr }], { x: "t", y: "snr", text: () => `SNR ${c.snr.toFixed(1)}, Mc ${c.chirpMass.toFixed(3)} M☉ (candidate)`, dy: -8 }),
+          Plot.text([{ t: 0, snr: c.snr }], { x: "t", y: "snr", text: () => `SNR ${c.snr.toFixed(1)}, Mc ${c.chirpMassSolar.toFixed(3)} M☉ (candidate)`, dy: -8 }),
         ],
       });
       const name = join(dir, `snr-${rank + 1}.svg`);

@@ -314,9 +314,9 @@ function verifyText(file: string, bank: TemplateBank, r: CoverageReport): string
     `worst draws:`,
     ...r.worst.map((w) => {
       const t = bank.templates[w.bestTemplate];
-      const spins = w.chi1 === undefined ? "" : ` χ ${w.chi1.toFixed(2)}, ${w.chi2!.toFixed(2)}`;
+      const spins = w.primarySpin === undefined ? "" : ` χ ${w.primarySpin.toFixed(2)}, ${w.secondarySpin!.toFixed(2)}`;
       const tSpins = t && (t.primarySpin || t.secondarySpin) ? ` χ ${(t.primarySpin ?? 0).toFixed(2)}, ${(t.secondarySpin ?? 0).toFixed(2)}` : "";
-      return `  ${fmt(w.m1)} + ${fmt(w.m2)} M_sun${spins}: FF ${w.fittingFactor.toFixed(4)}${t ? ` (best template ${fmt(t.primaryMass)} + ${fmt(t.secondaryMass)}${tSpins})` : ""}`;
+      return `  ${fmt(w.primaryMassSolar)} + ${fmt(w.secondaryMassSolar)} M_sun${spins}: FF ${w.fittingFactor.toFixed(4)}${t ? ` (best template ${fmt(t.primaryMassSolar)} + ${fmt(t.secondaryMassSolar)}${tSpins})` : ""}`;
     }),
     `matches on a ${r.grid.dfHz} Hz grid (${r.grid.fftSize}-point inverse FFTs), ${r.matchesPerDraw.toFixed(1)} templates per draw ` +
       `(metric neighbours), ${(r.wallTimeMs / 1000).toFixed(1)} s`,

@@ -294,8 +294,8 @@ async function runSimulate(flags: SimulateFlags, cmd: Command): Promise<void> {
       );
       for (const inj of siteInjections) {
         lines.push(
-          `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMass.toFixed(3)}+${inj.secondaryMass.toFixed(3)} M_sun ` +
-            `(chirp mass ${chirpMass(inj.primaryMass, inj.secondaryMass).toFixed(4)})  ${inj.distance.toPrecision(4)} Mpc  ` +
+          `  t_c ${inj.coalescenceTime.toFixed(4)} s  ${inj.primaryMassSolar.toFixed(3)}+${inj.secondaryMassSolar.toFixed(3)} M_sun ` +
+            `(chirp mass ${chirpMass(inj.primaryMassSolar, inj.secondaryMassSolar).toFixed(4)})  ${inj.distanceMpc.toPrecision(4)} Mpc  ` +
             `optimal SNR ${(inj.optimalSnr ?? Number.NaN).toFixed(2)}${inj.networkOptimalSnr !== undefined ? ` (network ${inj.networkOptimalSnr.toFixed(2)})` : ""}` +
             (inj.primarySpin !== undefined || inj.secondarySpin !== undefined
               ? `  spins ${(inj.primarySpin ?? 0).toFixed(3)}, ${(inj.secondarySpin ?? 0).toFixed(3)}`

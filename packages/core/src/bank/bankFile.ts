@@ -2,34 +2,35 @@
 import { readTextInput } from "../io/readTextInput.js";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
+import { BANK_KEY_RENAMES, MASS_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 import { chirpTimesFromComponents } from "./chirpTimeCoordinates.js";
 import type { BankGenerator, Template, TemplateBank } from "./templateBank.js";
 
 /**
  * The bank as JSON text:
- *   {"fmin", "matchFloor", "noiseCurve", "massRange": [min, max], optional "totalMassCap",
- *    "massRatioCap", "fmax", "spinRange": [min, max], "generator": {"tool", "version", "arguments"},
- *    "templates": [{"primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"[, "primarySpin", "secondarySpin"]}, ...]}
- * Masses in solar masses, frequencies in Hz, chirp times (non-spinning) in seconds from fmin, spins
+ *   {"fMinHz", "matchFloor", "noiseCurve", "massRangeSolar": [min, max], optional "totalMassCapSolar",
+ *    "massRatioCap", "fMaxHz", "spinRange": [min, max], "generator": {"tool", "version", "arguments"},
+ *    "templates": [{"primaryMassSolar", "secondaryMassSolar", "chirpMassSolar", "tau0", "tau3"[, "primarySpin", "secondarySpin"]}, ...]}
+ * Masses in solar masses, frequencies in Hz, chirp times (non-spinning) in seconds from fMinHz, spins
  * dimensionless along the orbital angular momentum (written for every template of a bank with a
  * spinRange, and for any template with a non-zero spin). One template per line.
  */
 export function formatBankFile(bank: TemplateBank): string {
   const head: Record<string, unknown> = {
-    fmin: bank.fMinHz,
+    fMinHz: bank.fMinHz,
     matchFloor: bank.matchFloor,
     noiseCurve: bank.noiseCurve,
-    massRange: bank.massRangeSolar,
+    massRangeSolar: bank.massRangeSolar,
   };
-  if (bank.totalMassCapSolar !== undefined) head.totalMassCap = bank.totalMassCapSolar;
+  if (bank.totalMassCapSolar !== undefined) head.totalMassCapSolar = bank.totalMassCapSolar;
   if (bank.massRatioCap !== undefined) head.massRatioCap = bank.massRatioCap;
-  if (bank.fMaxHz !== undefined) head.fmax = bank.fMaxHz;
+  if (bank.fMaxHz !== undefined) head.fMaxHz = bank.fMaxHz;
   if (bank.spinRange !== undefined) head.spinRange = bank.spinRange;
   if (bank.generator) head.generator = bank.generator;
   const lines = Object.entries(head).map(([k, v]) => `  ${JSON.stringify(k)}: ${JSON.stringify(v)}`);
   const rows = bank.templates.map((t) => {
     const spins = bank.spinRange !== undefined || t.primarySpin || t.secondarySpin ? `, "primarySpin": ${t.primarySpin ?? 0}, "secondarySpin": ${t.secondarySpin ?? 0}` : "";
-    return `    {"primaryMass": ${t.primaryMass}, "secondaryMass": ${t.secondaryMass}, "chirpMass": ${t.chirpMass}, "tau0": ${t.tau0}, "tau3": ${t.tau3}${spins}}`;
+    return `    {"primaryMassSolar": ${t.primaryMassSolar}, "secondaryMassSolar": ${t.secondaryMassSolar}, "chirpMassSolar": ${t.chirpMassSolar}, "tau0": ${t.tau0}, "tau3": ${t.tau3}${spins}}`;
   });
   return `{\n${lines.join(",\n")},\n  "templates": [\n${rows.join(",\n")}\n  ]\n}\n`;
 }
@@ -51,10 +52,12 @@ function shown(v: unknown): string {
 
 /**
  * Parses bank JSON (see {@link formatBankFile}). Checks every field: positive finite numbers,
- * 0 < matchFloor < 1, massRange min < max, primaryMass ≥ secondaryMass, and that each template's
- * chirpMass, tau0 and tau3 agree with its masses (relative 1e-6; chirp times from fmin, Sathyaprakash,
+ * 0 < matchFloor < 1, massRangeSolar min < max, primaryMassSolar ≥ secondaryMassSolar, and that each template's
+ * chirpMassSolar, tau0 and tau3 agree with its masses (relative 1e-6; chirp times from fMinHz, Sathyaprakash,
  * Phys. Rev. D 50, R7111 (1994)), spins (when present) in (−1, 1) and spinRange [min, max] with
  * −1 < min < max < 1 (spins outside it are refused). Throws InputError "<label>: <what> ..." on the first problem.
+ * Files written before the keys carried their units (fmin, fmax, massRange, totalMassCap; primaryMass,
+ * secondaryMass, chirpMass in templates) are read too ({@link withCurrentKeys}).
  */
 export function parseBankFile(text: string, label: string): TemplateBank {
   let raw: unknown;
@@ -64,7 +67,7 @@ export function parseBankFile(text: string, label: string): TemplateBank {
     throw new InputError(`${label}: not valid JSON (${(err as Error).message.split("\n")[0]})`);
   }
   if (typeof raw !== "object" || raw === null || Array.isArray(raw)) throw new InputError(`${label}: expected a JSON object with "templates"`);
-  const o = raw as Record<string, unknown>;
+  const o = withCurrentKeys(raw, BANK_KEY_RENAMES) as Record<string, unknown>;
   const num = (key: string, v: unknown, where = key): number => {
     if (typeof v !== "number" || !Number.isFinite(v)) throw new InputError(`${label}: ${where} must be a number (got ${shown(v)})`);
     return v;
@@ -74,30 +77,30 @@ export function parseBankFile(text: string, label: string): TemplateBank {
     if (!(x > 0)) throw new InputError(`${label}: ${where} must be positive (got ${x})`);
     return x;
   };
-  for (const key of ["fmin", "matchFloor", "noiseCurve", "massRange", "templates"]) {
+  for (const key of ["fMinHz", "matchFloor", "noiseCurve", "massRangeSolar", "templates"]) {
     if (!(key in o)) throw new InputError(`${label}: missing "${key}"`);
   }
-  const fMinHz = positive("fmin", o.fmin);
+  const fMinHz = positive("fMinHz", o.fMinHz);
   const matchFloor = num("matchFloor", o.matchFloor);
   if (!(matchFloor > 0 && matchFloor < 1)) throw new InputError(`${label}: matchFloor must be strictly between 0 and 1 (got ${matchFloor})`);
   if (typeof o.noiseCurve !== "string" || o.noiseCurve.trim() === "") {
     throw new InputError(`${label}: noiseCurve must be a non-empty string (got ${shown(o.noiseCurve)})`);
   }
-  const mr = o.massRange;
-  if (!Array.isArray(mr) || mr.length !== 2) throw new InputError(`${label}: massRange must be [min, max] (got ${shown(mr)})`);
-  const mMin = positive("massRange", mr[0], "massRange[0]");
-  const mMax = positive("massRange", mr[1], "massRange[1]");
-  if (!(mMin < mMax)) throw new InputError(`${label}: massRange minimum ${mMin} must be below the maximum ${mMax}`);
+  const mr = o.massRangeSolar;
+  if (!Array.isArray(mr) || mr.length !== 2) throw new InputError(`${label}: massRangeSolar must be [min, max] (got ${shown(mr)})`);
+  const mMin = positive("massRangeSolar", mr[0], "massRangeSolar[0]");
+  const mMax = positive("massRangeSolar", mr[1], "massRangeSolar[1]");
+  if (!(mMin < mMax)) throw new InputError(`${label}: massRangeSolar minimum ${mMin} must be below the maximum ${mMax}`);
   const bank: TemplateBank = { fMinHz, matchFloor, noiseCurve: o.noiseCurve, massRangeSolar: [mMin, mMax], templates: [] };
-  if (o.totalMassCap !== undefined) bank.totalMassCapSolar = positive("totalMassCap", o.totalMassCap);
+  if (o.totalMassCapSolar !== undefined) bank.totalMassCapSolar = positive("totalMassCapSolar", o.totalMassCapSolar);
   if (o.massRatioCap !== undefined) {
     const q = num("massRatioCap", o.massRatioCap);
     if (!(q > 1)) throw new InputError(`${label}: massRatioCap must be above 1 (got ${q})`);
     bank.massRatioCap = q;
   }
-  if (o.fmax !== undefined) {
-    const f = positive("fmax", o.fmax);
-    if (!(f > fMinHz)) throw new InputError(`${label}: fmax ${f} must be above fmin ${fMinHz}`);
+  if (o.fMaxHz !== undefined) {
+    const f = positive("fMaxHz", o.fMaxHz);
+    if (!(f > fMinHz)) throw new InputError(`${label}: fMaxHz ${f} must be above fMinHz ${fMinHz}`);
     bank.fMaxHz = f;
   }
   if (o.spinRange !== undefined) {
@@ -121,22 +124,22 @@ export function parseBankFile(text: string, label: string): TemplateBank {
   o.templates.forEach((entry: unknown, i: number) => {
     const where = `templates[${i}]`;
     if (typeof entry !== "object" || entry === null) throw new InputError(`${label}: ${where} must be an object`);
-    const e = entry as Record<string, unknown>;
-    for (const key of ["primaryMass", "secondaryMass", "chirpMass", "tau0", "tau3"]) {
+    const e = withCurrentKeys(entry, MASS_KEY_RENAMES) as Record<string, unknown>;
+    for (const key of ["primaryMassSolar", "secondaryMassSolar", "chirpMassSolar", "tau0", "tau3"]) {
       if (!(key in e)) throw new InputError(`${label}: ${where} is missing "${key}"`);
     }
-    const m1 = positive("", e.primaryMass, `${where}.primaryMass`);
-    const m2 = positive("", e.secondaryMass, `${where}.secondaryMass`);
-    const mc = positive("", e.chirpMass, `${where}.chirpMass`);
+    const m1 = positive("", e.primaryMassSolar, `${where}.primaryMassSolar`);
+    const m2 = positive("", e.secondaryMassSolar, `${where}.secondaryMassSolar`);
+    const mc = positive("", e.chirpMassSolar, `${where}.chirpMassSolar`);
     const t0 = positive("", e.tau0, `${where}.tau0`);
     const t3 = positive("", e.tau3, `${where}.tau3`);
-    if (m2 > m1 * (1 + 1e-12)) throw new InputError(`${label}: ${where}: secondaryMass ${m2} exceeds primaryMass ${m1}`);
+    if (m2 > m1 * (1 + 1e-12)) throw new InputError(`${label}: ${where}: secondaryMassSolar ${m2} exceeds primaryMassSolar ${m1}`);
     const mcExpected = Math.pow(m1 * m2, 0.6) / Math.pow(m1 + m2, 0.2);
-    if (!close(mc, mcExpected)) throw new InputError(`${label}: ${where}.chirpMass ${mc} does not match the masses (expected ${mcExpected})`);
+    if (!close(mc, mcExpected)) throw new InputError(`${label}: ${where}.chirpMassSolar ${mc} does not match the masses (expected ${mcExpected})`);
     const ct = chirpTimesFromComponents(m1, m2, fMinHz);
-    if (!close(t0, ct.tau0)) throw new InputError(`${label}: ${where}.tau0 ${t0} does not match the masses at fmin ${fMinHz} Hz (expected ${ct.tau0})`);
-    if (!close(t3, ct.tau3)) throw new InputError(`${label}: ${where}.tau3 ${t3} does not match the masses at fmin ${fMinHz} Hz (expected ${ct.tau3})`);
-    const t: Template = { primaryMass: m1, secondaryMass: m2, chirpMass: mc, tau0: t0, tau3: t3 };
+    if (!close(t0, ct.tau0)) throw new InputError(`${label}: ${where}.tau0 ${t0} does not match the masses from fMinHz = ${fMinHz} Hz (expected ${ct.tau0})`);
+    if (!close(t3, ct.tau3)) throw new InputError(`${label}: ${where}.tau3 ${t3} does not match the masses from fMinHz = ${fMinHz} Hz (expected ${ct.tau3})`);
+    const t: Template = { primaryMassSolar: m1, secondaryMassSolar: m2, chirpMassSolar: mc, tau0: t0, tau3: t3 };
     if ("primarySpin" in e || "secondarySpin" in e) {
       const spin = (key: "primarySpin" | "secondarySpin"): number => {
         const x = num("", e[key] ?? 0, `${where}.${key}`);

@@ -127,16 +127,16 @@ export function buildSpinBankWithReport(options: BuildSpinBankOptions): { bank: 
     const { m1, m2 } = spinPointComponents(p);
     const ct = chirpTimesFromComponents(m1, m2, options.fMinHz);
     return {
-      primaryMass: m1,
-      secondaryMass: m2,
-      chirpMass: chirpMassFromMassEta(m1 + m2, p.eta),
+      primaryMassSolar: m1,
+      secondaryMassSolar: m2,
+      chirpMassSolar: chirpMassFromMassEta(m1 + m2, p.eta),
       tau0: ct.tau0,
       tau3: ct.tau3,
       primarySpin: p.spin,
       secondarySpin: p.spin,
     };
   });
-  templates.sort((a, b) => a.chirpMass - b.chirpMass || a.primaryMass - b.primaryMass || a.primarySpin! - b.primarySpin!);
+  templates.sort((a, b) => a.chirpMassSolar - b.chirpMassSolar || a.primaryMassSolar - b.primaryMassSolar || a.primarySpin! - b.primarySpin!);
   if (templates.length === 0) {
     throw new InputError(`the placement found no template for ${options.massRangeSolar.join("–")} M_sun from ${options.fMinHz} Hz; widen the band or the ranges`);
   }

@@ -16,9 +16,9 @@ import { chirpMassFromMassEta, componentsFromMassEta, iscoFrequencyHz, massEtaFr
  * (non-spinning). The chirp times are those of the non-spinning series.
  */
 export interface Template {
-  primaryMass: number;
-  secondaryMass: number;
-  chirpMass: number;
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
+  chirpMassSolar: number;
   tau0: number;
   tau3: number;
   /** Aligned spin χ1 of the primary (default 0). */
@@ -214,9 +214,9 @@ export function buildBankWithReport(options: BuildBankOptions): { bank: Template
     const { totalMassSolar, eta } = massEtaFromChirpTimes(p.tau0, p.tau3, fMinHz);
     const e = Math.min(eta, 0.25);
     const c = componentsFromMassEta(totalMassSolar, e);
-    return { primaryMass: c.m1, secondaryMass: c.m2, chirpMass: chirpMassFromMassEta(totalMassSolar, e), tau0: p.tau0, tau3: p.tau3 };
+    return { primaryMassSolar: c.m1, secondaryMassSolar: c.m2, chirpMassSolar: chirpMassFromMassEta(totalMassSolar, e), tau0: p.tau0, tau3: p.tau3 };
   });
-  templates.sort((a, b) => a.chirpMass - b.chirpMass || a.primaryMass - b.primaryMass);
+  templates.sort((a, b) => a.chirpMassSolar - b.chirpMassSolar || a.primaryMassSolar - b.primaryMassSolar);
   // Never hand back an empty bank as if it covered the region (the band rule above keeps this from
   // happening in every case we know of).
   if (templates.length === 0) {

@@ -44,11 +44,12 @@ export interface VerifyOptions {
 
 /** One draw's outcome. */
 export interface FittingFactorDraw {
-  m1: number;
-  m2: number;
-  /** Aligned spins of the draw (spinning draws only; verifySpins.ts). */
-  chi1?: number;
-  chi2?: number;
+  /** Component masses of the draw, heavier first (M_sun). */
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
+  /** Aligned spins χ1, χ2 of the draw (spinning draws only; verifySpins.ts). */
+  primarySpin?: number;
+  secondarySpin?: number;
   fittingFactor: number;
   /** Index (in bank.templates) of the best template. */
   bestTemplate: number;
@@ -211,7 +212,7 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     const [x0, x1] = chart.toX(t.tau0, t.tau3);
     tx[i] = x0;
     ty[i] = x1;
-    tCut[i] = Math.min(iscoFrequencyHz(t.primaryMass + t.secondaryMass), fmax);
+    tCut[i] = Math.min(iscoFrequencyHz(t.primaryMassSolar + t.secondaryMassSolar), fmax);
     fTop = Math.max(fTop, tCut[i]);
     longest = Math.max(longest, t.tau0);
   }
@@ -246,7 +247,7 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     let bestIdx = -1;
     const evaluate = (i: number): void => {
       const t = templates[i];
-      gen.generate(tmp, fmin, t.primaryMass, t.secondaryMass, 1, fmax);
+      gen.generate(tmp, fmin, t.primaryMassSolar, t.secondaryMassSolar, 1, fmax);
       const m = mc.match(sig, tmp, sigCut, tCut[i], sigNorm).match;
       matchCount++;
       if (m > best) {
@@ -281,7 +282,7 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
           modelled.add(i);
           const t = templates[i];
           const mu =
-            tangent.mismatch(t.tau0 - ct.tau0, t.tau3 - ct.tau3) + cutoffLoss * Math.abs(Math.log(t.primaryMass + t.secondaryMass) - lnMass);
+            tangent.mismatch(t.tau0 - ct.tau0, t.tau3 - ct.tau3) + cutoffLoss * Math.abs(Math.log(t.primaryMassSolar + t.secondaryMassSolar) - lnMass);
           ranked.push({ i, mu });
         }
         ranked.sort((a, b) => a.mu - b.mu || a.i - b.i);
@@ -300,7 +301,7 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
         for (let i = 0; i < nT; i++) evaluate(i);
       }
     }
-    results.push({ m1, m2, fittingFactor: best, bestTemplate: bestIdx });
+    results.push({ primaryMassSolar: m1, secondaryMassSolar: m2, fittingFactor: best, bestTemplate: bestIdx });
     options.onProgress?.(k + 1, drawn.length);
   }
   return {

@@ -59,9 +59,9 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
   let fTop = 0;
   for (let i = 0; i < nT; i++) {
     const t = templates[i];
-    const u = spinCoordinatesFromComponents(t.primaryMass, t.secondaryMass, t.primarySpin ?? 0, t.secondarySpin ?? 0, fmin);
+    const u = spinCoordinatesFromComponents(t.primaryMassSolar, t.secondaryMassSolar, t.primarySpin ?? 0, t.secondarySpin ?? 0, fmin);
     tu.set(u, 3 * i);
-    tCut[i] = Math.min(iscoFrequencyHz(t.primaryMass + t.secondaryMass), fmax);
+    tCut[i] = Math.min(iscoFrequencyHz(t.primaryMassSolar + t.secondaryMassSolar), fmax);
     fTop = Math.max(fTop, tCut[i]);
     longest = Math.max(longest, t.tau0);
   }
@@ -106,7 +106,7 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
       const i = order[r];
       if (!options.exhaustive && r >= minNeighbours && mu[i] > 1.5 * (1 - best) + 0.01) break;
       const t = templates[i];
-      gen.generate(tmp, fmin, t.primaryMass, t.secondaryMass, 1, fmax, t.primarySpin ?? 0, t.secondarySpin ?? 0);
+      gen.generate(tmp, fmin, t.primaryMassSolar, t.secondaryMassSolar, 1, fmax, t.primarySpin ?? 0, t.secondarySpin ?? 0);
       const m = mc.match(sig, tmp, sigCut, tCut[i], sigNorm).match;
       matchCount++;
       if (m > best) {
@@ -114,7 +114,7 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
         bestIdx = i;
       }
     }
-    results.push({ m1, m2, chi1, chi2, fittingFactor: best, bestTemplate: bestIdx });
+    results.push({ primaryMassSolar: m1, secondaryMassSolar: m2, primarySpin: chi1, secondarySpin: chi2, fittingFactor: best, bestTemplate: bestIdx });
     options.onProgress?.(k + 1, drawn.length);
   }
   return {

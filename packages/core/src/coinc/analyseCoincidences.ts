@@ -9,7 +9,7 @@ import { maxSlidesPerSide, slideOnRing, slideShiftSeconds } from "./timeSlides.j
 /** The candidate fields coincidence needs (a search Candidate has them all). */
 export type CoincidenceCandidate = Pick<
   Candidate,
-  "coalescenceTime" | "snr" | "reweightedSnr" | "chi2" | "chi2Dof" | "effectiveDistanceMpc" | "templateIndex" | "chirpMass"
+  "coalescenceTime" | "snr" | "reweightedSnr" | "chi2" | "chi2Dof" | "effectiveDistanceMpc" | "templateIndex" | "chirpMassSolar"
 >;
 
 /** One site's scan: its detector, its candidates and what its scan covered. */
@@ -53,7 +53,7 @@ export interface CoincidenceMember {
   chi2Dof: number;
   effectiveDistanceMpc: number;
   templateIndex: number;
-  chirpMass: number;
+  chirpMassSolar: number;
 }
 
 /** A coincidence of two or more sites, ranked by network reweighted SNR, with its false-alarm rate. */
@@ -67,7 +67,7 @@ export interface Coincidence extends FalseAlarm {
   sites: Record<string, CoincidenceMember>;
   /** Template index and chirp mass (M_sun) of the reference site's member. */
   templateIndex: number;
-  chirpMass: number;
+  chirpMassSolar: number;
   falseAlarmRateSource: "time-slides";
   /** Background coincidences (all slides) at least as loud. */
   backgroundLouder: number;
@@ -198,7 +198,7 @@ export function analyseCoincidences<T extends CoincidenceCandidate>(
           index: new Int32Array(b.arrays.times.length),
           rank: b.arrays.rank,
           template: b.arrays.template,
-          chirpMass: b.arrays.chirpMass,
+          chirpMassSolar: b.arrays.chirpMassSolar,
         },
   );
   const stats: number[] = [];
@@ -281,7 +281,7 @@ function toArrays(candidates: readonly CoincidenceCandidate[], ringStart: number
     index: new Int32Array(m),
     rank: new Float64Array(m),
     template: new Int32Array(m),
-    chirpMass: new Float64Array(m),
+    chirpMassSolar: new Float64Array(m),
   };
   for (let p = 0; p < m; p++) {
     const c = candidates[inside[p]];
@@ -289,7 +289,7 @@ function toArrays(candidates: readonly CoincidenceCandidate[], ringStart: number
     arrays.index[p] = p;
     arrays.rank[p] = c.reweightedSnr;
     arrays.template[p] = c.templateIndex;
-    arrays.chirpMass[p] = c.chirpMass;
+    arrays.chirpMassSolar[p] = c.chirpMassSolar;
   }
   return { arrays, candidateIndex: Int32Array.from(inside) };
 }
@@ -326,7 +326,7 @@ function toRecord<T extends CoincidenceCandidate>(
       chi2Dof: m.chi2Dof,
       effectiveDistanceMpc: m.effectiveDistanceMpc,
       templateIndex: m.templateIndex,
-      chirpMass: m.chirpMass,
+      chirpMassSolar: m.chirpMassSolar,
     };
   }
   const r = ref as CoincidenceCandidate;
@@ -337,7 +337,7 @@ function toRecord<T extends CoincidenceCandidate>(
     rankingStatistic: c.snr,
     sites,
     templateIndex: r.templateIndex,
-    chirpMass: r.chirpMass,
+    chirpMassSolar: r.chirpMassSolar,
     ...falseAlarmFromCount(louder, backgroundSeconds, foreground),
     falseAlarmRateSource: "time-slides",
     backgroundLouder: louder,
@@ -394,7 +394,7 @@ function checkNetwork(network: readonly SiteTriggers<CoincidenceCandidate>[]): v
       if (!Number.isInteger(c.templateIndex) || c.templateIndex < 0) {
         throw new InputError(`site "${name}": candidate ${i}: templateIndex must be a whole number ≥ 0 (got ${c.templateIndex})`);
       }
-      if (!(c.chirpMass > 0)) throw new InputError(`site "${name}": candidate ${i}: chirpMass must be positive (got ${c.chirpMass})`);
+      if (!(c.chirpMassSolar > 0)) throw new InputError(`site "${name}": candidate ${i}: chirpMassSolar must be positive (got ${c.chirpMassSolar})`);
     });
   }
 }

@@ -11,7 +11,7 @@ export interface SiteTriggerArrays {
   /** Per caller index: reweighted SNR, template index, chirp mass (M_sun). */
   rank: Float64Array;
   template: Int32Array;
-  chirpMass: Float64Array;
+  chirpMassSolar: Float64Array;
 }
 
 /** What makes two triggers at two sites coincident. */
@@ -42,8 +42,8 @@ export interface RawCoincidence {
 function sameSource(a: SiteTriggerArrays, i: number, b: SiteTriggerArrays, j: number, tol: number): boolean {
   if (a.template[i] === b.template[j]) return true;
   if (tol <= 0) return false;
-  const ma = a.chirpMass[i];
-  const mb = b.chirpMass[j];
+  const ma = a.chirpMassSolar[i];
+  const mb = b.chirpMassSolar[j];
   return Math.abs(ma - mb) <= 0.5 * tol * (ma + mb);
 }
 

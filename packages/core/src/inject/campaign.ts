@@ -88,9 +88,9 @@ export interface CampaignLayout {
 export interface InjectionOutcome {
   index: number;
   batch: number;
-  primaryMass: number;
-  secondaryMass: number;
-  chirpMass: number;
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
+  chirpMassSolar: number;
   /** At the Earth's centre (the injection's own time). */
   coalescenceTime: number;
   /** At the detector: what a candidate's coalescence time is compared with. */
@@ -105,7 +105,7 @@ export interface InjectionOutcome {
   found: boolean;
   recoveredSnr: number | null;
   reweightedSnr: number | null;
-  recoveredChirpMass: number | null;
+  recoveredChirpMassSolar: number | null;
   /** (recovered − injected) / injected chirp mass. */
   chirpMassError: number | null;
   /** Candidate coalescence time − arrival time, s. */
@@ -121,7 +121,7 @@ export interface FalseCandidate {
   coalescenceTime: number;
   snr: number;
   reweightedSnr: number;
-  chirpMass: number;
+  chirpMassSolar: number;
 }
 
 /** Everything one batch produced (what the resume state file stores, one line per batch). */
@@ -212,7 +212,7 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
   const spinTop = p.spinRange ? p.spinRange[1] : 0;
   const longestInjection = taylorT4Duration(mLo, mLo, search.fMinHz, undefined, spinTop, spinTop);
   let longestTemplate = 0;
-  for (const t of search.templates) longestTemplate = Math.max(longestTemplate, templateDurationSeconds(t.primaryMass, t.secondaryMass, search.fMinHz));
+  for (const t of search.templates) longestTemplate = Math.max(longestTemplate, templateDurationSeconds(t.primaryMassSolar, t.secondaryMassSolar, search.fMinHz));
   const trunc = truncationSeconds(search);
   const margin = Math.max(longestTemplate, longestInjection) + trunc + 1;
   const spacing = longestInjection + gap + DELAY_SLACK;
@@ -314,8 +314,8 @@ export function drawBatchInjections(options: CampaignOptions, layout: CampaignLa
     const [lo, hi] = p.distanceMpc;
     for (const inj of injections) {
       const d = lo + (hi - lo) * rng();
-      if (inj.optimalSnr !== undefined) inj.optimalSnr *= inj.distance / d;
-      inj.distance = d;
+      if (inj.optimalSnr !== undefined) inj.optimalSnr *= inj.distanceMpc / d;
+      inj.distanceMpc = d;
     }
   }
   return injections;
@@ -375,18 +375,18 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
   const { matched, unmatched } = matchInjections(injections, candidates, detector, layout.matchWindowSeconds);
   const first = b * layout.injectionsPerBatch;
   const outcomes: InjectionOutcome[] = injections.map((inj, k) => {
-    const mc = chirpMass(inj.primaryMass * M_SUN, inj.secondaryMass * M_SUN) / M_SUN;
+    const mc = chirpMass(inj.primaryMassSolar * M_SUN, inj.secondaryMassSolar * M_SUN) / M_SUN;
     const arrival = arrivalTimeAt(inj, detector);
     const c = matched[k] >= 0 ? candidates[matched[k]] : undefined;
     return {
       index: first + k,
       batch: b,
-      primaryMass: inj.primaryMass,
-      secondaryMass: inj.secondaryMass,
-      chirpMass: mc,
+      primaryMassSolar: inj.primaryMassSolar,
+      secondaryMassSolar: inj.secondaryMassSolar,
+      chirpMassSolar: mc,
       coalescenceTime: inj.coalescenceTime,
       arrivalTime: arrival,
-      distanceMpc: inj.distance,
+      distanceMpc: inj.distanceMpc,
       inclination: inj.inclination,
       rightAscension: inj.rightAscension,
       declination: inj.declination,
@@ -396,15 +396,15 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
       found: c !== undefined,
       recoveredSnr: c ? c.snr : null,
       reweightedSnr: c ? c.reweightedSnr : null,
-      recoveredChirpMass: c ? c.chirpMass : null,
+      recoveredChirpMassSolar: c ? c.chirpMassSolar : null,
       ...(inj.primarySpin !== undefined ? { primarySpin: inj.primarySpin, secondarySpin: inj.secondarySpin ?? 0 } : {}),
-      chirpMassError: c ? c.chirpMass / mc - 1 : null,
+      chirpMassError: c ? c.chirpMassSolar / mc - 1 : null,
       timeError: c ? c.coalescenceTime - arrival : null,
     };
   });
   const falseCandidates: FalseCandidate[] = unmatched.map((ci) => {
     const c = candidates[ci];
-    return { batch: b, coalescenceTime: c.coalescenceTime, snr: c.snr, reweightedSnr: c.reweightedSnr, chirpMass: c.chirpMass };
+    return { batch: b, coalescenceTime: c.coalescenceTime, snr: c.snr, reweightedSnr: c.reweightedSnr, chirpMassSolar: c.chirpMassSolar };
   });
   return { batch: b, startTime: layout.stretches[b].startTime, analysedSeconds: summary.analysedSeconds, injections: outcomes, falseCandidates };
 }

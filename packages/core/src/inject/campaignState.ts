@@ -3,6 +3,7 @@ import { InputError } from "../errors.js";
 import { canonicalHash } from "../run/canonicalJson.js";
 import { appendJournalRecord, dropTornTail, readJournalLines, startJournal } from "../run/jsonLinesJournal.js";
 import { crashPoint } from "../io/crashPoint.js";
+import { MASS_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 import type { BatchResult } from "./campaign.js";
 
 /** The first line of a campaign state file. */
@@ -40,7 +41,8 @@ export function appendCampaignBatch(path: string, fingerprint: string, result: B
  * short by a crash (no newline, or not JSON) is dropped and cut from the file so that appending
  * continues cleanly; a batch recorded twice counts once. Throws InputError when the file is not a
  * state file, was written for different arguments, or holds a batch line of another campaign (two
- * campaigns shared the file). Returns null when the file does not exist.
+ * campaigns shared the file). Returns null when the file does not exist. Batches written before the
+ * masses carried their unit (primaryMass, chirpMass, recoveredChirpMass, …) are read under the current names.
  */
 export function readCampaignState(path: string, fingerprint: string): BatchResult[] | null {
   const read = readJournalLines(path, "start afresh instead of resuming");
@@ -72,9 +74,15 @@ export function readCampaignState(path: string, fingerprint: string): BatchResul
       );
     }
     const { type: _t, campaign: _c, ...result } = rec;
-    const r = result as unknown as BatchResult;
+    const r = currentBatchKeys(result);
     if (!batches.has(r.batch)) batches.set(r.batch, r);
   }
   dropTornTail(path, read);
   return [...batches.values()].sort((a, b) => a.batch - b.batch);
+}
+
+/** A batch record with its injections' and false candidates' mass keys under their current names. */
+function currentBatchKeys(result: Record<string, unknown>): BatchResult {
+  const list = (v: unknown): unknown => (Array.isArray(v) ? v.map((x) => withCurrentKeys(x, MASS_KEY_RENAMES)) : v);
+  return { ...result, injections: list(result.injections), falseCandidates: list(result.falseCandidates) } as unknown as BatchResult;
 }

@@ -71,7 +71,7 @@ function checkRange(name: string, r: unknown, lowest: number): [number, number] 
 
 /**
  * Draws a seeded random population of inspirals for a series [startTime, startTime + duration):
- * - component masses uniform in massRangeSolar (primaryMass is the larger);
+ * - component masses uniform in massRangeSolar (primaryMassSolar is the larger);
  * - distance uniform in volume in distanceMpc, D = (D₁³ + u (D₂³ − D₁³))^{1/3}; or, with snrRange,
  *   a target SNR ρ uniform in the range and D = D_ref ρ_ref / ρ (optimal SNR ∝ 1/D), where ρ_ref is
  *   the optimal SNR at D_ref = 1 Mpc; with `detectors`, ρ is the network SNR, ρ_ref = (Σ_i ρ_i²)^{1/2}
@@ -185,10 +185,10 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
     if (k > 0) base += spacing[k];
     const d = drawn[k];
     const inj: Injection = {
-      primaryMass: d.m1,
-      secondaryMass: d.m2,
+      primaryMassSolar: d.m1,
+      secondaryMassSolar: d.m2,
       coalescenceTime: base + offsets[k],
-      distance: dRange ? d.level : 1,
+      distanceMpc: dRange ? d.level : 1,
       inclination: d.inclination,
       rightAscension: d.rightAscension,
       declination: d.declination,
@@ -203,7 +203,7 @@ export function drawInjections(options: InjectionPopulationOptions): Injection[]
       const snr = snrOf(inj);
       if (sRange) {
         if (!(snr > 0)) throw new InputError(`injection ${k}: its signal has no power above ${o.fMinHz} Hz, so no distance gives the target SNR`);
-        inj.distance = snr / d.level; // reference distance 1 Mpc: D = 1 Mpc × ρ_ref / ρ
+        inj.distanceMpc = snr / d.level; // reference distance 1 Mpc: D = 1 Mpc × ρ_ref / ρ
         inj.optimalSnr = d.level;
       } else {
         inj.optimalSnr = snr;

@@ -1,4 +1,5 @@
 import { InputError } from "../errors.js";
+import { INJECTION_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 import { type Detector, geocentreDelay, plusCrossResponse, siderealAngle } from "../waveform/antenna.js";
 import { taylorT4 } from "../waveform/taylorT4.js";
 
@@ -8,13 +9,13 @@ import { taylorT4 } from "../waveform/taylorT4.js";
  */
 export interface Injection {
   /** Heavier component mass, M_sun. */
-  primaryMass: number;
+  primaryMassSolar: number;
   /** Lighter component mass, M_sun. */
-  secondaryMass: number;
+  secondaryMassSolar: number;
   /** Time the signal reaches the ISCO at the Earth's centre, s (file time base, sub-sample). */
   coalescenceTime: number;
   /** Luminosity distance, Mpc. */
-  distance: number;
+  distanceMpc: number;
   /** Inclination ι in [0, π], rad. */
   inclination: number;
   /** Right ascension α, rad. */
@@ -65,9 +66,9 @@ export function projectInjection(injection: Injection, detector: Detector, optio
   const delay = geocentreDelay(detector, inj, gmst);
   const gridStart = options.gridStartTime ?? 0;
   const wf = taylorT4({
-    massSolar1: inj.primaryMass,
-    massSolar2: inj.secondaryMass,
-    distanceMpc: inj.distance,
+    massSolar1: inj.primaryMassSolar,
+    massSolar2: inj.secondaryMassSolar,
+    distanceMpc: inj.distanceMpc,
     inclination: inj.inclination,
     coalescencePhase: inj.phase,
     // Subtract the grid start first so sub-sample precision survives a ~1e9 s time base.
@@ -118,10 +119,10 @@ export function injectInto(
 
 /** Fields of an {@link Injection} that must be finite numbers. */
 export const INJECTION_FIELDS = [
-  "primaryMass",
-  "secondaryMass",
+  "primaryMassSolar",
+  "secondaryMassSolar",
   "coalescenceTime",
-  "distance",
+  "distanceMpc",
   "inclination",
   "rightAscension",
   "declination",
@@ -133,12 +134,13 @@ export const INJECTION_FIELDS = [
  * Validates an injection record (e.g. read from a file); `where` prefixes each message (such as
  * `injections.json: injection 3`). Returns a clean copy (extra fields dropped, optimalSnr kept if
  * it is a finite number; primarySpin and secondarySpin kept when present, each in (−1, 1)).
+ * Records written before the masses and distance carried their unit (primaryMass, secondaryMass, distance) are read too.
  */
 export function checkInjection(value: unknown, where: string): Injection {
   if (value === null || typeof value !== "object" || Array.isArray(value)) {
     throw new InputError(`${where}: must be an object with fields ${INJECTION_FIELDS.join(", ")}`);
   }
-  const rec = value as Record<string, unknown>;
+  const rec = withCurrentKeys(value, INJECTION_KEY_RENAMES) as Record<string, unknown>;
   const out: Record<string, number> = {};
   for (const key of INJECTION_FIELDS) {
     const x = rec[key];
@@ -148,12 +150,12 @@ export function checkInjection(value: unknown, where: string): Injection {
     out[key] = x;
   }
   const inj = out as unknown as Injection;
-  if (!(inj.primaryMass > 0)) throw new InputError(`${where}: primaryMass must be positive (got ${inj.primaryMass})`);
-  if (!(inj.secondaryMass > 0)) throw new InputError(`${where}: secondaryMass must be positive (got ${inj.secondaryMass})`);
-  if (inj.secondaryMass > inj.primaryMass) {
-    throw new InputError(`${where}: primaryMass must be at least secondaryMass (got ${inj.primaryMass} < ${inj.secondaryMass})`);
+  if (!(inj.primaryMassSolar > 0)) throw new InputError(`${where}: primaryMassSolar must be positive (got ${inj.primaryMassSolar})`);
+  if (!(inj.secondaryMassSolar > 0)) throw new InputError(`${where}: secondaryMassSolar must be positive (got ${inj.secondaryMassSolar})`);
+  if (inj.secondaryMassSolar > inj.primaryMassSolar) {
+    throw new InputError(`${where}: primaryMassSolar must be at least secondaryMassSolar (got ${inj.primaryMassSolar} < ${inj.secondaryMassSolar})`);
   }
-  if (!(inj.distance > 0)) throw new InputError(`${where}: distance must be a positive number of Mpc (got ${inj.distance})`);
+  if (!(inj.distanceMpc > 0)) throw new InputError(`${where}: distanceMpc must be a positive number of Mpc (got ${inj.distanceMpc})`);
   if (inj.inclination < 0 || inj.inclination > Math.PI) {
     throw new InputError(`${where}: inclination must be in [0, π] rad (got ${inj.inclination})`);
   }

@@ -6,7 +6,7 @@ import { type Injection, checkInjection } from "./injection.js";
 
 /** One injection as listed in a manifest: the record plus its chirp mass and optimal SNR. */
 export interface ManifestInjection extends Injection {
-  chirpMass: number;
+  chirpMassSolar: number;
   optimalSnr: number;
   /** With several sites: the network optimal SNR, (Σ over sites of optimalSnr²)^{1/2}. */
   networkOptimalSnr?: number;
@@ -59,11 +59,11 @@ export function injectionManifest(
     detector: meta.detector,
     ...(meta.spinRange ? { spinRange: meta.spinRange } : {}),
     injections: injections.map((inj) => ({
-      primaryMass: inj.primaryMass,
-      secondaryMass: inj.secondaryMass,
-      chirpMass: chirpMass(inj.primaryMass, inj.secondaryMass),
+      primaryMassSolar: inj.primaryMassSolar,
+      secondaryMassSolar: inj.secondaryMassSolar,
+      chirpMassSolar: chirpMass(inj.primaryMassSolar, inj.secondaryMassSolar),
       coalescenceTime: inj.coalescenceTime,
-      distance: inj.distance,
+      distanceMpc: inj.distanceMpc,
       inclination: inj.inclination,
       rightAscension: inj.rightAscension,
       declination: inj.declination,
@@ -93,7 +93,8 @@ export function writeInjectionManifest(path: string, manifest: InjectionManifest
 /**
  * Parses injections from JSON text: either an array of injection records or an object with an
  * "injections" array (such as a manifest). Every record is validated; errors name `fileName` and
- * the entry index. Extra fields (chirpMass, optimalSnr, …) are accepted; optimalSnr is kept.
+ * the entry index. Extra fields (chirpMassSolar, optimalSnr, …) are accepted; optimalSnr is kept. Manifests
+ * written before the masses and distance carried their unit (primaryMass, secondaryMass, chirpMass, distance) are read too.
  */
 export function parseInjections(text: string, fileName: string): Injection[] {
   let value: unknown;

@@ -56,7 +56,7 @@ export function* synthesizeStrain(options: StrainSynthesisOptions): Generator<Fl
   // Rough span of each projected chirp in samples (generous: 1 s either side) to know when to build it.
   const spans = o.injections.map((inj) => {
     const tc = (inj.coalescenceTime - o.startTime) * fs;
-    const d = taylorT4Duration(inj.primaryMass, inj.secondaryMass, o.fMinHz) * fs;
+    const d = taylorT4Duration(inj.primaryMassSolar, inj.secondaryMassSolar, o.fMinHz) * fs;
     return { first: Math.floor(tc - d - fs), last: Math.ceil(tc + fs) };
   });
   const built = new Map<number, StrainSegment>();

@@ -5,7 +5,7 @@ import { InputError } from "../errors.js";
 import { mergeSegmentRecords, type MergedScan } from "./mergeSegments.js";
 import { canonicalJson } from "./canonicalJson.js";
 import { manifestPathFor, type ShardManifest } from "./shardManifest.js";
-import type { SegmentRecord } from "./shardRecord.js";
+import { type SegmentRecord, segmentRecordWithCurrentKeys } from "./shardRecord.js";
 import { coveredSegments, shardLabel, shardWork } from "./shardWork.js";
 
 /** One shard found for a merge: its manifest and its candidate (segment record) file. */
@@ -228,7 +228,7 @@ export function readShardRecords(f: ShardFiles): SegmentRecord[] {
   }
   const end = parsed[parsed.length - 1];
   if (!end || end.type !== "end") throw new InputError(`${where}: incomplete (no end line); rerun shard ${label}`);
-  const records = parsed.slice(1, -1) as unknown as SegmentRecord[];
+  const records = parsed.slice(1, -1).map(segmentRecordWithCurrentKeys);
   const covered = coveredSegments({ shard: f.manifest.shard, blocks: f.manifest.covered.blocks });
   if (records.length !== covered.length || end.segments !== covered.length) {
     throw new InputError(`${where}: holds ${records.length} segment records but shard ${label} covers ${covered.length}; rerun it`);

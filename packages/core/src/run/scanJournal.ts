@@ -1,7 +1,7 @@
 import { closeSync, openSync, rmSync, truncateSync } from "node:fs";
 import { InputError } from "../errors.js";
 import { appendJournalLine, readJournalLines, startJournal } from "./jsonLinesJournal.js";
-import type { SegmentRecord } from "./shardRecord.js";
+import { type SegmentRecord, segmentRecordWithCurrentKeys } from "./shardRecord.js";
 import type { ShardSpec } from "./shardWork.js";
 
 /** First line of a scan journal. */
@@ -49,7 +49,7 @@ export function readScanJournal(path: string): { header: JournalHeader; records:
   const seen = new Set<string>();
   for (const { value } of read.records) {
     if (value.type !== "segment") continue;
-    const r = value as unknown as SegmentRecord;
+    const r = segmentRecordWithCurrentKeys(value);
     const key = `${r.input}:${r.segment}`;
     if (!seen.has(key)) {
       seen.add(key);

@@ -161,8 +161,8 @@ const FINGERPRINT_FREQUENCIES = Array.from({ length: 25 }, (_, i) => 2 ** (i / 2
 export function describeSearch(options: SearchOptions): SearchDescription {
   const masses = new Float64Array(2 * options.templates.length);
   options.templates.forEach((t, i) => {
-    masses[2 * i] = t.primaryMass;
-    masses[2 * i + 1] = t.secondaryMass;
+    masses[2 * i] = t.primaryMassSolar;
+    masses[2 * i + 1] = t.secondaryMassSolar;
   });
   // Spinning banks also hash their spins (a non-spinning bank's hash is that of its masses alone).
   const spinning = options.templates.some((t) => (t.primarySpin ?? 0) !== 0 || (t.secondarySpin ?? 0) !== 0);

@@ -1,5 +1,6 @@
 import type { SegmentOutcome, SegmentPeak } from "../search/segmentHook.js";
 import type { Candidate, GateRecord, SkippedStretch } from "../search/types.js";
+import { MASS_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 
 /** A candidate as a shard records it: with the sample and the raw |z| the per-segment clustering used. */
 export interface RecordedCandidate extends Candidate {
@@ -37,6 +38,17 @@ export interface SegmentRecord {
    * over the whole bank (see {@link decidingPeaks}); includes every candidate's peak.
    */
   peaks?: RecordedPeak[];
+}
+
+/**
+ * A segment record as read back from a journal or a shard's record file, its candidates' mass keys
+ * under their current names (records written before the masses carried their unit use primaryMass,
+ * secondaryMass and chirpMass).
+ */
+export function segmentRecordWithCurrentKeys(value: unknown): SegmentRecord {
+  const rec = value as Record<string, unknown> | null;
+  if (rec === null || typeof rec !== "object" || !Array.isArray(rec.candidates)) return value as SegmentRecord;
+  return { ...rec, candidates: rec.candidates.map((c) => withCurrentKeys(c, MASS_KEY_RENAMES)) } as unknown as SegmentRecord;
 }
 
 /** Safety margin (s) on interval coverage: above the rounding of time differences near `scale`. */

@@ -73,7 +73,7 @@ export function runSummaryRecord(parts: RunSummaryParts, extra: Record<string, u
     candidates: parts.candidates,
     minSnr: parts.minSnr,
     chi2Allowance: parts.chi2Allowance,
-    fmin: parts.fMinHz,
+    fMinHz: parts.fMinHz,
     psd: parts.psd,
     fftBackend: parts.fftBackend,
     threads: Math.max(1, ...inputs.map((i) => i.threads)),

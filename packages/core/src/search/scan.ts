@@ -27,7 +27,7 @@ import { effectiveSpin, templateSpins } from "./templateSpins.js";
 export function validateSearchOptions(o: SearchOptions, sampleRate: number): void {
   if (o.templates.length === 0) throw new InputError("the template bank is empty");
   for (const [i, t] of o.templates.entries()) {
-    if (!(t.primaryMass > 0) || !(t.secondaryMass > 0) || !Number.isFinite(t.primaryMass + t.secondaryMass)) {
+    if (!(t.primaryMassSolar > 0) || !(t.secondaryMassSolar > 0) || !Number.isFinite(t.primaryMassSolar + t.secondaryMassSolar)) {
       throw new InputError(`template ${i}: masses must be positive numbers`);
     }
     for (const s of [t.primarySpin ?? 0, t.secondarySpin ?? 0]) {
@@ -83,7 +83,7 @@ export interface SegmentLayout {
 /** Longest template (s) of the bank from fmin. */
 function longestTemplateSeconds(o: SearchOptions): number {
   let longest = 0;
-  for (const t of o.templates) longest = Math.max(longest, templateDurationSeconds(t.primaryMass, t.secondaryMass, o.fMinHz));
+  for (const t of o.templates) longest = Math.max(longest, templateDurationSeconds(t.primaryMassSolar, t.secondaryMassSolar, o.fMinHz));
   return longest;
 }
 
@@ -252,8 +252,8 @@ export async function searchStrain(
   };
   const masses = new Float64Array(2 * templates.length);
   templates.forEach((t, i) => {
-    masses[2 * i] = t.primaryMass;
-    masses[2 * i + 1] = t.secondaryMass;
+    masses[2 * i] = t.primaryMassSolar;
+    masses[2 * i + 1] = t.secondaryMassSolar;
   });
   const spins = templateSpins(templates);
   // With workers, a double buffer: segment k + 1 is loaded into one filter while the workers filter
@@ -267,7 +267,7 @@ export async function searchStrain(
   let pool: SearchPool | undefined;
   const inlineSigmas = new Float64Array(templates.length);
   const buffers = [new Float64Array(n), new Float64Array(n)];
-  const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMass, t.secondaryMass, options.fMinHz));
+  const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMassSolar, t.secondaryMassSolar, options.fMinHz));
   const hook = options.segmentHook;
   // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
   const todo = hook ? hook.segments(plan.segments.length) : plan.segments.map((_, i) => i);
@@ -420,9 +420,9 @@ function survivorCandidates(
       chi2,
       chi2Dof: dof,
       reweightedSnr: reweightedSnr(peak.value, chi2, dof, options.chi2Allowance ?? 0),
-      primaryMass: t.primaryMass,
-      secondaryMass: t.secondaryMass,
-      chirpMass: chirpMass(t.primaryMass * M_SUN, t.secondaryMass * M_SUN) / M_SUN,
+      primaryMassSolar: t.primaryMassSolar,
+      secondaryMassSolar: t.secondaryMassSolar,
+      chirpMassSolar: chirpMass(t.primaryMassSolar * M_SUN, t.secondaryMassSolar * M_SUN) / M_SUN,
       primarySpin: t.primarySpin ?? 0,
       secondarySpin: t.secondarySpin ?? 0,
       effectiveSpin: effectiveSpin(t),

@@ -84,8 +84,8 @@ export function estimateSearchCost(o: SearchCostOptions): SearchCostEstimate {
   for (let i = 0; i < timed; i++) picked.push(o.templates[Math.floor(((i + 0.5) * count) / timed)]);
   const masses = new Float64Array(2 * timed);
   picked.forEach((t, i) => {
-    masses[2 * i] = t.primaryMass;
-    masses[2 * i + 1] = t.secondaryMass;
+    masses[2 * i] = t.primaryMassSolar;
+    masses[2 * i + 1] = t.secondaryMassSolar;
   });
   const spins = templateSpins(picked);
   const bandPowerLoss = o.bandPowerLoss === undefined ? DEFAULT_BAND_POWER_LOSS : o.bandPowerLoss;

@@ -138,15 +138,15 @@ function segmentFilterOn(o: SegmentFilterOptions, common: SharedMachinery, owner
     },
     generate(t) {
       const out = (common.template ??= new Float64Array(2 * nBins));
-      const { kStart, kEnd } = taylorF2BinRange(nBins, df, o.fMinHz, t.primaryMass, t.secondaryMass, o.fMaxHz);
+      const { kStart, kEnd } = taylorF2BinRange(nBins, df, o.fMinHz, t.primaryMassSolar, t.secondaryMassSolar, o.fMaxHz);
       out.fill(0, 0, 2 * kStart);
       out.fill(0, 2 * kEnd);
-      phasor.template(law, out, kStart, kEnd, t.primaryMass, t.secondaryMass, taylorF2Amplitude(t.primaryMass, t.secondaryMass, 1), t.primarySpin ?? 0, t.secondarySpin ?? 0);
+      phasor.template(law, out, kStart, kEnd, t.primaryMassSolar, t.secondaryMassSolar, taylorF2Amplitude(t.primaryMassSolar, t.secondaryMassSolar, 1), t.primarySpin ?? 0, t.secondarySpin ?? 0);
       return kEnd;
     },
     filter(t) {
       if (!spec) throw new Error("SegmentFilter.filter called before load");
-      const { sigma, kEnd } = bank.filter(weights, t.primaryMass, t.secondaryMass, t.primarySpin ?? 0, t.secondarySpin ?? 0);
+      const { sigma, kEnd } = bank.filter(weights, t.primaryMassSolar, t.secondaryMassSolar, t.primarySpin ?? 0, t.secondarySpin ?? 0);
       return { sigma, kEnd };
     },
     twin() {

@@ -14,5 +14,5 @@ export function templateSpins(templates: readonly SearchTemplate[]): Float64Arra
 
 /** χ_eff = (m1 χ1 + m2 χ2) / (m1 + m2) (Ajith et al., Phys. Rev. Lett. 106, 241101 (2011)). */
 export function effectiveSpin(t: SearchTemplate): number {
-  return (t.primaryMass * (t.primarySpin ?? 0) + t.secondaryMass * (t.secondarySpin ?? 0)) / (t.primaryMass + t.secondaryMass);
+  return (t.primaryMassSolar * (t.primarySpin ?? 0) + t.secondaryMassSolar * (t.secondarySpin ?? 0)) / (t.primaryMassSolar + t.secondaryMassSolar);
 }

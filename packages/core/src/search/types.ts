@@ -20,8 +20,8 @@ export interface SearchInput {
 
 /** A template the search filters with: component masses in solar masses, optional aligned spins χ ∈ (−1, 1) (default 0). */
 export interface SearchTemplate {
-  readonly primaryMass: number;
-  readonly secondaryMass: number;
+  readonly primaryMassSolar: number;
+  readonly secondaryMassSolar: number;
   readonly primarySpin?: number;
   readonly secondarySpin?: number;
 }
@@ -107,9 +107,9 @@ export interface Candidate {
   chi2: number;
   chi2Dof: number;
   reweightedSnr: number;
-  primaryMass: number;
-  secondaryMass: number;
-  chirpMass: number;
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
+  chirpMassSolar: number;
   /** Aligned spins of the template (0 for a non-spinning one). */
   primarySpin: number;
   secondarySpin: number;

@@ -72,8 +72,8 @@ export function inspiralSnrShare(
 
 /** A template as far as the inspiral share is concerned: masses in M_sun, optional aligned spins. */
 export interface ShareTemplate {
-  primaryMass: number;
-  secondaryMass: number;
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
   primarySpin?: number;
   secondarySpin?: number;
 }
@@ -116,8 +116,8 @@ export function inspiralEdgeOfBank(
   if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw new InputError(`${where}: fMinHz must be a positive finite number (got ${fMinHz})`);
   const fHigh = options.fMaxHz ?? Infinity;
   const bounds = templates.map((t) => {
-    const m = t.primaryMass + t.secondaryMass;
-    const r = remnantOfMerger(t.primaryMass, t.secondaryMass, t.primarySpin ?? 0, t.secondarySpin ?? 0);
+    const m = t.primaryMassSolar + t.secondaryMassSolar;
+    const r = remnantOfMerger(t.primaryMassSolar, t.secondaryMassSolar, t.primarySpin ?? 0, t.secondarySpin ?? 0);
     const fIsco = Math.min(iscoGwFrequency(m * M_SUN), fHigh);
     return { m, fIsco, fRing: Math.min(Math.max(ringdownFrequencyHz(r.massFraction * m, r.spin), fIsco), fHigh) };
   });
