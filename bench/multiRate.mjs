@@ -154,6 +154,37 @@ export async function coresAvailable(seconds = 1) {
   return (c.user + c.system) / 1e6 / ((performance.now() - t0) / 1000);
 }
 
+/**
+ * Throughput of two inverse FFTs run at the same time in two worker threads ÷ that of one, per
+ * complex length (pffft): what the machine's memory lets two threads gain on transforms of the
+ * search's sizes, whatever the search does around them.
+ */
+export async function concurrentFftScaling(lengths = [1 << 18, 1 << 20, 1 << 21, 1 << 22]) {
+  const coreUrl = new URL("../packages/core/dist/index.js", import.meta.url).href;
+  const code = `
+const { parentPort, workerData } = require("node:worker_threads");
+(async () => {
+  const core = await import(${JSON.stringify(coreUrl)});
+  await core.loadFftBackends();
+  const p = core.createComplexPlan(workerData.n, "pffft");
+  for (let i = 0; i < p.input.length; i++) p.input[i] = Math.sin(i);
+  p.inverse();
+  const t0 = performance.now();
+  for (let r = 0; r < workerData.reps; r++) p.inverse();
+  parentPort.postMessage((performance.now() - t0) / workerData.reps);
+})();`;
+  const out = {};
+  for (const n of lengths) {
+    const reps = Math.max(4, Math.round(2 ** 25 / n));
+    const run = (k) =>
+      Promise.all(Array.from({ length: k }, () => new Promise((resolve, reject) => new Worker(code, { eval: true, workerData: { n, reps } }).on("message", resolve).on("error", reject))));
+    const [one] = await run(1);
+    const two = await run(2);
+    out[`2^${Math.log2(n)}`] = (2 * one) / Math.max(...two);
+  }
+  return out;
+}
+
 /** Runs both workloads; `log` prints progress lines. Returns the figures. */
 export async function rateWorkloads(log, { rounds = 2 } = {}) {
   await loadFftBackends();
@@ -163,6 +194,8 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
   const { join } = await import("node:path");
   const dir = mkdtempSync(join(tmpdir(), "chirpsieve-bench-"));
   const results = {};
+  results.concurrentFft = await concurrentFftScaling();
+  log(`two concurrent inverse FFTs ÷ one, by complex length: ${JSON.stringify(Object.fromEntries(Object.entries(results.concurrentFft).map(([k, v]) => [k, Number(v.toFixed(2))])))}`);
   try {
     for (const [key, w] of Object.entries(WORKLOADS)) {
       log(`${w.label}: placing the bank…`);
@@ -281,7 +314,11 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
 /** The printed lines of {@link rateWorkloads}' figures. */
 export function rateLines(results) {
   const lines = [`8. per-template output rate (${SUBSET} templates of a placed bank, ${SECONDS} s at ${FS} Hz, pffft when loaded; whole search per template-segment ÷ the full-rate inverse FFT):`];
-  for (const r of Object.values(results)) {
+  for (const [key, r] of Object.entries(results)) {
+    if (key === "concurrentFft") {
+      lines.push(`   two inverse FFTs at once in two threads ÷ one (the memory's limit on 1 → 2 threads): ${Object.entries(r).map(([k, v]) => `${k} ${v.toFixed(2)}×`).join(", ")}`);
+      continue;
+    }
     lines.push(
       `   ${r.label}: ${r.ratioToFloor.toFixed(3)} × (target ≤ ${r.target}); full rate ${r.fullRateRatioToFloor.toFixed(3)} ×; speed-up ${r.speedupOverFullRate.toFixed(2)}×; ` +
         `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× over ${r.segments} segment(s), ${r.longScaling.oneToTwoThreads.toFixed(2)}× over ${r.longScaling.segments} segments of ${r.longScaling.seconds} s (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +

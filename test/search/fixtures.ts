@@ -65,12 +65,13 @@ export function chirpMassGrid(mcMin: number, mcMax: number, step: number, ratios
 
 /**
  * A TaylorF2 chirp (the search's own waveform family) coalescing at t0 in a series of n samples,
- * optimally oriented at 1 Mpc: the inverse FFT of h̃(f) e^{−2πift0} (the project's convention).
+ * optimally oriented at 1 Mpc: the inverse FFT of h̃(f) e^{−2πift0} (the project's convention);
+ * aligned spins chi1, chi2 (default 0).
  */
-export function taylorF2Chirp(m1: number, m2: number, t0: number, n: number, fs: number, fMin: number): Float64Array {
+export function taylorF2Chirp(m1: number, m2: number, t0: number, n: number, fs: number, fMin: number, chi1 = 0, chi2 = 0): Float64Array {
   const df = fs / n;
   const h = new Float64Array(2 * n);
-  taylorF2Into(h, n / 2 + 1, df, fMin, m1, m2, 1);
+  taylorF2Into(h, n / 2 + 1, df, fMin, m1, m2, 1, Infinity, 7, chi1, chi2);
   for (let k = 0; k <= n / 2; k++) {
     const a = -2 * Math.PI * k * df * t0;
     const c = Math.cos(a);

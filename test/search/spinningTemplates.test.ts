@@ -4,8 +4,8 @@
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
-import { ajith2011, arrayInput, colouredNoise, createComplexFft, loadFftBackends, searchStrain, taylorF2Into, type SearchTemplate } from "@chirpsieve/core";
-import { standardSearch } from "./fixtures.js";
+import { ajith2011, arrayInput, colouredNoise, loadFftBackends, searchStrain, taylorF2Into, type SearchTemplate } from "@chirpsieve/core";
+import { standardSearch, taylorF2Chirp } from "./fixtures.js";
 
 const FS = 2048;
 const FMIN = 30;
@@ -26,22 +26,9 @@ function spinningChirp(m1: number, m2: number, chi: number, t0: number, n: numbe
   // Optimal SNR² = 4 ∫ |h̃|²/S df (the project's inner product).
   let rho2 = 0;
   for (let k = Math.ceil(FMIN / df); k <= n / 2; k++) rho2 += (4 * (h[2 * k] ** 2 + h[2 * k + 1] ** 2) * df) / ajith2011.evaluate(k * df);
+  const x = taylorF2Chirp(m1, m2, t0, n, FS, FMIN, chi, chi);
   const scale = snr / Math.sqrt(rho2);
-  for (let k = 0; k <= n / 2; k++) {
-    const a = -2 * Math.PI * k * df * t0;
-    const re = h[2 * k];
-    const im = h[2 * k + 1];
-    h[2 * k] = re * Math.cos(a) - im * Math.sin(a);
-    h[2 * k + 1] = re * Math.sin(a) + im * Math.cos(a);
-    if (k > 0 && k < n / 2) {
-      h[2 * (n - k)] = h[2 * k];
-      h[2 * (n - k) + 1] = -h[2 * k + 1];
-    }
-  }
-  const out = new Float64Array(2 * n);
-  createComplexFft(n).inverse(h, out);
-  const x = new Float64Array(n);
-  for (let i = 0; i < n; i++) x[i] = out[2 * i] * df * scale;
+  for (let i = 0; i < n; i++) x[i] *= scale;
   return x;
 }
 

@@ -5,8 +5,6 @@ import { checkTimeBaseParameters } from "../io/timeBase.js";
 import { sampledPsdModel } from "../noise/interpolatePsd.js";
 import type { PsdModel } from "../noise/psdModel.js";
 import { welchPsd } from "../noise/welch.js";
-import { M_SUN } from "../physics/constants.js";
-import { chirpMass } from "../physics/masses.js";
 import { arrayInput } from "../search/arrayInput.js";
 import { searchStrain, truncationSeconds, validateSearchOptions } from "../search/scan.js";
 import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo } from "../search/segmentPlan.js";
@@ -16,7 +14,7 @@ import { type Detector, SITE_A } from "../waveform/antenna.js";
 import { taylorT4Duration, taylorT4Evolution } from "../waveform/taylorT4Evolution.js";
 import { drawInjections } from "./drawInjections.js";
 import type { DistanceDistribution } from "./efficiency.js";
-import { type Injection, injectInto } from "./injection.js";
+import { type Injection, type InjectionRecord, injectInto, injectionRecord } from "./injection.js";
 import { arrivalTimeAt, matchInjections } from "./matchInjections.js";
 import { synthesizeStrain } from "./synthesizeStrain.js";
 
@@ -84,24 +82,16 @@ export interface CampaignLayout {
   stretches: BatchStretch[];
 }
 
-/** What happened to one injection. Masses in M_sun, distance in Mpc, times in s, errors relative (chirp mass) or in s. */
-export interface InjectionOutcome {
+/**
+ * What happened to one injection: its record (injection.ts; `coalescenceTime` at the Earth's
+ * centre, spins only for a population drawn with a spin range), where it arrived, and what was
+ * recovered. Errors relative (chirp mass) or in s.
+ */
+export interface InjectionOutcome extends InjectionRecord {
   index: number;
   batch: number;
-  primaryMassSolar: number;
-  secondaryMassSolar: number;
-  chirpMassSolar: number;
-  /** At the Earth's centre (the injection's own time). */
-  coalescenceTime: number;
   /** At the detector: what a candidate's coalescence time is compared with. */
   arrivalTime: number;
-  distanceMpc: number;
-  inclination: number;
-  rightAscension: number;
-  declination: number;
-  polarisation: number;
-  phase: number;
-  optimalSnr: number;
   found: boolean;
   recoveredSnr: number | null;
   reweightedSnr: number | null;
@@ -110,9 +100,6 @@ export interface InjectionOutcome {
   chirpMassError: number | null;
   /** Candidate coalescence time − arrival time, s. */
   timeError: number | null;
-  /** Aligned spins of the injection, present only for a population drawn with a spin range. */
-  primarySpin?: number;
-  secondarySpin?: number;
 }
 
 /** A candidate that matched no injection. */
@@ -375,29 +362,19 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
   const { matched, unmatched } = matchInjections(injections, candidates, detector, layout.matchWindowSeconds);
   const first = b * layout.injectionsPerBatch;
   const outcomes: InjectionOutcome[] = injections.map((inj, k) => {
-    const mc = chirpMass(inj.primaryMassSolar * M_SUN, inj.secondaryMassSolar * M_SUN) / M_SUN;
+    const record = injectionRecord(inj);
+    const mc = record.chirpMassSolar;
     const arrival = arrivalTimeAt(inj, detector);
     const c = matched[k] >= 0 ? candidates[matched[k]] : undefined;
     return {
       index: first + k,
       batch: b,
-      primaryMassSolar: inj.primaryMassSolar,
-      secondaryMassSolar: inj.secondaryMassSolar,
-      chirpMassSolar: mc,
-      coalescenceTime: inj.coalescenceTime,
+      ...record,
       arrivalTime: arrival,
-      distanceMpc: inj.distanceMpc,
-      inclination: inj.inclination,
-      rightAscension: inj.rightAscension,
-      declination: inj.declination,
-      polarisation: inj.polarisation,
-      phase: inj.phase,
-      optimalSnr: inj.optimalSnr ?? Number.NaN,
       found: c !== undefined,
       recoveredSnr: c ? c.snr : null,
       reweightedSnr: c ? c.reweightedSnr : null,
       recoveredChirpMassSolar: c ? c.chirpMassSolar : null,
-      ...(inj.primarySpin !== undefined ? { primarySpin: inj.primarySpin, secondarySpin: inj.secondarySpin ?? 0 } : {}),
       chirpMassError: c ? c.chirpMassSolar / mc - 1 : null,
       timeError: c ? c.coalescenceTime - arrival : null,
     };

@@ -2,6 +2,7 @@ import { InputError } from "../errors.js";
 import { INJECTION_KEY_RENAMES, withCurrentKeys } from "../io/renamedKeys.js";
 import { type Detector, geocentreDelay, plusCrossResponse, siderealAngle } from "../waveform/antenna.js";
 import { taylorT4 } from "../waveform/taylorT4.js";
+import { chirpMass } from "../physics/masses.js";
 
 /**
  * One simulated inspiral to add to strain. Masses in solar masses (detector frame), times in
@@ -173,4 +174,47 @@ export function checkInjection(value: unknown, where: string): Injection {
   const snr = rec.optimalSnr;
   if (typeof snr === "number" && Number.isFinite(snr)) inj.optimalSnr = snr;
   return inj;
+}
+
+/** An injection as the tool's outputs record it (manifests, campaign outcomes): its parameters and chirp mass. */
+export interface InjectionRecord {
+  primaryMassSolar: number;
+  secondaryMassSolar: number;
+  chirpMassSolar: number;
+  coalescenceTime: number;
+  distanceMpc: number;
+  inclination: number;
+  rightAscension: number;
+  declination: number;
+  polarisation: number;
+  phase: number;
+  /** NaN when unknown (written as null in JSON). */
+  optimalSnr: number;
+  /** With several sites: the network optimal SNR, (Σ over sites of optimalSnr²)^{1/2}. */
+  networkOptimalSnr?: number;
+  primarySpin?: number;
+  secondarySpin?: number;
+}
+
+/**
+ * The record of one injection: its parameters in their units, the chirp mass
+ * (m1 m2)^{3/5} / (m1 + m2)^{1/5} (Peters & Mathews, Phys. Rev. 131, 435 (1963)) in M_sun, and its
+ * spins when it has any.
+ */
+export function injectionRecord(inj: Injection & { networkOptimalSnr?: number }): InjectionRecord {
+  return {
+    primaryMassSolar: inj.primaryMassSolar,
+    secondaryMassSolar: inj.secondaryMassSolar,
+    chirpMassSolar: chirpMass(inj.primaryMassSolar, inj.secondaryMassSolar),
+    coalescenceTime: inj.coalescenceTime,
+    distanceMpc: inj.distanceMpc,
+    inclination: inj.inclination,
+    rightAscension: inj.rightAscension,
+    declination: inj.declination,
+    polarisation: inj.polarisation,
+    phase: inj.phase,
+    optimalSnr: inj.optimalSnr ?? Number.NaN,
+    ...(inj.networkOptimalSnr !== undefined ? { networkOptimalSnr: inj.networkOptimalSnr } : {}),
+    ...(inj.primarySpin !== undefined || inj.secondarySpin !== undefined ? { primarySpin: inj.primarySpin ?? 0, secondarySpin: inj.secondarySpin ?? 0 } : {}),
+  };
 }

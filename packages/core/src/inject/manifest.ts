@@ -1,8 +1,7 @@
 import { readTextInput } from "../io/readTextInput.js";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
-import { chirpMass } from "../physics/masses.js";
-import { type Injection, checkInjection } from "./injection.js";
+import { type Injection, checkInjection, injectionRecord } from "./injection.js";
 
 /** One injection as listed in a manifest: the record plus its chirp mass and optimal SNR. */
 export interface ManifestInjection extends Injection {
@@ -43,10 +42,6 @@ export function injectionManifest(
   meta: Omit<InjectionManifest, "synthetic" | "injections">,
   injections: (Injection & { networkOptimalSnr?: number })[],
 ): InjectionManifest {
-  const spinFields = (inj: Injection) =>
-    inj.primarySpin !== undefined || inj.secondarySpin !== undefined
-      ? { primarySpin: inj.primarySpin ?? 0, secondarySpin: inj.secondarySpin ?? 0 }
-      : {};
   return {
     synthetic: true,
     noiseCurve: meta.noiseCurve,
@@ -58,21 +53,7 @@ export function injectionManifest(
     seed: meta.seed,
     detector: meta.detector,
     ...(meta.spinRange ? { spinRange: meta.spinRange } : {}),
-    injections: injections.map((inj) => ({
-      primaryMassSolar: inj.primaryMassSolar,
-      secondaryMassSolar: inj.secondaryMassSolar,
-      chirpMassSolar: chirpMass(inj.primaryMassSolar, inj.secondaryMassSolar),
-      coalescenceTime: inj.coalescenceTime,
-      distanceMpc: inj.distanceMpc,
-      inclination: inj.inclination,
-      rightAscension: inj.rightAscension,
-      declination: inj.declination,
-      polarisation: inj.polarisation,
-      phase: inj.phase,
-      optimalSnr: inj.optimalSnr ?? Number.NaN,
-      ...(inj.networkOptimalSnr !== undefined ? { networkOptimalSnr: inj.networkOptimalSnr } : {}),
-      ...spinFields(inj),
-    })),
+    injections: injections.map(injectionRecord),
   };
 }
 
