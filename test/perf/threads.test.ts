@@ -111,7 +111,7 @@ describe("multi-threaded search (worker_threads sharing the segment's weights)",
       psd: { kind: "model", model: ajith2011 },
     };
     for (const threads of [0, 1.5, -2, NaN]) {
-      await expect(searchStrain(arrayInput(data, FS), { ...options, threads })).rejects.toThrow(/threads must be a positive integer/);
+      await expect(searchStrain(arrayInput(data, FS), { ...options, threads })).rejects.toThrow(/threads: must be a positive integer/);
     }
   });
 });

@@ -1,5 +1,5 @@
 // The region of non-spinning binaries a bank must cover, described in chirp-time coordinates.
-import { InputError } from "../errors.js";
+import { InputError, parameterError } from "../errors.js";
 import { chirpTimesFromComponents, chirpTimesFromMassEta, componentsFromMassEta, massEtaFromChirpTimes } from "./chirpTimeCoordinates.js";
 import { T_SUN } from "../physics/constants.js";
 
@@ -71,7 +71,7 @@ export function createMassRegion(limits: MassRegionLimits, fMinHz: number): Mass
   if (!(mMin < mMax)) throw new InputError(`mass range: the minimum ${mMin} must be below the maximum ${mMax}`);
   if (!(totalMax > 2 * mMin)) throw new InputError(`the total-mass cap ${totalMax} must exceed twice the minimum component mass (${2 * mMin})`);
   if (!(qMax > 1)) throw new InputError(`the mass-ratio cap must be a number above 1 (got ${limits.massRatioCap})`);
-  if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw new InputError(`fmin must be a positive number (got ${fMinHz})`);
+  if (!(fMinHz > 0) || !Number.isFinite(fMinHz)) throw parameterError("fMinHz", `must be a positive number (got ${fMinHz})`);
 
   const tol = 1e-9;
   const containsMasses = (mA: number, mB: number): boolean => {

@@ -171,7 +171,7 @@ export function createChirpTimeMetric(options: ChirpTimeMetricOptions): ChirpTim
     const fIsco = iscoFrequencyHz(totalMassSolar);
     const fUp = Math.min(fIsco, fMaxHz);
     if (!(fUp > fMinHz)) {
-      throw new InputError(`metric: upper cutoff ${fUp.toFixed(1)} Hz (ISCO of ${totalMassSolar.toFixed(2)} M_sun) is not above fLow ${fMinHz} Hz`);
+      throw new InputError(`metric: upper cutoff ${fUp.toFixed(1)} Hz (ISCO of ${totalMassSolar.toFixed(2)} M_sun) is not above the low-frequency cutoff ${fMinHz} Hz`);
     }
     ensureGrid(fUp);
     const lnUp = Math.log(fUp);

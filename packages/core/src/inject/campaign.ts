@@ -194,7 +194,7 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
 
   const [mLo] = p.massRangeSolar;
   const fIsco = taylorT4Evolution(mLo, mLo).fIscoHz;
-  if (search.fMinHz >= fIsco) throw new InputError(`fmin ${search.fMinHz} Hz is not below the ISCO frequency ${fIsco.toFixed(1)} Hz of the lightest binary`);
+  if (search.fMinHz >= fIsco) throw parameterError("fMinHz", `${search.fMinHz} Hz is not below the ISCO frequency ${fIsco.toFixed(1)} Hz of the lightest binary`);
   // Aligned spins lengthen the inspiral (orbital hang-up): the longest chirp has the largest spins.
   const spinTop = p.spinRange ? p.spinRange[1] : 0;
   const longestInjection = taylorT4Duration(mLo, mLo, search.fMinHz, undefined, spinTop, spinTop);
@@ -221,7 +221,7 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
     const stretch = `stretches of ${(samples / fs).toPrecision(3)} s (${samples.toPrecision(3)} samples at ${fs} Hz), more than the limit of ${MAX_SEGMENT_SAMPLES} (2^23) samples`;
     if (search.segmentSeconds !== undefined) throw parameterError("segmentSeconds", `${search.segmentSeconds} s makes ${stretch}; use a shorter segment`);
     if (perBatchWanted !== undefined) throw parameterError("injectionsPerBatch", `${perBatchWanted} injections per batch need ${stretch}; use fewer per batch`);
-    throw new InputError(`${stretch}; raise fmin or lower the sample rate`);
+    throw new InputError(`${stretch}; raise the low-frequency cutoff or lower the sample rate`);
   }
   if (data.kind === "strain") {
     const longestFile = Math.max(...data.sources.map((s) => s.length));
@@ -231,7 +231,7 @@ export function planCampaign(options: CampaignOptions): CampaignLayout {
   if (batchSeconds <= 2 * margin) {
     throw new InputError(
       `a stretch of ${batchSeconds} s cannot hold a chirp of ${longestInjection.toFixed(1)} s with the search's padding; ` +
-        (data.kind === "strain" ? "use longer strain files or a higher fmin" : "use a longer segment or a higher fmin"),
+        (data.kind === "strain" ? "use longer strain files or a higher low-frequency cutoff" : "use a longer segment or a higher low-frequency cutoff"),
     );
   }
   const fits = 1 + Math.floor((batchSeconds - 2 * margin) / spacing);

@@ -34,23 +34,23 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
       if (!(Math.abs(s) < 1)) throw new InputError(`template ${i}: aligned spins must lie strictly between −1 and 1 (got ${s})`);
     }
   }
-  if (!(o.fMinHz > 0)) throw new InputError(`fmin must be a positive frequency (got ${o.fMinHz})`);
+  if (!(o.fMinHz > 0)) throw parameterError("fMinHz", `must be a positive frequency (got ${o.fMinHz})`);
   if (o.fMinHz >= sampleRate / 2) {
-    throw new InputError(`fmin ${o.fMinHz} Hz is at or above the Nyquist frequency ${sampleRate / 2} Hz of the data`);
+    throw parameterError("fMinHz", `${o.fMinHz} Hz is at or above the Nyquist frequency ${sampleRate / 2} Hz of the data`);
   }
-  if (!(o.snrThreshold > 0)) throw new InputError(`the SNR threshold must be positive (got ${o.snrThreshold})`);
+  if (!(o.snrThreshold > 0)) throw parameterError("snrThreshold", `must be positive (got ${o.snrThreshold})`);
   if (!Number.isInteger(o.chi2Bands) || o.chi2Bands < 0 || o.chi2Bands === 1) {
-    throw new InputError(`chi-squared bands must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bands})`);
+    throw parameterError("chi2Bands", `must be 0 (off) or an integer ≥ 2 (got ${o.chi2Bands})`);
   }
-  if (!(o.loudestWithinSeconds > 0)) throw new InputError(`the span kept to its loudest peak must be positive (got ${o.loudestWithinSeconds})`);
+  if (!(o.loudestWithinSeconds > 0)) throw parameterError("loudestWithinSeconds", `the span kept to its loudest peak must be positive (got ${o.loudestWithinSeconds})`);
   if (o.chi2Allowance !== undefined && !(o.chi2Allowance >= 0 && Number.isFinite(o.chi2Allowance))) {
-    throw new InputError(`the chi-squared allowance must be a number ≥ 0 (got ${o.chi2Allowance})`);
+    throw parameterError("chi2Allowance", `must be a number ≥ 0 (got ${o.chi2Allowance})`);
   }
   if (o.bandPowerLoss !== undefined && !(o.bandPowerLoss > 0 && o.bandPowerLoss <= 0.1)) {
     throw new InputError(`the fraction of SNR² a template may lose to its output rate must be in (0, 0.1] (got ${o.bandPowerLoss})`);
   }
   if (o.threads !== undefined && !(Number.isInteger(o.threads) && o.threads >= 1)) {
-    throw new InputError(`threads must be a positive integer (got ${o.threads})`);
+    throw parameterError("threads", `must be a positive integer (got ${o.threads})`);
   }
   if (o.psd.kind === "estimate") {
     // Welch needs segments of a few samples at least, and bins finer than the lowest frequency searched.
@@ -62,7 +62,7 @@ export function validateSearchOptions(o: SearchOptions, sampleRate: number): voi
     if (!(1 / seconds <= o.fMinHz)) {
       throw parameterError(
         "psd.segmentSeconds",
-        `${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than fmin ${o.fMinHz} Hz; use at least ${(1 / o.fMinHz).toPrecision(3)} s`,
+        `${seconds} s gives PSD bins ${(1 / seconds).toPrecision(3)} Hz wide, coarser than the low-frequency cutoff ${o.fMinHz} Hz; use at least ${(1 / o.fMinHz).toPrecision(3)} s`,
       );
     }
   }

@@ -49,7 +49,7 @@ export function planSegments(length: number, size: number, invalidStart: number,
   const stride = size - invalidStart - invalidEnd;
   if (stride <= 0) {
     throw new InputError(
-      `segment of ${size} samples is too short for templates needing ${invalidStart + invalidEnd} samples of padding; use a longer segment or a higher fmin`,
+      `segment of ${size} samples is too short for templates needing ${invalidStart + invalidEnd} samples of padding; use a longer segment or a higher low-frequency cutoff`,
     );
   }
   const segments: Segment[] = [];
