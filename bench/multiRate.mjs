@@ -9,7 +9,8 @@
 // same backend): the whole search per template-segment ÷ the floor, one thread, per-template rate
 // on and off (the speed-up of one over the other); the same with 2 threads (1 → 2 scaling, whole
 // run, both paths); the same 1 → 2 scaling over 4096 s (several segments, so that the pipeline
-// shows: segment k + 1 prepared while the workers filter segment k); the mean inverse-FFT length as
+// shows: segment k + 1 prepared while the workers filter segment k) and, for the wide bank, with
+// 2048 of its templates (one segment); the mean inverse-FFT length as
 // a fraction of the full one; peak RSS (VmHWM) of a whole scan with the default thread count,
 // per-template rate on and off, each in its own child process.
 import { spawnSync } from "node:child_process";
@@ -40,6 +41,8 @@ const SECONDS = 1024;
 const SUBSET = 256;
 /** Data (s) of the whole-run thread-scaling measurement: several segments, so the pipeline shows. */
 const LONG_SECONDS = 4096;
+/** Templates of the wide bank in the larger-bank thread-scaling measurement (evenly spread through it). */
+const MANY = 2048;
 
 export const WORKLOADS = {
   wide: { label: "wide bank, 1–30 M_sun from 20 Hz", massRangeSolar: [1, 30], fMinHz: 20, seed: "bench-wide" },
@@ -89,8 +92,10 @@ function workloadBank(w) {
     [idx[i], idx[j]] = [idx[j], idx[i]];
   }
   const chosen = idx.slice(0, count).sort((a, b) => a - b);
-  const templates = chosen.map((i) => ({ primaryMassSolar: bank.templates[i].primaryMassSolar, secondaryMassSolar: bank.templates[i].secondaryMassSolar }));
-  return { placed: bank.templates.length, placeSeconds, templates };
+  const pick = (t) => ({ primaryMassSolar: t.primaryMassSolar, secondaryMassSolar: t.secondaryMassSolar });
+  const templates = chosen.map((i) => pick(bank.templates[i]));
+  const many = Array.from({ length: Math.min(MANY, bank.templates.length) }, (_, i) => pick(bank.templates[Math.floor((i * bank.templates.length) / Math.min(MANY, bank.templates.length))]));
+  return { placed: bank.templates.length, placeSeconds, templates, many };
 }
 
 /** Mean inverse-FFT length ÷ the full length over the subset, and the count per length, in the model PSD. */
@@ -199,7 +204,7 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
   try {
     for (const [key, w] of Object.entries(WORKLOADS)) {
       log(`${w.label}: placing the bank…`);
-      const { placed, placeSeconds, templates } = workloadBank(w);
+      const { placed, placeSeconds, templates, many } = workloadBank(w);
       const data = colouredNoise(ajith2011, SECONDS * FS, FS, w.seed);
       const plan = chooseSegmentPlan(searchOptions(templates, w.fMinHz), FS, data.length);
       const n = plan.size;
@@ -280,6 +285,20 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
       const longScaling = { seconds: LONG_SECONDS, segments: longSegments, oneThreadSeconds: median(longWalls[1]), twoThreadSeconds: median(longWalls[2]) };
       longScaling.oneToTwoThreads = longScaling.oneThreadSeconds / longScaling.twoThreadSeconds;
       log(`  ${LONG_SECONDS} s (${longSegments} segments): 1 thread ${longScaling.oneThreadSeconds.toFixed(2)} s, 2 threads ${longScaling.twoThreadSeconds.toFixed(2)} s = ${longScaling.oneToTwoThreads.toFixed(2)}×`);
+      // The same 1 → 2 scaling with a larger share of the bank (wide only: 2048 templates, one
+      // segment): the per-segment preparation before the workers have work weighs 8× less.
+      let manyScaling;
+      if (key === "wide") {
+        const walls = { 1: [], 2: [] };
+        for (const threads of [1, 2]) {
+          const t0 = performance.now();
+          await searchStrain(arrayInput(data, FS), searchOptions(many, w.fMinHz, { fftBackend: backend, threads }));
+          walls[threads].push((performance.now() - t0) / 1000);
+        }
+        manyScaling = { templates: many.length, seconds: SECONDS, oneThreadSeconds: walls[1][0], twoThreadSeconds: walls[2][0] };
+        manyScaling.oneToTwoThreads = manyScaling.oneThreadSeconds / manyScaling.twoThreadSeconds;
+        log(`  ${many.length} templates, ${SECONDS} s: 1 thread ${manyScaling.oneThreadSeconds.toFixed(2)} s, 2 threads ${manyScaling.twoThreadSeconds.toFixed(2)} s = ${manyScaling.oneToTwoThreads.toFixed(2)}×`);
+      }
       log(`  peak RSS, ${rss.multi.threads} threads: per-template rate ${rss.multi.peakRssMb.toFixed(0)} MB, full rate ${rss.single.peakRssMb.toFixed(0)} MB`);
       // The cost model bank sweep uses (search/searchCost.ts), against the timed one-thread search of the same templates.
       const estimate = estimateSearchCost({ templates, fMinHz: w.fMinHz, sampleRate: FS, psd: ajith2011, backend, dataSeconds: SECONDS });
@@ -299,6 +318,7 @@ export async function rateWorkloads(log, { rounds = 2 } = {}) {
         speedupOverFullRate: runs.single1.wallSeconds / runs.multi1.wallSeconds,
         oneToTwoThreads: runs.multi1.wallSeconds / runs.multi2.wallSeconds,
         longScaling,
+        ...(manyScaling ? { manyScaling } : {}),
         fullRateOneToTwoThreads: runs.single1.wallSeconds / runs.single2.wallSeconds,
         coresAvailable: cores,
         peakRssMb: { perTemplateRate: rss.multi.peakRssMb, fullRate: rss.single.peakRssMb, threads: rss.multi.threads },
@@ -321,7 +341,7 @@ export function rateLines(results) {
     }
     lines.push(
       `   ${r.label}: ${r.ratioToFloor.toFixed(3)} × (target ≤ ${r.target}); full rate ${r.fullRateRatioToFloor.toFixed(3)} ×; speed-up ${r.speedupOverFullRate.toFixed(2)}×; ` +
-        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× over ${r.segments} segment(s), ${r.longScaling.oneToTwoThreads.toFixed(2)}× over ${r.longScaling.segments} segments of ${r.longScaling.seconds} s (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
+        `1 → 2 threads ${r.oneToTwoThreads.toFixed(2)}× over ${r.segments} segment(s), ${r.longScaling.oneToTwoThreads.toFixed(2)}× over ${r.longScaling.segments} segments of ${r.longScaling.seconds} s${r.manyScaling ? `, ${r.manyScaling.oneToTwoThreads.toFixed(2)}× with ${r.manyScaling.templates} templates` : ""} (target ≥ 1.85×; full rate ${r.fullRateOneToTwoThreads.toFixed(2)}×; cores available ${Math.min(...r.coresAvailable).toFixed(2)}–${Math.max(...r.coresAvailable).toFixed(2)}); mean FFT length ${r.meanLengthFraction.toFixed(3)}; ` +
         `peak RSS ${r.peakRssMb.perTemplateRate.toFixed(0)} MB (full rate ${r.peakRssMb.fullRate.toFixed(0)} MB); ` +
         `cost model (bank sweep's estimate) ÷ the timed search ${r.costModel.ratio.toFixed(2)} (target within 1/1.5–1.5)`,
     );
