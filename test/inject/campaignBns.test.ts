@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { loadFftBackends, planCampaign, runCampaign, summarizeCampaign } from "@chirpsieve/core";
+import { loadFftBackends, planCampaign, runCampaign, summariseCampaign } from "@chirpsieve/core";
 import { runCampaignBatch } from "../../packages/core/src/inject/campaign.js";
 import { bnsCampaign } from "./campaignFixtures.js";
 
@@ -17,7 +17,7 @@ describe("a seeded campaign of 100 BNS injections at optimal SNR 10–20 in ajit
     const outcomes = result.batches.flatMap((b) => b.injections);
     expect(outcomes.map((o) => o.index)).toEqual(Array.from({ length: 100 }, (_, i) => i));
     const falseCandidates = result.batches.flatMap((b) => b.falseCandidates);
-    const s = summarizeCampaign(outcomes, falseCandidates, options.population, 0);
+    const s = summariseCampaign(outcomes, falseCandidates, options.population, 0);
     expect(s.efficiency!).toBeGreaterThanOrEqual(0.95);
     expect(s.chirpMassError!.medianAbsolute).toBeLessThanOrEqual(0.005);
     expect(s.timeErrorSeconds!.medianAbsolute).toBeLessThanOrEqual(0.001);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { evaluateRequirements, parseRequirement, summarizeCampaign, type Candidate, type Injection, type InjectionOutcome } from "@chirpsieve/core";
+import { evaluateRequirements, parseRequirement, summariseCampaign, type Candidate, type Injection, type InjectionOutcome } from "@chirpsieve/core";
 import { arrivalTimeAt, matchInjections } from "../../packages/core/src/inject/matchInjections.js";
 import { SITE_A } from "../../packages/core/src/waveform/antenna.js";
 
@@ -83,7 +83,7 @@ describe("requirements", () => {
 
   it("evaluates each rule, saying by how much it was met or missed", () => {
     const outs = [outcome(0, 12, true, 50), outcome(1, 11, true, 80), outcome(2, 10.5, false, 150), outcome(3, 6, false, 300)];
-    const summary = summarizeCampaign(outs, [{ batch: 0, coalescenceTime: 5, snr: 7, reweightedSnr: 6, chirpMassSolar: 1.2 }], { count: 4, massRangeSolar: [1.3, 1.5], snrRange: [5, 15], seed: "x" }, 100);
+    const summary = summariseCampaign(outs, [{ batch: 0, coalescenceTime: 5, snr: 7, reweightedSnr: 6, chirpMassSolar: 1.2 }], { count: 4, massRangeSolar: [1.3, 1.5], snrRange: [5, 15], seed: "x" }, 100);
     const res = evaluateRequirements(
       [
         parseRequirement("efficiency>=0.6@snr>=10"),
@@ -105,10 +105,10 @@ describe("requirements", () => {
   });
 });
 
-describe("summarizeCampaign", () => {
+describe("summariseCampaign", () => {
   it("counts found/missed, bins by SNR over the drawn range and leaves distance figures out for an SNR-drawn population", () => {
     const outs = [outcome(0, 5.5, false), outcome(1, 6.5, false), outcome(2, 7.5, true), outcome(3, 8.5, true), outcome(4, 9.5, true)];
-    const s = summarizeCampaign(outs, [], { count: 5, massRangeSolar: [1.3, 1.5], snrRange: [5, 10], seed: "x" }, 50);
+    const s = summariseCampaign(outs, [], { count: 5, massRangeSolar: [1.3, 1.5], snrRange: [5, 10], seed: "x" }, 50);
     expect([s.injections, s.found, s.missed, s.efficiency]).toEqual([5, 3, 2, 0.6]);
     expect(s.efficiencyBySnr.map((b) => [b.snrLow, b.snrHigh, b.found, b.total])).toEqual([
       [5, 6, 0, 1],
@@ -130,7 +130,7 @@ describe("summarizeCampaign", () => {
 
   it("gives the 50% distance and a Monte Carlo volume for a distance-drawn population", () => {
     const outs = Array.from({ length: 100 }, (_, i) => outcome(i, 10, 10 + i * 2.9 < 150, 10 + i * 2.9));
-    const s = summarizeCampaign(outs, [], { count: 100, massRangeSolar: [1.3, 1.5], distanceMpc: [10, 300], seed: "x" }, 50);
+    const s = summariseCampaign(outs, [], { count: 100, massRangeSolar: [1.3, 1.5], distanceMpc: [10, 300], seed: "x" }, 50);
     expect(s.efficiencyByDistance).toHaveLength(10);
     expect(s.distance50Mpc!).toBeGreaterThan(125);
     expect(s.distance50Mpc!).toBeLessThan(175);

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { gaussianDetectionProbability, loadFftBackends, runCampaign, summarizeCampaign } from "@chirpsieve/core";
+import { gaussianDetectionProbability, loadFftBackends, runCampaign, summariseCampaign } from "@chirpsieve/core";
 import { bnsCampaign } from "./campaignFixtures.js";
 
 beforeAll(async () => {
@@ -38,7 +38,7 @@ describe("detection efficiency near the threshold (BNS in ajith2011 noise, thres
     const options = bnsCampaign(32, [3, 5], "bns-3-5");
     const r = await runCampaign(options);
     const outcomes = r.batches.flatMap((b) => b.injections);
-    const s = summarizeCampaign(outcomes, r.batches.flatMap((b) => b.falseCandidates), options.population, 0);
+    const s = summariseCampaign(outcomes, r.batches.flatMap((b) => b.falseCandidates), options.population, 0);
     expect(s.efficiency!).toBeLessThan(0.2);
   });
 
@@ -46,7 +46,7 @@ describe("detection efficiency near the threshold (BNS in ajith2011 noise, thres
     const options = bnsCampaign(112, [4, 10], "bns-4-10");
     const r = await runCampaign(options);
     const outcomes = r.batches.flatMap((b) => b.injections);
-    const s = summarizeCampaign(outcomes, r.batches.flatMap((b) => b.falseCandidates), options.population, 0);
+    const s = summariseCampaign(outcomes, r.batches.flatMap((b) => b.falseCandidates), options.population, 0);
     // FF = 0.97: the minimal match a bank of this density is meant to guarantee (a stand-in value;
     // the measured median recovered/optimal SNR at SNR 10–20 is ≈ 0.95, which includes the PSD estimate).
     const ff = 0.97;

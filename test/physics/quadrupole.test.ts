@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { InputError, M_SUN, chirpMass } from "@chirpsieve/core";
 import { C, G, MPC } from "../../packages/core/src/physics/constants.js";
-import { strainAmplitude, strainPolarizations } from "../../packages/core/src/physics/quadrupole.js";
+import { strainAmplitude, strainPolarisations } from "../../packages/core/src/physics/quadrupole.js";
 
 describe("quadrupole strain amplitude", () => {
   it("h0 = 4 (G Mc)^{5/3} (π f)^{2/3} / (c⁴ D) and scales as Mc^{5/3} f^{2/3} / D", () => {
@@ -18,11 +18,11 @@ describe("quadrupole strain amplitude", () => {
   });
 
   it("h+ = h0 (1 + cos²ι)/2 and h× = h0 cos ι: face-on both h0, edge-on h+ = h0/2, h× = 0", () => {
-    expect(strainPolarizations(2, 0)).toEqual({ plus: 2, cross: 2 });
-    const edge = strainPolarizations(2, Math.PI / 2);
+    expect(strainPolarisations(2, 0)).toEqual({ plus: 2, cross: 2 });
+    const edge = strainPolarisations(2, Math.PI / 2);
     expect(edge.plus).toBeCloseTo(1, 15);
     expect(edge.cross).toBeCloseTo(0, 15);
-    const p = strainPolarizations(1, Math.PI / 3);
+    const p = strainPolarisations(1, Math.PI / 3);
     expect(p.plus).toBeCloseTo(0.625, 15);
     expect(p.cross).toBeCloseTo(0.5, 15);
   });
@@ -31,7 +31,7 @@ describe("quadrupole strain amplitude", () => {
     expect(() => strainAmplitude(M_SUN, 100, 0)).toThrow(/strainAmplitude: distance \(m\) must be a positive finite number \(got 0\)/);
     expect(() => strainAmplitude(-M_SUN, 100, MPC)).toThrow(/chirpMass/);
     expect(() => strainAmplitude(M_SUN, NaN, MPC)).toThrow(/gwFrequency/);
-    expect(() => strainPolarizations(1e-21, NaN)).toThrow(/inclination/);
-    expect(() => strainPolarizations(0, 0)).toThrow(InputError);
+    expect(() => strainPolarisations(1e-21, NaN)).toThrow(/inclination/);
+    expect(() => strainPolarisations(0, 0)).toThrow(InputError);
   });
 });

@@ -6,7 +6,7 @@ import {
   loadFftBackends,
   parseRequirement,
   runCampaign,
-  summarizeCampaign,
+  summariseCampaign,
   type CampaignOptions,
 } from "@chirpsieve/core";
 import { campaignDocument, type CampaignDocument } from "../../packages/cli/src/reportData.js";
@@ -22,7 +22,7 @@ export async function smallCampaignDocument(): Promise<CampaignDocument> {
   const result = await runCampaign(options);
   const outcomes = result.batches.flatMap((b) => b.injections);
   const falseCandidates = result.batches.flatMap((b) => b.falseCandidates);
-  const summary = summarizeCampaign(outcomes, falseCandidates, options.population, 0);
+  const summary = summariseCampaign(outcomes, falseCandidates, options.population, 0);
   const requirements = evaluateRequirements([parseRequirement("efficiency>=0.9@snr>=10"), parseRequirement("time-error<=0")], outcomes, summary);
   return campaignDocument({
     version: "test",

@@ -67,7 +67,7 @@ export { campaignIdentity } from "./inject/campaignIdentity.js";
 export { evaluateRequirements, parseRequirement } from "./inject/campaignRequirements.js";
 export type { Requirement, RequirementResult } from "./inject/campaignRequirements.js";
 export { appendCampaignBatch, campaignFingerprint, readCampaignState, startCampaignState } from "./inject/campaignState.js";
-export { summarizeCampaign } from "./inject/campaignSummary.js";
+export { summariseCampaign } from "./inject/campaignSummary.js";
 export type { CampaignSummary } from "./inject/campaignSummary.js";
 export { gaussianDetectionProbability } from "./inject/detectionProbability.js";
 export { drawInjections } from "./inject/drawInjections.js";

@@ -20,7 +20,7 @@ import {
   resolveFftBackend,
   runCampaign,
   startCampaignState,
-  summarizeCampaign,
+  summariseCampaign,
   type BatchResult,
   type CampaignOptions,
   type PsdModel,
@@ -218,7 +218,7 @@ async function runRecover(flags: RecoverFlags, cmd: Command): Promise<void> {
     const outcomes = result.batches.flatMap((b) => b.injections);
     const falseCandidates = result.batches.flatMap((b) => b.falseCandidates);
     const analysed = result.batches.reduce((a, b) => a + b.analysedSeconds, 0);
-    const summary = summarizeCampaign(outcomes, falseCandidates, options.population, analysed);
+    const summary = summariseCampaign(outcomes, falseCandidates, options.population, analysed);
     const checks = evaluateRequirements(requirements, outcomes, summary);
     const doc: CampaignDocument = campaignDocument({
       version: VERSION,

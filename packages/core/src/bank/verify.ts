@@ -308,24 +308,22 @@ export function verifyBank(bank: TemplateBank, options: VerifyOptions = {}): Cov
     signal,
     drawSpace,
     seed,
-    ...coverageSummary(results, bank.matchFloor, options.worstCount ?? 5),
-    templates: nT,
-    matchesPerDraw: matchCount / results.length,
-    grid,
-    wallTimeMs: performance.now() - started,
+    ...coverageSummary(results, bank.matchFloor, options.worstCount ?? 5, { templates: nT, matchCount, grid, startedMs: started }),
   };
 }
 
 /**
  * The statistics a coverage report gives of its fitting factors: the draws, the fraction at or
  * above the minimal match, min, 1% quantile, median, mean, ⟨FF³⟩ (the rate-loss estimate of Owen,
- * Phys. Rev. D 53, 6749 (1996)) and the worst draws.
+ * Phys. Rev. D 53, 6749 (1996)) and the worst draws; with the run's template count, matches per
+ * draw, match grid and wall time.
  */
 export function coverageSummary(
   results: readonly FittingFactorDraw[],
   minimalMatch: number,
   worstCount: number,
-): Pick<CoverageReport, "draws" | "minimalMatch" | "fractionAboveMinimalMatch" | "min" | "p01" | "median" | "mean" | "meanCube" | "worst"> {
+  run: { templates: number; matchCount: number; grid: CoverageReport["grid"]; startedMs: number },
+): Omit<CoverageReport, "signal" | "drawSpace" | "seed"> {
   const ffs = results.map((x) => x.fittingFactor).sort((a, b) => a - b);
   return {
     draws: results.length,
@@ -337,6 +335,10 @@ export function coverageSummary(
     mean: ffs.reduce((s, v) => s + v, 0) / ffs.length,
     meanCube: ffs.reduce((s, v) => s + v * v * v, 0) / ffs.length,
     worst: [...results].sort((a, b) => a.fittingFactor - b.fittingFactor).slice(0, worstCount),
+    templates: run.templates,
+    matchesPerDraw: run.matchCount / results.length,
+    grid: run.grid,
+    wallTimeMs: performance.now() - run.startedMs,
   };
 }
 

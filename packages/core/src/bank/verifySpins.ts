@@ -122,10 +122,6 @@ export function verifyBankWithSpins(bank: TemplateBank, options: SpinVerifyOptio
     signal,
     drawSpace: "masses",
     seed,
-    ...coverageSummary(results, bank.matchFloor, options.worstCount ?? 5),
-    templates: nT,
-    matchesPerDraw: matchCount / results.length,
-    grid,
-    wallTimeMs: performance.now() - started,
+    ...coverageSummary(results, bank.matchFloor, options.worstCount ?? 5, { templates: nT, matchCount, grid, startedMs: started }),
   };
 }

@@ -94,7 +94,7 @@ function distanceRange(outcomes: readonly InjectionOutcome[], population: Campai
  * populations; median and 5–95% spread of the chirp-mass, time and SNR-ratio errors of the found
  * injections; the number of candidates that matched no injection.
  */
-export function summarizeCampaign(
+export function summariseCampaign(
   outcomes: readonly InjectionOutcome[],
   falseCandidates: readonly FalseCandidate[],
   population: CampaignPopulation,

@@ -3,7 +3,7 @@
 import { InputError } from "../errors.js";
 import { chirpMass, massRatio, symmetricMassRatio } from "./masses.js";
 import { gwFrequencyFromSeparation, orbitalPeriodFromSeparation, separationFromGwFrequency, separationFromOrbitalPeriod } from "./kepler.js";
-import { strainAmplitude, strainPolarizations } from "./quadrupole.js";
+import { strainAmplitude, strainPolarisations } from "./quadrupole.js";
 import { gwLuminosityCircular } from "./luminosity.js";
 import {
   eccentricityEnhancement,
@@ -117,7 +117,7 @@ export function describeBinary(input: BinaryInput): BinaryDescription {
   const insideIsco = separation < rIsco * (1 - 1e-12);
   const inspiral = !insideIsco;
   const h0 = inspiral && input.distance !== undefined ? strainAmplitude(mc, gwFrequency, input.distance) : null;
-  const pol = h0 !== null && input.inclination !== undefined ? strainPolarizations(h0, input.inclination) : null;
+  const pol = h0 !== null && input.inclination !== undefined ? strainPolarisations(h0, input.inclination) : null;
 
   return {
     m1,

@@ -4,7 +4,7 @@ import { C, G } from "./constants.js";
 import { requireFinite, requirePositive } from "./validate.js";
 
 /** The two polarisation amplitudes seen at an inclination ι (angle between orbital axis and line of sight). */
-export interface StrainPolarizations {
+export interface StrainPolarisations {
   plus: number;
   cross: number;
 }
@@ -28,9 +28,9 @@ export function strainAmplitude(chirpMassValue: number, gwFrequency: number, dis
  * Source: Maggiore, Gravitational Waves Vol. 1 (Oxford UP, 2008), Ch. 4 (circular orbits);
  * the angular factors of the quadrupole field of a circular binary.
  */
-export function strainPolarizations(h0: number, inclination: number): StrainPolarizations {
-  requirePositive("strainPolarizations", "h0", h0);
-  requireFinite("strainPolarizations", "inclination (rad)", inclination);
+export function strainPolarisations(h0: number, inclination: number): StrainPolarisations {
+  requirePositive("strainPolarisations", "h0", h0);
+  requireFinite("strainPolarisations", "inclination (rad)", inclination);
   const c = Math.cos(inclination);
   return { plus: (h0 * (1 + c * c)) / 2, cross: h0 * c };
 }

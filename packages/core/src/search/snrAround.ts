@@ -15,7 +15,7 @@ export interface SnrAroundTime {
 }
 
 /**
- * Re-filters the segment whose searched part holds `centerTime` with one template and returns
+ * Re-filters the segment whose searched part holds `centreTime` with one template and returns
  * |z| within ±halfWidthSeconds (clipped to the searched part), for plots of a candidate.
  * Uses the same segment plan, PSD and filter as the search.
  */
@@ -23,13 +23,13 @@ export async function snrAroundTime(
   input: SearchInput,
   options: SearchOptions,
   template: SearchTemplate,
-  centerTime: number,
+  centreTime: number,
   halfWidthSeconds: number,
 ): Promise<SnrAroundTime> {
   const fs = input.sampleRate;
   validateSearchOptions(options, fs);
   const plan = chooseSegmentPlan(options, fs, input.length);
-  const idx = Math.round((centerTime - input.startTime) * fs);
+  const idx = Math.round((centreTime - input.startTime) * fs);
   const seg = plan.segments.find((s) => idx >= s.searchStart && idx < s.searchEnd) ??
     plan.segments.reduce((best, s) => (Math.abs(s.searchStart - idx) < Math.abs(best.searchStart - idx) ? s : best), plan.segments[0]);
   if (!seg) throw new InputError(`${input.file}: no searchable segment`);
