@@ -177,23 +177,12 @@ export function checkInjection(value: unknown, where: string): Injection {
 }
 
 /** An injection as the tool's outputs record it (manifests, campaign outcomes): its parameters and chirp mass. */
-export interface InjectionRecord {
-  primaryMassSolar: number;
-  secondaryMassSolar: number;
+export interface InjectionRecord extends Omit<Injection, "optimalSnr"> {
   chirpMassSolar: number;
-  coalescenceTime: number;
-  distanceMpc: number;
-  inclination: number;
-  rightAscension: number;
-  declination: number;
-  polarisation: number;
-  phase: number;
   /** NaN when unknown (written as null in JSON). */
   optimalSnr: number;
   /** With several sites: the network optimal SNR, (Σ over sites of optimalSnr²)^{1/2}. */
   networkOptimalSnr?: number;
-  primarySpin?: number;
-  secondarySpin?: number;
 }
 
 /**

@@ -1,15 +1,7 @@
 import { readTextInput } from "../io/readTextInput.js";
 import { InputError } from "../errors.js";
 import { writeFileAtomic } from "../io/atomicWrite.js";
-import { type Injection, checkInjection, injectionRecord } from "./injection.js";
-
-/** One injection as listed in a manifest: the record plus its chirp mass and optimal SNR. */
-export interface ManifestInjection extends Injection {
-  chirpMassSolar: number;
-  optimalSnr: number;
-  /** With several sites: the network optimal SNR, (Σ over sites of optimalSnr²)^{1/2}. */
-  networkOptimalSnr?: number;
-}
+import { type Injection, type InjectionRecord, checkInjection, injectionRecord } from "./injection.js";
 
 /**
  * The JSON description of a simulated series and what was injected into it (chirpsieve's own
@@ -34,7 +26,8 @@ export interface InjectionManifest {
    * independently for the two bodies (absent for non-spinning injections).
    */
   spinRange?: [number, number];
-  injections: ManifestInjection[];
+  /** One record per injection (injection.ts injectionRecord). */
+  injections: InjectionRecord[];
 }
 
 /** Builds a manifest; every injection needs its optimalSnr (NaN is written as null otherwise). */
