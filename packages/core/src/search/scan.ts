@@ -1,27 +1,21 @@
 import { InputError, parameterError } from "../errors.js";
 import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
-import { chiSquared } from "../filter/chisq.js";
-import { parabolicPeak, type Trigger } from "../filter/peaks.js";
-import { reweightedSnr } from "../filter/reweight.js";
-import { M_SUN } from "../physics/constants.js";
-import { chirpMass } from "../physics/masses.js";
+import type { Trigger } from "../filter/peaks.js";
 import { clusterByTime } from "./cluster.js";
 import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
-import { segmentPsd } from "./segmentPsd.js";
-import { createGater, DEFAULT_GATE_SETTINGS, type Gater } from "../noise/gating.js";
+import { createGater, DEFAULT_GATE_SETTINGS } from "../noise/gating.js";
 import { MIN_WELCH_SEGMENT_SAMPLES } from "../noise/welch.js";
 import { badDataError, describeBadStretch, screenInput } from "./dataQuality.js";
-import { addGate } from "./gateList.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
-import { createBankFilter, type BankFilterConfig, type PeakWindow } from "./bankFilter.js";
+import { createBankFilter, type BankFilter, type BankFilterConfig } from "./bankFilter.js";
 import { createSegmentFilter, type SegmentFilter } from "./segmentFilter.js";
-import type { SegmentSpectrum } from "../filter/segmentSpectrum.js";
 import { DEFAULT_BAND_POWER_LOSS } from "./outputRate.js";
+import { finishStep, loadStep, type StepContext, type StepTally } from "./segmentSteps.js";
 import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
 import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
 import type { Candidate, GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
-import { effectiveSpin, templateSpins } from "./templateSpins.js";
+import { templateSpins } from "./templateSpins.js";
 
 /** Checks search options once, at the door. */
 export function validateSearchOptions(o: SearchOptions, sampleRate: number): void {
@@ -183,35 +177,16 @@ function searchThreads(o: SearchOptions, plan: { segments: readonly Segment[]; s
   return Math.min(defaultSearchThreads(), count);
 }
 
-/** One step of a run, loaded into a filter slot and ready for the templates. */
-interface LoadedStep {
-  /** Index of the segment in the plan. */
-  segIndex: number;
-  seg: Segment;
-  /** The filter (and, with workers, the pool slot) holding its weights. */
-  slot: number;
-  /** Its weighted spectrum, for the survivors' chi-squared test. */
-  spec: SegmentSpectrum;
-  /** Gates applied to its data. */
-  gates: GateRecord[];
-  peaks: PeakWindow;
-  /** The templates [from, to) of the bank to filter in it. */
-  part: { from: number; to: number };
-}
-
-interface RawTrigger extends Trigger {
-  time: number;
-  sigma: number;
-}
-
 /**
  * Runs the matched-filter search of a bank over one strain source, segment by segment, reading
  * only one segment's samples at a time: PSD per segment, one forward FFT of the data and the
  * template-independent filter weights, then per template the fast phase product and one inverse
  * FFT with windowed peaks above threshold (spread over `threads` worker threads that share the
  * weights); clustering across the bank and time; the chi-squared discriminator and reweighted SNR
- * for the survivors. Memory is bounded by the segment length and the thread count, not by the
- * length of the input. The candidates do not depend on the thread count.
+ * for the survivors (the steps: segmentSteps.ts). With workers the segments are pipelined through
+ * two filter slots: segment k + 1 is loaded while they filter segment k. Memory is bounded by the
+ * segment length and the thread count, not by the length of the input. The candidates do not
+ * depend on the thread count.
  * A candidate is not a detection.
  */
 export async function searchStrain(
@@ -264,105 +239,72 @@ export async function searchStrain(
   const poolStart: Promise<SearchPool> | undefined =
     threads > 1 ? createSearchPool(threads, config, filters.map((f) => f.weights), masses, spins) : undefined;
   poolStart?.catch(() => {}); // awaited below; this only keeps an early failure from going unhandled
-  let pool: SearchPool | undefined;
-  const inlineSigmas = new Float64Array(templates.length);
-  const buffers = [new Float64Array(n), new Float64Array(n)];
-  const iscoOffsets = templates.map((t) => templateIscoTimeOffset(t.primaryMassSolar, t.secondaryMassSolar, options.fMinHz));
   const hook = options.segmentHook;
-  // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
-  const todo = hook ? hook.segments(plan.segments.length) : plan.segments.map((_, i) => i);
   const gating = options.gating === undefined ? DEFAULT_GATE_SETTINGS : options.gating;
-  const gater: Gater | undefined = gating ? createGater(n, fs, backend) : undefined;
-  // A model PSD is the same for every segment: evaluated once.
-  let modelPsd: Float64Array | undefined;
-
-  /**
-   * Step `step` of the run made ready to filter: its segment read into buffers[step % 2], its PSD
-   * estimated, loud transients gated, and the data transformed and weighted into filter slot
-   * step % (number of filters). With workers this runs while they filter the previous step.
-   */
-  const load = async (step: number): Promise<LoadedStep> => {
-    const segIndex = todo[step];
-    const seg = plan.segments[segIndex];
-    const data = buffers[step % 2];
-    const raw = await source.read(seg.start, seg.dataLength);
-    data.fill(0);
-    data.set(raw);
-    const psd =
-      options.psd.kind === "model"
-        ? (modelPsd ??= segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples, backend))
-        : segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, truncSamples, backend);
-    const gates: GateRecord[] = [];
-    if (gater && gating) {
-      for (const g of gater.apply(data, raw.length, psd, options.fMinHz, fMax, gating)) {
-        gates.push({ time: source.startTime + (seg.start + g.peakSample) / fs, zeroedSeconds: (g.zeroEnd - g.zeroStart) / fs, peakSigma: g.peakSigma });
-      }
-    }
-    const slot = step % filters.length;
-    const spec = filters[slot].load(data, raw.length, psd);
-    const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window };
-    const part = hook ? hook.templates(segIndex) : { from: 0, to: templates.length };
-    return { segIndex, seg, slot, spec, gates, peaks, part };
+  const ctx: StepContext = {
+    source,
+    options,
+    plan,
+    // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
+    todo: hook ? hook.segments(plan.segments.length) : plan.segments.map((_, i) => i),
+    filters,
+    buffers: [new Float64Array(n), new Float64Array(n)],
+    gater: gating ? createGater(n, fs, backend) : undefined,
+    gating,
+    fMaxHz: fMax,
+    truncationSamples: truncSamples,
+    backend,
+    windowSamples: window,
+    iscoOffsets: templates.map((t) => templateIscoTimeOffset(t.primaryMassSolar, t.secondaryMassSolar, options.fMinHz)),
   };
-
-  const all: Candidate[] = [];
-  const gates: GateRecord[] = [];
-  let analysed = 0;
-  let done = 0;
-  const total = todo.length;
-  /** A filtered step's peaks to candidates: timing, clustering, the survivors' χ², the hook and progress. */
-  const finish = (step: LoadedStep, triggers: Trigger[], sigmas: Float64Array): void => {
-    const seg = step.seg;
-    const searchSamples = seg.searchEnd - seg.searchStart;
-    analysed += searchSamples;
-    // Segments overlap: a transient in the overlap is gated in both, and recorded once.
-    for (const g of step.gates) addGate(gates, g);
-    const segStartTime = source.startTime + seg.start / fs;
-    const timed: RawTrigger[] = triggers.map((tr) => {
-      const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
-      return { ...tr, time: segStartTime + (tr.index + offset) / fs + iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
-    });
-    const first = all.length;
-    const kept = clusterByTime(timed, options.loudestWithinSeconds);
-    for (const c of survivorCandidates(kept, source, options, filters[step.slot], step.spec)) all.push(c);
-    hook?.done(step.segIndex, { searchSamples, gates: step.gates, triggers: timed, survivors: kept, candidates: all.slice(first) });
-    options.onProgress?.(++done, total);
-  };
+  const tally: StepTally = { candidates: [], gates: [], analysedSamples: 0, done: 0 };
   try {
-    if (inline) {
-      for (let step = 0; step < total; step++) {
-        const cur = await load(step);
-        const triggers: Trigger[] = [];
-        inline.scan(filter.weights, masses, cur.part.from, cur.part.to, cur.peaks, inlineSigmas, triggers, spins);
-        finish(cur, triggers, inlineSigmas);
-      }
-    } else if (total > 0) {
-      // The first step is loaded while the workers start; then each step's successor is loaded
-      // while the workers filter it, and its survivors are tested while they filter the successor.
-      let cur = await load(0);
-      pool = await poolStart!;
-      let running = pool.run(cur.segIndex, cur.slot, cur.peaks, cur.part.from, cur.part.to);
-      for (let step = 0; step < total; step++) {
-        running.catch(() => {}); // awaited just below
-        const ahead = step + 1 < total ? load(step + 1) : undefined;
-        ahead?.catch(() => {}); // awaited just below
-        const triggers = await running;
-        const next = ahead ? await ahead : undefined;
-        if (next) running = pool.run(next.segIndex, next.slot, next.peaks, next.part.from, next.part.to);
-        finish(cur, triggers, pool.sigmas[cur.slot]);
-        if (next) cur = next;
-      }
-    }
+    if (inline) await filterOnThisThread(ctx, tally, inline, masses, spins);
+    else if (ctx.todo.length > 0) await filterPipelined(ctx, tally, poolStart!);
   } finally {
     inline?.dispose();
     filter.dispose();
-    if (poolStart) await (pool ?? (await poolStart.catch(() => undefined)))?.close();
+    if (poolStart) await (await poolStart.catch(() => undefined))?.close();
   }
+  // Across segment boundaries: the loudest within the span, once more.
   const candidates = clusterByTime(
-    all.map((c) => ({ ...c, time: c.coalescenceTime })),
+    tally.candidates.map((c) => ({ ...c, time: c.coalescenceTime })),
     options.loudestWithinSeconds,
   ).map(({ time: _t, ...c }) => c as Candidate);
-  return { candidates, summary: summaryOf(analysed, gates, threads) };
+  return { candidates, summary: summaryOf(tally.analysedSamples, tally.gates, threads) };
+}
+
+/** One thread: each step is loaded, filtered and finished in turn on this thread. */
+async function filterOnThisThread(ctx: StepContext, tally: StepTally, bank: BankFilter, masses: Float64Array, spins: Float64Array | undefined): Promise<void> {
+  const sigmas = new Float64Array(masses.length / 2);
+  for (let step = 0; step < ctx.todo.length; step++) {
+    const cur = await loadStep(ctx, step);
+    const triggers: Trigger[] = [];
+    bank.scan(ctx.filters[cur.slot].weights, masses, cur.part.from, cur.part.to, cur.peaks, sigmas, triggers, spins);
+    finishStep(ctx, tally, cur, triggers, sigmas);
+  }
+}
+
+/**
+ * Worker threads, pipelined: the first step is loaded while the workers start; then each step's
+ * successor is loaded (into the other filter slot) while the workers filter it, and as soon as they
+ * finish they start on the successor while this thread tests the step's survivors.
+ */
+async function filterPipelined(ctx: StepContext, tally: StepTally, poolStart: Promise<SearchPool>): Promise<void> {
+  const total = ctx.todo.length;
+  let cur = await loadStep(ctx, 0);
+  const pool = await poolStart;
+  let running = pool.run(cur.segIndex, cur.slot, cur.peaks, cur.part.from, cur.part.to);
+  for (let step = 0; step < total; step++) {
+    running.catch(() => {}); // awaited just below
+    const ahead = step + 1 < total ? loadStep(ctx, step + 1) : undefined;
+    ahead?.catch(() => {}); // awaited just below
+    const triggers = await running;
+    const next = ahead ? await ahead : undefined;
+    if (next) running = pool.run(next.segIndex, next.slot, next.peaks, next.part.from, next.part.to);
+    finishStep(ctx, tally, cur, triggers, pool.sigmas[cur.slot]);
+    if (next) cur = next;
+  }
 }
 
 /** What a search of one input covered: its plan's bookkeeping and what the run measured. */
@@ -393,43 +335,4 @@ function searchSummary(
     threads: run.threads,
     wallSeconds: run.wallSeconds,
   };
-}
-
-/**
- * The candidates of one segment's survivors of clustering: the chi-squared discriminator (on the
- * segment's loaded spectrum, at the full-rate peak sample) and reweighted SNR, the template's
- * masses and spins, and the effective distance from σ.
- */
-function survivorCandidates(
-  kept: readonly RawTrigger[],
-  source: SearchInput,
-  options: SearchOptions,
-  filter: SegmentFilter,
-  spec: SegmentSpectrum,
-): Candidate[] {
-  const out: Candidate[] = [];
-  for (const tr of kept) {
-    const t = options.templates[tr.templateIndex];
-    const kEnd = filter.generate(t);
-    const { chi2, dof } = options.chi2Bands >= 2 ? chiSquared(spec, filter.template, kEnd, tr.index, options.chi2Bands) : { chi2: 0, dof: 0 };
-    const peak = parabolicPeak(tr.before, tr.snr, tr.after);
-    out.push({
-      coalescenceTime: tr.time,
-      snr: peak.value,
-      phase: Math.atan2(tr.im, tr.re),
-      chi2,
-      chi2Dof: dof,
-      reweightedSnr: reweightedSnr(peak.value, chi2, dof, options.chi2Allowance ?? 0),
-      primaryMassSolar: t.primaryMassSolar,
-      secondaryMassSolar: t.secondaryMassSolar,
-      chirpMassSolar: chirpMass(t.primaryMassSolar * M_SUN, t.secondaryMassSolar * M_SUN) / M_SUN,
-      primarySpin: t.primarySpin ?? 0,
-      secondarySpin: t.secondarySpin ?? 0,
-      effectiveSpin: effectiveSpin(t),
-      effectiveDistanceMpc: tr.sigma / peak.value,
-      templateIndex: tr.templateIndex,
-      file: source.fileAt ? source.fileAt(tr.time) : source.file,
-    });
-  }
-  return out;
 }
