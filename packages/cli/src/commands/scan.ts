@@ -12,7 +12,7 @@ import {
   openStrain,
   psdModelFromSpec,
   resolveFftBackend,
-  searchStrain,
+  searchEach,
   writeFileAtomic,
   type Candidate,
   type PsdMethod,
@@ -274,22 +274,24 @@ async function searchStreams(
   const candidates: Candidate[] = [];
   const summaries: SearchSummary[] = [];
   try {
-    for (const [i, stream] of streams.entries()) {
-      const r = await searchStrain(stream, {
-        ...searchOptions,
-        threads, // not part of the run id: results do not depend on it
-        onProgress: (done, total) => progress.update(i, streams.length, done, total),
-        segmentHook: run?.hook(i),
-      });
-      if (r.summary.unsearchable) {
-        const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --welch-segment" : "raise --fmin, use heavier masses or longer data";
-        // Too short by itself is the user's to fix; left with nothing by the exclusions they asked for is reported.
-        if (streams.length === 1 && r.summary.skipped.length === 0) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
-        process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
-      }
-      for (const c of r.candidates) candidates.push(c);
-      summaries.push(r.summary);
-    }
+    // One run over the streams: the next stream is screened and its first segment loaded while the
+    // workers filter the last segment of the one before.
+    await searchEach(
+      streams.length,
+      (i) => ({ input: streams[i], segmentHook: run?.hook(i), onProgress: (done, total) => progress.update(i, streams.length, done, total) }),
+      { ...searchOptions, threads }, // threads are not part of the run id: results do not depend on them
+      (i, r) => {
+        const stream = streams[i];
+        if (r.summary.unsearchable) {
+          const remedy = r.summary.unsearchableLimitedBy === "filter" ? "use a shorter --welch-segment" : "raise --fmin, use heavier masses or longer data";
+          // Too short by itself is the user's to fix; left with nothing by the exclusions they asked for is reported.
+          if (streams.length === 1 && r.summary.skipped.length === 0) throw new UsageError(`${stream.file}: ${r.summary.unsearchable}; ${remedy}`);
+          process.stderr.write(`chirpsieve: warning: ${stream.file}: not searched: ${r.summary.unsearchable}\n`);
+        }
+        for (const c of r.candidates) candidates.push(c);
+        summaries.push(r.summary);
+      },
+    );
   } finally {
     progress.stop();
   }

@@ -6,7 +6,8 @@ import { sampledPsdModel } from "../noise/interpolatePsd.js";
 import type { PsdModel } from "../noise/psdModel.js";
 import { welchPsd } from "../noise/welch.js";
 import { arrayInput } from "../search/arrayInput.js";
-import { searchStrain, truncationSeconds, validateSearchOptions } from "../search/scan.js";
+import { truncationSeconds, validateSearchOptions } from "../search/scan.js";
+import { searchEach, searchStrain, type SearchResult } from "../search/searchEach.js";
 import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo } from "../search/segmentPlan.js";
 import { templateDurationSeconds } from "../search/templateTiming.js";
 import type { SearchInput, SearchOptions } from "../search/types.js";
@@ -355,10 +356,20 @@ async function batchStrain(options: CampaignOptions, layout: CampaignLayout, b: 
  */
 export async function runCampaignBatch(options: CampaignOptions, layout: CampaignLayout, b: number): Promise<BatchResult> {
   if (!Number.isInteger(b) || b < 0 || b >= layout.batches) throw new InputError(`batch must be a whole number in [0, ${layout.batches}) (got ${b})`);
-  const detector = options.detector ?? SITE_A;
   const { input, injections } = await batchStrain(options, layout, b);
+  return batchResult(options, layout, b, injections, await searchStrain(input, batchSearchOptions(options, layout)));
+}
+
+/** The search options of every batch: the campaign's, one segment per batch, without a progress callback. */
+function batchSearchOptions(options: CampaignOptions, layout: CampaignLayout): SearchOptions {
   const { onProgress: _ignored, ...search } = options.search;
-  const { candidates, summary } = await searchStrain(input, { ...search, segmentSeconds: layout.batchSeconds });
+  return { ...search, segmentSeconds: layout.batchSeconds };
+}
+
+/** Batch b's outcome: its injections matched to the search's candidates, and the candidates matching none. */
+function batchResult(options: CampaignOptions, layout: CampaignLayout, b: number, injections: Injection[], search: SearchResult): BatchResult {
+  const detector = options.detector ?? SITE_A;
+  const { candidates, summary } = search;
   const { matched, unmatched } = matchInjections(injections, candidates, detector, layout.matchWindowSeconds);
   const first = b * layout.injectionsPerBatch;
   const outcomes: InjectionOutcome[] = injections.map((inj, k) => {
@@ -390,15 +401,16 @@ export async function runCampaignBatch(options: CampaignOptions, layout: Campaig
 export interface CampaignHooks {
   /** Batches already finished (e.g. read back from a state file): they are not run again. */
   completed?: readonly BatchResult[];
-  /** Called after each newly finished batch, before the next starts (e.g. to append it to a state file). */
+  /** Called after each newly finished batch, in batch order (the next may already be under way), e.g. to append it to a state file. */
   onBatch?: (result: BatchResult) => void | Promise<void>;
   /** Called with (batches finished, batches in all), including those given as completed. */
   onProgress?: (done: number, total: number) => void;
 }
 
 /**
- * Runs a whole injection-recovery campaign batch by batch ({@link planCampaign},
- * {@link runCampaignBatch}), skipping batches given as completed; every batch is determined by the
+ * Runs a whole injection-recovery campaign batch by batch ({@link planCampaign}; each batch as
+ * {@link runCampaignBatch} runs it, the batches pipelined through one set of workers by
+ * searchEach), skipping batches given as completed; every batch is determined by the
  * options and its index alone, so an interrupted campaign resumed from its finished batches gives
  * the same results as one run straight through. Recovered injections are not detections of real
  * sources.
@@ -413,12 +425,26 @@ export async function runCampaign(options: CampaignOptions, hooks: CampaignHooks
     if (!done.has(r.batch)) done.set(r.batch, r);
   }
   hooks.onProgress?.(done.size, layout.batches);
-  for (let b = 0; b < layout.batches; b++) {
-    if (done.has(b)) continue;
-    const r = await runCampaignBatch(options, layout, b);
-    await hooks.onBatch?.(r);
-    done.set(b, r);
-    hooks.onProgress?.(done.size, layout.batches);
-  }
+  // The batches left, searched as one run of inputs (searchEach): batch k + 1 is made and its data
+  // loaded while the workers filter batch k.
+  const todo = Array.from({ length: layout.batches }, (_, b) => b).filter((b) => !done.has(b));
+  const injectionsOf = new Map<number, Injection[]>();
+  await searchEach(
+    todo.length,
+    async (k) => {
+      const { input, injections } = await batchStrain(options, layout, todo[k]);
+      injectionsOf.set(k, injections);
+      return { input };
+    },
+    batchSearchOptions(options, layout),
+    async (k, search) => {
+      const b = todo[k];
+      const r = batchResult(options, layout, b, injectionsOf.get(k)!, search);
+      injectionsOf.delete(k);
+      await hooks.onBatch?.(r);
+      done.set(b, r);
+      hooks.onProgress?.(done.size, layout.batches);
+    },
+  );
   return { layout, batches: [...done.values()].sort((a, c) => a.batch - c.batch) };
 }

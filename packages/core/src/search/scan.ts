@@ -1,21 +1,12 @@
 import { InputError, parameterError } from "../errors.js";
-import { resolveFftBackend } from "../fft/backends.js";
 import type { FftBackendName } from "../fft/types.js";
-import type { Trigger } from "../filter/peaks.js";
-import { clusterByTime } from "./cluster.js";
 import { MAX_SEGMENT_SAMPLES, nextPowerOfTwo, planSegments, type Segment, type SegmentPlan } from "./segmentPlan.js";
-import { createGater, DEFAULT_GATE_SETTINGS } from "../noise/gating.js";
 import { MIN_WELCH_SEGMENT_SAMPLES } from "../noise/welch.js";
 import { badDataError, describeBadStretch, screenInput } from "./dataQuality.js";
 import { planStream, validIntervals, type ExcludedRange, type StreamPlan } from "./streamPlan.js";
-import { createBankFilter, type BankFilter, type BankFilterConfig } from "./bankFilter.js";
-import { createSegmentFilter, type SegmentFilter } from "./segmentFilter.js";
-import { DEFAULT_BAND_POWER_LOSS } from "./outputRate.js";
-import { finishStep, loadStep, type StepContext, type StepTally } from "./segmentSteps.js";
-import { createSearchPool, defaultSearchThreads, maxSearchThreads, type SearchPool } from "./workerPool.js";
-import { templateDurationSeconds, templateIscoTimeOffset } from "./templateTiming.js";
-import type { Candidate, GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
-import { templateSpins } from "./templateSpins.js";
+import { defaultSearchThreads, maxSearchThreads } from "./workerPool.js";
+import { templateDurationSeconds } from "./templateTiming.js";
+import type { GateRecord, SearchInput, SearchOptions, SearchSummary, SkippedStretch } from "./types.js";
 
 /** Checks search options once, at the door. */
 export function validateSearchOptions(o: SearchOptions, sampleRate: number): void {
@@ -170,145 +161,15 @@ const SMALL_JOB = 2 ** 25;
  * defaultSearchThreads() unless the whole job is so small (< 2^25 template-samples, ~0.2 s of
  * FFTs) that starting workers would cost more than they save.
  */
-function searchThreads(o: SearchOptions, plan: { segments: readonly Segment[]; size: number }): number {
+export function searchThreads(o: SearchOptions, plan: { segments: readonly Segment[]; size: number }): number {
   const count = o.templates.length;
   if (o.threads !== undefined) return Math.min(o.threads, maxSearchThreads(), count);
   if (count * plan.segments.length * plan.size < SMALL_JOB) return 1;
   return Math.min(defaultSearchThreads(), count);
 }
 
-/**
- * Runs the matched-filter search of a bank over one strain source, segment by segment, reading
- * only one segment's samples at a time: PSD per segment, one forward FFT of the data and the
- * template-independent filter weights, then per template the fast phase product and one inverse
- * FFT with windowed peaks above threshold (spread over `threads` worker threads that share the
- * weights); clustering across the bank and time; the chi-squared discriminator and reweighted SNR
- * for the survivors (the steps: segmentSteps.ts). With workers the segments are pipelined through
- * two filter slots: segment k + 1 is loaded while they filter segment k. Memory is bounded by the
- * segment length and the thread count, not by the length of the input. The candidates do not
- * depend on the thread count.
- * A candidate is not a detection.
- */
-export async function searchStrain(
-  source: SearchInput,
-  options: SearchOptions,
-): Promise<{ candidates: Candidate[]; summary: SearchSummary }> {
-  const wallStart = performance.now();
-  const fs = source.sampleRate;
-  validateSearchOptions(options, fs);
-  const backend: FftBackendName = resolveFftBackend(options.fftBackend ?? "auto");
-  const plan = options.segmentHook?.plan ?? (await planSearch(source, options));
-  const n = plan.size;
-  const summaryOf = (analysedSamples: number, gates: GateRecord[], threads: number): SearchSummary =>
-    searchSummary(source, options, plan, { analysedSamples, gates, threads, backend, wallSeconds: (performance.now() - wallStart) / 1000 });
-  if (plan.segments.length === 0) return { candidates: [], summary: summaryOf(0, [], 1) };
-  const fMax = Math.min(options.fMaxHz ?? 0.95 * (fs / 2), fs / 2);
-  const templates = options.templates;
-  const threads = searchThreads(options, plan);
-  const window = Math.max(1, Math.round(options.loudestWithinSeconds * fs));
-  const truncSamples = Math.round(truncationSeconds(options) * fs);
-  const filter = createSegmentFilter({
-    size: n,
-    sampleRate: fs,
-    fMinHz: options.fMinHz,
-    fMaxHz: fMax,
-    psd: options.psd,
-    truncationSamples: truncSamples,
-    backend,
-    shared: threads > 1,
-  });
-  const config: BankFilterConfig = {
-    size: n,
-    sampleRate: fs,
-    fMinHz: options.fMinHz,
-    fMaxHz: fMax,
-    backend,
-    ...(options.perTemplateRate === false ? {} : { bandPowerLoss: options.bandPowerLoss ?? DEFAULT_BAND_POWER_LOSS }),
-  };
-  const masses = new Float64Array(2 * templates.length);
-  templates.forEach((t, i) => {
-    masses[2 * i] = t.primaryMassSolar;
-    masses[2 * i + 1] = t.secondaryMassSolar;
-  });
-  const spins = templateSpins(templates);
-  // With workers, a double buffer: segment k + 1 is loaded into one filter while the workers filter
-  // segment k against the other's weights.
-  const filters: SegmentFilter[] = threads > 1 ? [filter, filter.twin()] : [filter];
-  // One thread filters on this thread; more start workers now, while the first segment is read.
-  const inline = threads === 1 ? createBankFilter(config) : undefined;
-  const poolStart: Promise<SearchPool> | undefined =
-    threads > 1 ? createSearchPool(threads, config, filters.map((f) => f.weights), masses, spins) : undefined;
-  poolStart?.catch(() => {}); // awaited below; this only keeps an early failure from going unhandled
-  const hook = options.segmentHook;
-  const gating = options.gating === undefined ? DEFAULT_GATE_SETTINGS : options.gating;
-  const ctx: StepContext = {
-    source,
-    options,
-    plan,
-    // The segments to search, in order: all of them, or those the hook picks (sharding, resume).
-    todo: hook ? hook.segments(plan.segments.length) : plan.segments.map((_, i) => i),
-    filters,
-    buffers: [new Float64Array(n), new Float64Array(n)],
-    gater: gating ? createGater(n, fs, backend) : undefined,
-    gating,
-    fMaxHz: fMax,
-    truncationSamples: truncSamples,
-    backend,
-    windowSamples: window,
-    iscoOffsets: templates.map((t) => templateIscoTimeOffset(t.primaryMassSolar, t.secondaryMassSolar, options.fMinHz)),
-  };
-  const tally: StepTally = { candidates: [], gates: [], analysedSamples: 0, done: 0 };
-  try {
-    if (inline) await filterOnThisThread(ctx, tally, inline, masses, spins);
-    else if (ctx.todo.length > 0) await filterPipelined(ctx, tally, poolStart!);
-  } finally {
-    inline?.dispose();
-    filter.dispose();
-    if (poolStart) await (await poolStart.catch(() => undefined))?.close();
-  }
-  // Across segment boundaries: the loudest within the span, once more.
-  const candidates = clusterByTime(
-    tally.candidates.map((c) => ({ ...c, time: c.coalescenceTime })),
-    options.loudestWithinSeconds,
-  ).map(({ time: _t, ...c }) => c as Candidate);
-  return { candidates, summary: summaryOf(tally.analysedSamples, tally.gates, threads) };
-}
-
-/** One thread: each step is loaded, filtered and finished in turn on this thread. */
-async function filterOnThisThread(ctx: StepContext, tally: StepTally, bank: BankFilter, masses: Float64Array, spins: Float64Array | undefined): Promise<void> {
-  const sigmas = new Float64Array(masses.length / 2);
-  for (let step = 0; step < ctx.todo.length; step++) {
-    const cur = await loadStep(ctx, step);
-    const triggers: Trigger[] = [];
-    bank.scan(ctx.filters[cur.slot].weights, masses, cur.part.from, cur.part.to, cur.peaks, sigmas, triggers, spins);
-    finishStep(ctx, tally, cur, triggers, sigmas);
-  }
-}
-
-/**
- * Worker threads, pipelined: the first step is loaded while the workers start; then each step's
- * successor is loaded (into the other filter slot) while the workers filter it, and as soon as they
- * finish they start on the successor while this thread tests the step's survivors.
- */
-async function filterPipelined(ctx: StepContext, tally: StepTally, poolStart: Promise<SearchPool>): Promise<void> {
-  const total = ctx.todo.length;
-  let cur = await loadStep(ctx, 0);
-  const pool = await poolStart;
-  let running = pool.run(cur.segIndex, cur.slot, cur.peaks, cur.part.from, cur.part.to);
-  for (let step = 0; step < total; step++) {
-    running.catch(() => {}); // awaited just below
-    const ahead = step + 1 < total ? loadStep(ctx, step + 1) : undefined;
-    ahead?.catch(() => {}); // awaited just below
-    const triggers = await running;
-    const next = ahead ? await ahead : undefined;
-    if (next) running = pool.run(next.segIndex, next.slot, next.peaks, next.part.from, next.part.to);
-    finishStep(ctx, tally, cur, triggers, pool.sigmas[cur.slot]);
-    if (next) cur = next;
-  }
-}
-
 /** What a search of one input covered: its plan's bookkeeping and what the run measured. */
-function searchSummary(
+export function searchSummary(
   source: SearchInput,
   options: SearchOptions,
   plan: SearchPlan,

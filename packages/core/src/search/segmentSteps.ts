@@ -16,16 +16,16 @@ import { segmentPsd } from "./segmentPsd.js";
 import { effectiveSpin } from "./templateSpins.js";
 import type { Candidate, GateRecord, SearchInput, SearchOptions } from "./types.js";
 
-/** What every step of one search shares: its input, options and plan, the filter slots and buffers. */
-export interface StepContext {
-  readonly source: SearchInput;
-  readonly options: SearchOptions;
-  readonly plan: SearchPlan;
-  /** The plan's segments to search, in order (step i searches segment todo[i]). */
-  readonly todo: readonly number[];
-  /** One filter slot, or two (a double buffer) when workers filter. Step i uses slot i % length. */
+/**
+ * What the steps of a search share across its inputs (while they share sample rate and segment
+ * length): the filter slots, sample buffers, gater and per-template timing.
+ */
+export interface StepMachinery {
+  readonly size: number;
+  readonly sampleRate: number;
+  /** One filter slot, or two (a double buffer) when workers filter. */
   readonly filters: readonly SegmentFilter[];
-  /** Two segment-length sample buffers; step i reads into buffers[i % 2]. */
+  /** A segment-length sample buffer per slot. */
   readonly buffers: readonly Float64Array[];
   readonly gater: Gater | undefined;
   readonly gating: GateSettings | null;
@@ -40,14 +40,26 @@ export interface StepContext {
   modelPsd?: Float64Array;
 }
 
-/** What the finished steps have given so far. */
-export interface StepTally {
-  candidates: Candidate[];
+/** One input of a search: what it is, how it is searched, its plan and what its steps have given so far. */
+export interface InputRun {
+  /** Its place among the run's inputs. */
+  readonly index: number;
+  readonly source: SearchInput;
+  /** The search options, with this input's hook and progress callback. */
+  readonly options: SearchOptions;
+  readonly plan: SearchPlan;
+  /** The plan's segments to search, in order (step i searches segment todo[i]). */
+  readonly todo: readonly number[];
+  readonly candidates: Candidate[];
   /** Gates, each recorded once though segments overlap. */
-  gates: GateRecord[];
+  readonly gates: GateRecord[];
   analysedSamples: number;
   /** Steps finished. */
   done: number;
+  /** Threads that filter it. */
+  threads: number;
+  /** When it was opened (performance.now(), ms). */
+  readonly wallStart: number;
 }
 
 /** One step of a search, loaded into a filter slot and ready for the templates. */
@@ -72,34 +84,33 @@ interface RawTrigger extends Trigger {
 }
 
 /**
- * Step `step` made ready to filter: its segment read into buffers[step % 2] (zero-padded), its PSD
- * estimated (search/segmentPsd.ts), loud transients gated (noise/gating.ts), and the data
- * transformed and weighted into filter slot step % filters.length. With workers this runs on the
- * main thread while they filter the previous step.
+ * Step `step` of an input made ready to filter in slot `slot`: its segment read into the slot's
+ * buffer (zero-padded), its PSD estimated (search/segmentPsd.ts), loud transients gated
+ * (noise/gating.ts), and the data transformed and weighted into the slot's filter. With workers this
+ * runs on the main thread while they filter the previous step from the other slot.
  */
-export async function loadStep(ctx: StepContext, step: number): Promise<LoadedStep> {
-  const { source, options, plan } = ctx;
-  const fs = source.sampleRate;
-  const n = plan.size;
-  const segIndex = ctx.todo[step];
+export async function loadStep(m: StepMachinery, run: InputRun, step: number, slot: number): Promise<LoadedStep> {
+  const { source, options, plan } = run;
+  const fs = m.sampleRate;
+  const n = m.size;
+  const segIndex = run.todo[step];
   const seg = plan.segments[segIndex];
-  const data = ctx.buffers[step % 2];
+  const data = m.buffers[slot];
   const raw = await source.read(seg.start, seg.dataLength);
   data.fill(0);
   data.set(raw);
   const psd =
     options.psd.kind === "model"
-      ? (ctx.modelPsd ??= segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, ctx.truncationSamples, ctx.backend))
-      : segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, ctx.truncationSamples, ctx.backend);
+      ? (m.modelPsd ??= segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, m.truncationSamples, m.backend))
+      : segmentPsd(options.psd, data, raw.length, fs, n, options.fMinHz, m.truncationSamples, m.backend);
   const gates: GateRecord[] = [];
-  if (ctx.gater && ctx.gating) {
-    for (const g of ctx.gater.apply(data, raw.length, psd, options.fMinHz, ctx.fMaxHz, ctx.gating)) {
+  if (m.gater && m.gating) {
+    for (const g of m.gater.apply(data, raw.length, psd, options.fMinHz, m.fMaxHz, m.gating)) {
       gates.push({ time: source.startTime + (seg.start + g.peakSample) / fs, zeroedSeconds: (g.zeroEnd - g.zeroStart) / fs, peakSigma: g.peakSigma });
     }
   }
-  const slot = step % ctx.filters.length;
-  const spec = ctx.filters[slot].load(data, raw.length, psd);
-  const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window: ctx.windowSamples };
+  const spec = m.filters[slot].load(data, raw.length, psd);
+  const peaks: PeakWindow = { start: seg.searchStart - seg.start, end: seg.searchEnd - seg.start, threshold: options.snrThreshold, window: m.windowSamples };
   const part = options.segmentHook ? options.segmentHook.templates(segIndex) : { from: 0, to: options.templates.length };
   return { segIndex, seg, slot, spec, gates, peaks, part };
 }
@@ -109,24 +120,25 @@ export async function loadStep(ctx: StepContext, step: number): Promise<LoadedSt
  * clustered within the step, the survivors' chi-squared test (survivorCandidates), then the hook's
  * record of the step and the progress callback.
  */
-export function finishStep(ctx: StepContext, tally: StepTally, step: LoadedStep, triggers: readonly Trigger[], sigmas: Float64Array): void {
-  const { source, options } = ctx;
-  const fs = source.sampleRate;
+export function finishStep(m: StepMachinery, run: InputRun, step: LoadedStep, triggers: readonly Trigger[], sigmas: Float64Array): void {
+  const { source, options } = run;
+  const fs = m.sampleRate;
   const seg = step.seg;
   const searchSamples = seg.searchEnd - seg.searchStart;
-  tally.analysedSamples += searchSamples;
+  run.analysedSamples += searchSamples;
   // Segments overlap: a transient in the overlap is gated in both, and recorded once.
-  for (const g of step.gates) addGate(tally.gates, g);
+  for (const g of step.gates) addGate(run.gates, g);
   const segStartTime = source.startTime + seg.start / fs;
   const timed: RawTrigger[] = triggers.map((tr) => {
     const { offset } = parabolicPeak(tr.before, tr.snr, tr.after);
-    return { ...tr, time: segStartTime + (tr.index + offset) / fs + ctx.iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
+    return { ...tr, time: segStartTime + (tr.index + offset) / fs + m.iscoOffsets[tr.templateIndex], sigma: sigmas[tr.templateIndex] };
   });
-  const first = tally.candidates.length;
+  const first = run.candidates.length;
   const kept = clusterByTime(timed, options.loudestWithinSeconds);
-  for (const c of survivorCandidates(kept, source, options, ctx.filters[step.slot], step.spec)) tally.candidates.push(c);
-  options.segmentHook?.done(step.segIndex, { searchSamples, gates: step.gates, triggers: timed, survivors: kept, candidates: tally.candidates.slice(first) });
-  options.onProgress?.(++tally.done, ctx.todo.length);
+  for (const c of survivorCandidates(kept, source, options, m.filters[step.slot], step.spec)) run.candidates.push(c);
+  options.segmentHook?.done(step.segIndex, { searchSamples, gates: step.gates, triggers: timed, survivors: kept, candidates: run.candidates.slice(first) });
+  run.done += 1; // not inside the optional call below, which would skip it without a callback
+  options.onProgress?.(run.done, run.todo.length);
 }
 
 /**
