@@ -51,7 +51,7 @@ export interface SearchCostOptions {
 }
 
 /**
- * Times, on this machine and one core, what the search (scan.ts) does per segment and per template:
+ * Times, on this machine and one core, what the search (searchEach.ts) does per segment and per template:
  * the segment layout the search would choose for an hour of data (chooseSegmentLayout), the
  * per-segment work (PSD, gating, forward transform and filter weights: segmentPsd, createGater,
  * SegmentFilter.load) on one segment of coloured noise, and the per-template kernel
