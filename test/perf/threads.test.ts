@@ -1,24 +1,18 @@
 // Worker threads give the same candidates as one thread. The workers run the compiled
 // packages/core/dist/search/searchWorker.js, so the core is built first with tsc -b, and a failed
 // build fails the test: the workers never run a stale dist/.
-import { spawnSync } from "node:child_process";
-import { existsSync } from "node:fs";
-import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
+import { buildCoreForWorkers } from "../support/buildCore.js";
 import { ajith2011, arrayInput, createBankFilter, createSegmentFilter, loadFftBackends, searchStrain, type Candidate, type SearchOptions } from "@chirpsieve/core";
 import { type Trigger } from "../../packages/core/src/filter/peaks.js";
-import { createSearchPool, searchWorkerUrl } from "../../packages/core/src/search/workerPool.js";
+import { createSearchPool } from "../../packages/core/src/search/workerPool.js";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData } from "../search/fixtures.js";
 
 const FS = 2048;
 const FMIN = 30;
-const root = fileURLToPath(new URL("../..", import.meta.url));
 
 beforeAll(async () => {
-  const build = spawnSync("npx", ["tsc", "-b", "packages/core"], { cwd: root, encoding: "utf8" });
-  expect(build.error, "could not run tsc").toBeUndefined();
-  expect(build.status, `tsc -b packages/core failed:\n${build.stdout}${build.stderr}`).toBe(0);
-  expect(existsSync(fileURLToPath(searchWorkerUrl()))).toBe(true);
+  buildCoreForWorkers();
   await loadFftBackends();
 });
 

@@ -2,20 +2,16 @@
 // what searchStrain gives for each alone: with one thread and with workers, across an input that
 // cannot be searched and an input whose segment length differs (new filters and workers). The
 // workers run the compiled dist/, so the core is built first and a failed build fails the test.
-import { spawnSync } from "node:child_process";
-import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
+import { buildCoreForWorkers } from "../support/buildCore.js";
 import { ajith2011, arrayInput, loadFftBackends, searchEach, searchStrain, type SearchInput, type SearchOptions, type SearchResult } from "@chirpsieve/core";
 import { atSnr, chirpMassGrid, injectionAt, simulatedData } from "./fixtures.js";
 
 const FS = 2048;
 const FMIN = 30;
-const root = fileURLToPath(new URL("../..", import.meta.url));
 
 beforeAll(async () => {
-  const build = spawnSync("npx", ["tsc", "-b", "packages/core"], { cwd: root, encoding: "utf8" });
-  expect(build.error, "could not run tsc").toBeUndefined();
-  expect(build.status, `tsc -b packages/core failed:\n${build.stdout}${build.stderr}`).toBe(0);
+  buildCoreForWorkers();
   await loadFftBackends();
 });
 

@@ -1,20 +1,17 @@
 // The search filters with the templates' aligned spins (one thread and worker threads), uses them in
 // the chi-squared template, and reports each candidate's template spins and effective spin.
 // The worker path runs the compiled dist/ (built first, as in test/perf/threads.test.ts).
-import { spawnSync } from "node:child_process";
-import { fileURLToPath } from "node:url";
 import { beforeAll, describe, expect, it } from "vitest";
+import { buildCoreForWorkers } from "../support/buildCore.js";
 import { ajith2011, arrayInput, colouredNoise, loadFftBackends, searchStrain, taylorF2Into, type SearchTemplate } from "@chirpsieve/core";
 import { standardSearch, taylorF2Chirp } from "./fixtures.js";
 
 const FS = 2048;
 const FMIN = 30;
 const SECONDS = 64;
-const root = fileURLToPath(new URL("../..", import.meta.url));
 
 beforeAll(async () => {
-  const build = spawnSync("npx", ["tsc", "-b", "packages/core"], { cwd: root, encoding: "utf8" });
-  expect(build.status, `tsc -b packages/core failed:\n${build.stdout}${build.stderr}`).toBe(0);
+  buildCoreForWorkers();
   await loadFftBackends();
 });
 
