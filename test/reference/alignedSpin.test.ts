@@ -144,7 +144,6 @@ describe("orbital hang-up: aligned spins lengthen the inspiral, anti-aligned sho
       const spins = Array.from({ length: 19 }, (_, i) => -0.9 + 0.1 * i);
       const cycles = spins.map((chi) => stationaryPhaseCycles(m1, m2, 30, undefined, chi, chi));
       for (let i = 1; i < cycles.length; i++) expect(cycles[i]).toBeGreaterThan(cycles[i - 1]);
-      console.log(`${m1}+${m2}: cycles at χ = −0.9, 0, 0.9: ${cycles[0].toFixed(1)}, ${cycles[9].toFixed(1)}, ${cycles[18].toFixed(1)}`);
     });
   }
   it("without spins the stationary-phase count equals the orbital-phase count of gwCycleCounts within 0.1 % (the same series in two forms)", async () => {

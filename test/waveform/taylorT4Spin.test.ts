@@ -70,7 +70,6 @@ describe("aligned-spin TaylorT4 against aligned-spin TaylorF2 (FFT of the time d
       const n = seconds * fs;
       const spins = [[0, 0], [0.5, 0.5], [-0.5, -0.5], [0.6, -0.3]];
       const got = spins.map(([a, b]) => overlapT4F2(m1, m2, a, b, fs, n, fStart, fLow));
-      console.log(`${m1}+${m2}: overlap for χ = 0, +0.5, −0.5, 0.6/−0.3: ${got.map((o) => o.toFixed(5)).join(", ")}`);
       got.forEach((o, i) => expect(Math.abs(o - expected[i])).toBeLessThan(0.002));
     });
   }
