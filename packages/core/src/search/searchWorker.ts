@@ -7,7 +7,7 @@ import { loadFftBackends } from "../fft/backends.js";
 import type { Trigger } from "../filter/peaks.js";
 import { createBankFilter } from "./bankFilter.js";
 import type { SegmentWeights } from "./segmentWeights.js";
-import type { WorkerInit, WorkerJob, WorkerReply } from "./workerPool.js";
+import type { PoolMessage, WorkerInit, WorkerJob, WorkerReply } from "./workerPool.js";
 
 const port = parentPort;
 if (!port) throw new Error("searchWorker.js must run in a worker thread");
@@ -36,7 +36,13 @@ try {
   const count = masses.length / 2;
   const sigmaSlots = init.sigmas.map((b) => new Float64Array(b));
   const counter = new Int32Array(init.counter);
-  port.on("message", (job: WorkerJob) => {
+  port.on("message", (message: PoolMessage) => {
+    if (message.kind === "close") {
+      // Ends this worker's event loop: the thread exits as a finished program would.
+      port.close();
+      return;
+    }
+    const job: WorkerJob = message;
     try {
       const weights = slots[job.slot];
       const sigmas = sigmaSlots[job.slot];

@@ -43,6 +43,9 @@ export interface WorkerJob {
   peaks: PeakWindow;
 }
 
+/** What the pool sends a worker: a segment's job, or the request to stop. */
+export type PoolMessage = ({ kind: "job" } & WorkerJob) | { kind: "close" };
+
 export type WorkerReply =
   | { kind: "ready"; backend: FftBackendName }
   | { kind: "done"; segment: number; triggers: Trigger[] }
@@ -77,6 +80,28 @@ export const THREADS_PER_CORE_LIMIT = 4;
 /** {@link THREADS_PER_CORE_LIMIT} × the cores of this machine. */
 export function maxSearchThreads(): number {
   return THREADS_PER_CORE_LIMIT * availableParallelism();
+}
+
+/** Most time (ms) a worker asked to stop gets to end its event loop before it is terminated. */
+const CLOSE_GRACE_MS = 5000;
+
+/**
+ * Stops a worker by asking it to close its port, so that it ends its event loop and exits like a
+ * finished program; terminate() is the fallback after CLOSE_GRACE_MS. Terminating a busy isolate
+ * outright can abort the whole process in Node 20 while V8 still runs background compile tasks for
+ * it (an assertion in NodePlatform::ForIsolate, seen once in CI with 8 workers on 2 cores).
+ */
+async function closeWorker(worker: Worker): Promise<void> {
+  if (worker.threadId < 0) return; // already gone
+  const exited = new Promise<void>((resolve) => worker.once("exit", () => resolve()));
+  worker.postMessage({ kind: "close" } satisfies PoolMessage);
+  let timer: NodeJS.Timeout | undefined;
+  const late = new Promise<"late">((resolve) => {
+    timer = setTimeout(() => resolve("late"), CLOSE_GRACE_MS);
+  });
+  const how = await Promise.race([exited.then(() => "exited" as const), late]);
+  clearTimeout(timer);
+  if (how === "late") await worker.terminate();
 }
 
 /** Worker threads that filter a bank over one segment at a time (see searchStrain). */
@@ -161,7 +186,7 @@ export async function createSearchPool(
   }
   const close = async (): Promise<void> => {
     closing = true;
-    await Promise.all(workers.map((w) => w.terminate()));
+    await Promise.all(workers.map(closeWorker));
   };
   let backend: FftBackendName = config.backend;
   try {
@@ -180,7 +205,7 @@ export async function createSearchPool(
     async run(segment, slot, peaks, from = 0, to = count) {
       const w = slots[slot];
       Atomics.store(counter, 0, from);
-      const job: WorkerJob = { segment, slot, kLow: w.kLow, kHigh: w.kHigh, scale: w.scale, chunk, from, to, peaks };
+      const job: PoolMessage = { kind: "job", segment, slot, kLow: w.kLow, kHigh: w.kHigh, scale: w.scale, chunk, from, to, peaks };
       const done: Promise<WorkerReply>[] = [];
       for (let i = 0; i < threads; i++) {
         done.push(nextReply(i));
