@@ -50,7 +50,6 @@ function outcome(i: number, snr: number, found: boolean, distanceMpc = 100, mcEr
     chirpMassSolar: 1.2188,
     primarySpin: 0,
     secondarySpin: 0,
-    effectiveSpin: 0,
     coalescenceTime: 10 * i,
     arrivalTime: 10 * i,
     distanceMpc,

@@ -1,6 +1,7 @@
 import { spawnSync } from "node:child_process";
 import { readFileSync, writeFileSync } from "node:fs";
 import h5wasm from "h5wasm/node";
+import type { Dataset as H5Dataset, Group as H5Group } from "h5wasm";
 import { beforeAll, describe, expect, it } from "vitest";
 import { InputError, openStrain, readStrain, writeStrain } from "@chirpsieve/core";
 import { setHdf5TimeoutMs } from "../../packages/core/src/io/hdf5Client.js";
@@ -18,8 +19,8 @@ function buildH5(name: string, datasets: DatasetSpec[], rootAttrs: Attr[] = []):
   try {
     for (const d of datasets) {
       const parts = d.name.split("/");
-      let g: h5wasm.Group = f;
-      for (const part of parts.slice(0, -1)) g = (g.get(part) as h5wasm.Group | null) ?? g.create_group(part);
+      let g: H5Group = f;
+      for (const part of parts.slice(0, -1)) g = (g.get(part) as H5Group | null) ?? g.create_group(part);
       const ds = g.create_dataset({ name: parts[parts.length - 1], data: d.data, shape: d.shape ?? null });
       for (const a of d.attrs ?? []) ds.create_attribute(a.name, a.value, typeof a.value === "number" ? [] : null, a.dtype ?? (typeof a.value === "number" ? "<d" : null));
     }
@@ -47,7 +48,7 @@ describe("HDF5 strain files", () => {
     // The file as another reader sees it (h5wasm directly).
     const f = new h5wasm.File(p, "r");
     try {
-      const ds = f.get("strain") as h5wasm.Dataset;
+      const ds = f.get("strain") as H5Dataset;
       expect(ds.metadata.type).toBe(1);
       expect(ds.metadata.size).toBe(8);
       expect(ds.attrs.sampleRate.value).toBe(4096);
